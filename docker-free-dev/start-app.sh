@@ -1,0 +1,20 @@
+#!/usr/bin/env bash
+# npm start: installs what is missing, starts the local services, migrates, loads the demo data,
+# builds and serves Roundmark on http://127.0.0.1:$ROUNDMARK_APP_PORT (default 4321).
+source "$(dirname "$0")/lib.sh"
+cd "$ROOT"
+
+if port_busy "$ROUNDMARK_APP_PORT"; then
+  fail "port $ROUNDMARK_APP_PORT is already in use, so Roundmark cannot start there. Stop the program using it (for example: fuser -k $ROUNDMARK_APP_PORT/tcp) or start on another port with ROUNDMARK_APP_PORT=4322 npm start."
+fi
+
+bash docker-free-dev/ensure-system.sh
+bash docker-free-dev/services.sh up
+npx tsx scripts/migrate.ts
+npx tsx scripts/seed.ts
+bash docker-free-dev/build-if-stale.sh
+
+export HOST=127.0.0.1 PORT="$ROUNDMARK_APP_PORT" NODE_ENV=production
+# Local services speak plain HTTP on loopback; production deployments set their own values.
+say "Roundmark is starting on $PUBLIC_BASE_URL (demo accounts in README.md). Ctrl+C stops the app; 'npm run services -- down' stops the services."
+exec node dist/server/entry.mjs

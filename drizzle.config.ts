@@ -1,0 +1,10 @@
+import { defineConfig } from 'drizzle-kit';
+
+// drizzle-kit only needs the URL for introspection commands; `generate` works without a database.
+export default defineConfig({
+  dialect: 'postgresql',
+  schema: './src/db/schema/index.ts',
+  out: './drizzle',
+  casing: 'snake_case',
+  dbCredentials: { url: process.env.DATABASE_URL ?? 'postgres://roundmark@127.0.0.1:54329/roundmark' },
+});

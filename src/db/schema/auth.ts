@@ -1,0 +1,40 @@
+import { bigint, index, integer, pgTable, text, timestamp, uniqueIndex, varchar } from 'drizzle-orm/pg-core';
+import { sql } from 'drizzle-orm';
+
+/** People who sign in. E-mail is stored lower-cased; uniqueness is case-insensitive. */
+export const users = pgTable(
+  'users',
+  {
+    id: text().primaryKey(),
+    email: text().notNull(),
+    name: text().notNull(),
+    passwordHash: text().notNull(),
+    emailVerifiedAt: timestamp({ withTimezone: true }),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    passwordChangedAt: timestamp({ withTimezone: true }),
+  },
+  (t) => [uniqueIndex('users_email_lower_idx').on(sql`lower(${t.email})`)],
+);
+
+/** lucia's session table: one row per signed-in browser. */
+export const sessions = pgTable(
+  'sessions',
+  {
+    id: text().primaryKey(),
+    userId: text()
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
+  },
+  (t) => [index('sessions_user_idx').on(t.userId)],
+);
+
+/**
+ * Counters for rate-limiter-flexible's PostgreSQL store (failed sign-ins per account and per
+ * address). Column names and types are the ones that package expects.
+ */
+export const rateLimits = pgTable('rate_limits', {
+  key: varchar({ length: 255 }).primaryKey(),
+  points: integer().notNull().default(0),
+  expire: bigint({ mode: 'number' }),
+});

@@ -1,0 +1,103 @@
+import {
+  doublePrecision,
+  index,
+  integer,
+  jsonb,
+  pgEnum,
+  pgTable,
+  primaryKey,
+  real,
+  text,
+  timestamp,
+  uniqueIndex,
+  uuid,
+} from 'drizzle-orm/pg-core';
+import { sql } from 'drizzle-orm';
+import { users } from './auth';
+import { studios } from './studio';
+
+export const lessonStateEnum = pgEnum('lesson_state', ['draft', 'published', 'archived']);
+export const impactEnum = pgEnum('impact_level', ['low', 'moderate', 'high']);
+export const difficultyEnum = pgEnum('difficulty_level', ['beginner', 'intermediate', 'advanced']);
+
+/** A recorded class ("class" is reserved in code). `version` guards against stale edits. */
+export const lessons = pgTable(
+  'lessons',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    studioId: uuid()
+      .notNull()
+      .references(() => studios.id, { onDelete: 'cascade' }),
+    coachId: text()
+      .notNull()
+      .references(() => users.id),
+    slug: text().notNull(),
+    title: text().notNull(),
+    description: text().notNull().default(''),
+    advertisedMinutes: integer().notNull(),
+    mediaSeconds: real(),
+    equipment: text().array().notNull().default(sql`'{}'::text[]`),
+    impact: impactEnum().notNull().default('low'),
+    focus: text().array().notNull().default(sql`'{}'::text[]`),
+    difficulty: difficultyEnum().notNull().default('beginner'),
+    cautions: text().notNull().default(''),
+    state: lessonStateEnum().notNull().default('draft'),
+    /** The class plan as JSON (src/lib/plan/plan-schema.ts); null until the coach writes one. */
+    plan: jsonb(),
+    /** Bumped by every timeline save; 0 means never saved. Stale saves answer 409. */
+    timelineVersion: integer().notNull().default(0),
+    version: integer().notNull().default(1),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [
+    uniqueIndex('lessons_studio_slug_idx').on(t.studioId, t.slug),
+    index('lessons_studio_state_idx').on(t.studioId, t.state),
+  ],
+);
+
+export const segmentKindEnum = pgEnum('segment_kind', [
+  'intro',
+  'warmup',
+  'work',
+  'rest',
+  'round-break',
+  'cooldown',
+  'outro',
+  'talk',
+]);
+export const cueKindEnum = pgEnum('cue_kind', ['countdown', 'form', 'option', 'safety', 'note']);
+
+/** Marked spans of a lesson's recording (the draft timeline). Ids come from the editor. */
+export const segments = pgTable(
+  'segments',
+  {
+    lessonId: uuid()
+      .notNull()
+      .references(() => lessons.id, { onDelete: 'cascade' }),
+    id: text().notNull(),
+    kind: segmentKindEnum().notNull(),
+    startSeconds: doublePrecision().notNull(),
+    endSeconds: doublePrecision().notNull(),
+    exercise: text(),
+    round: integer(),
+    set: integer(),
+    title: text(),
+  },
+  (t) => [primaryKey({ columns: [t.lessonId, t.id] })],
+);
+
+/** Point-in-time coaching notes on a lesson's draft timeline. */
+export const cues = pgTable(
+  'cues',
+  {
+    lessonId: uuid()
+      .notNull()
+      .references(() => lessons.id, { onDelete: 'cascade' }),
+    id: text().notNull(),
+    atSeconds: doublePrecision().notNull(),
+    kind: cueKindEnum().notNull(),
+    text: text().notNull(),
+  },
+  (t) => [primaryKey({ columns: [t.lessonId, t.id] })],
+);

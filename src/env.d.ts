@@ -1,0 +1,12 @@
+/// <reference types="astro/client" />
+
+declare namespace App {
+  interface Locals {
+    /** The signed-in person, or null for visitors. */
+    user: import('lucia').User & { email: string; name: string } | null;
+    /** The lucia session behind the cookie, or null. */
+    session: import('lucia').Session | null;
+    /** The studio this request acts in and the user's roles there; null for visitors and people with no studio. */
+    studio: import('./server/services/accounts').StudioAccess | null;
+  }
+}

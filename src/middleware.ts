@@ -1,0 +1,33 @@
+import { defineMiddleware } from 'astro:middleware';
+import { app } from './server/app';
+import { studioAccess } from './server/services/accounts';
+
+/**
+ * Reads the session cookie, validates the session (lucia extends it when used in its second
+ * half), refreshes or blanks the cookie, and puts user, session and studio roles on locals.
+ */
+export const onRequest = defineMiddleware(async (context, next) => {
+  context.locals.user = null;
+  context.locals.session = null;
+  context.locals.studio = null;
+  const deps = app();
+  const sessionId = context.cookies.get(deps.auth.sessionCookieName)?.value ?? null;
+  if (sessionId) {
+    const { session, user } = await deps.auth.validateSession(sessionId);
+    if (session?.fresh) {
+      const c = deps.auth.createSessionCookie(session.id);
+      context.cookies.set(c.name, c.value, { ...c.attributes, httpOnly: true });
+    }
+    if (!session) {
+      const c = deps.auth.createBlankSessionCookie();
+      context.cookies.set(c.name, c.value, { ...c.attributes, httpOnly: true });
+    }
+    if (session && user) {
+      context.locals.session = session;
+      context.locals.user = user;
+      const studios = await studioAccess(deps, user.id);
+      context.locals.studio = studios.find((s) => s.studioSlug === deps.studioSlug) ?? studios[0] ?? null;
+    }
+  }
+  return next();
+});

@@ -1,0 +1,54 @@
+import { RateLimiterPostgres } from 'rate-limiter-flexible';
+import type pg from 'pg';
+import { createDb, type Db } from './db';
+import { createLucia, type Auth } from './auth/lucia';
+import { env } from './env';
+
+/** The side-effecting parts one process shares; services receive what they need from it. */
+export interface AppDeps {
+  db: Db;
+  pool: pg.Pool;
+  auth: Auth;
+  limits: SignInLimits;
+  studioSlug: string;
+}
+
+export interface SignInLimits {
+  perAccount: RateLimiterPostgres;
+  perAddress: RateLimiterPostgres;
+}
+
+// Failed sign-ins allowed before a pause: 5 per account and 30 per address in 15 minutes.
+// Common practice, no source (OWASP's Authentication Cheat Sheet asks for a limit without fixing numbers).
+export const SIGN_IN_LIMITS = {
+  account: { points: 5, duration: 15 * 60 },
+  address: { points: 30, duration: 15 * 60 },
+};
+
+function signInLimits(pool: pg.Pool): SignInLimits {
+  const common = { storeClient: pool, tableName: 'rate_limits', tableCreated: true, clearExpiredByTimeout: false };
+  return {
+    perAccount: new RateLimiterPostgres({ ...common, keyPrefix: 'signin-account', ...SIGN_IN_LIMITS.account }),
+    perAddress: new RateLimiterPostgres({ ...common, keyPrefix: 'signin-address', ...SIGN_IN_LIMITS.address }),
+  };
+}
+
+/** Builds the dependencies for one database (tests build their own against the test database). */
+export function createAppDeps(databaseUrl: string, production = false): AppDeps {
+  const { db, pool } = createDb(databaseUrl);
+  return {
+    db,
+    pool,
+    auth: createLucia(db, production),
+    limits: signInLimits(pool),
+    studioSlug: process.env.STUDIO_SLUG ?? 'fernhill',
+  };
+}
+
+let shared: AppDeps | undefined;
+
+/** The process-wide dependencies, built on first use from the environment. */
+export function app(): AppDeps {
+  shared ??= createAppDeps(env().DATABASE_URL, env().NODE_ENV === 'production');
+  return shared;
+}

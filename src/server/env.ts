@@ -1,0 +1,45 @@
+import { z } from 'zod';
+
+/**
+ * The one place that reads process.env. The server, the worker, scripts and drizzle.config.ts
+ * all use it, so a missing or malformed setting fails at start-up with the full list.
+ */
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  DATABASE_URL: z.string().url(),
+  S3_ENDPOINT: z.string().url().optional(),
+  S3_REGION: z.string().min(1).default('us-east-1'),
+  S3_BUCKET: z.string().min(3),
+  S3_ACCESS_KEY_ID: z.string().min(1),
+  S3_SECRET_ACCESS_KEY: z.string().min(1),
+  S3_FORCE_PATH_STYLE: z
+    .enum(['true', 'false'])
+    .default('false')
+    .transform((v) => v === 'true'),
+  SMTP_URL: z.string().url(),
+  MAIL_FROM: z.string().min(3).default('Roundmark <no-reply@roundmark.example>'),
+  PUBLIC_BASE_URL: z.string().url().default('http://127.0.0.1:4321'),
+  MAX_UPLOAD_BYTES: z.coerce.number().int().positive().default(8 * 1024 ** 3),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+let cached: Env | undefined;
+
+/** Reads and checks the environment once; throws with every problem listed. */
+export function env(): Env {
+  if (cached) return cached;
+  const parsed = envSchema.safeParse(process.env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(
+      `Roundmark cannot start: these settings are missing or wrong:\n${lines.join('\n')}\n` +
+        'Locally, `npm start` sets them from docker-free-dev/local.env.',
+    );
+  }
+  cached = parsed.data;
+  return cached;
+}
+
+/** True when the app runs as a production build with production settings. */
+export const isProduction = () => env().NODE_ENV === 'production';

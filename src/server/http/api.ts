@@ -1,0 +1,66 @@
+import type { z } from 'zod';
+import { AppError } from './app-error';
+
+/** A JSON response. */
+export function json(data: unknown, status = 200, headers: HeadersInit = {}): Response {
+  return new Response(JSON.stringify(data), {
+    status,
+    headers: { 'content-type': 'application/json; charset=utf-8', 'cache-control': 'no-store', ...headers },
+  });
+}
+
+/** Turns zod issues into `{ field: message }`, first message per field. */
+export function fieldErrors(error: z.ZodError): Record<string, string> {
+  const fields: Record<string, string> = {};
+  for (const issue of error.issues) {
+    const key = issue.path.join('.') || '_';
+    fields[key] ??= issue.message;
+  }
+  return fields;
+}
+
+/** Validates data against a schema or throws a 400 AppError naming each bad field. */
+export function parseWith<S extends z.ZodType>(schema: S, data: unknown): z.infer<S> {
+  const parsed = schema.safeParse(data);
+  if (!parsed.success) {
+    throw new AppError('invalid_input', 'Some fields need another look.', fieldErrors(parsed.error));
+  }
+  return parsed.data;
+}
+
+/** Reads a JSON body and validates it. */
+export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<z.infer<S>> {
+  let body: unknown;
+  try {
+    body = await request.json();
+  } catch {
+    throw new AppError('invalid_input', 'The request body must be JSON.');
+  }
+  return parseWith(schema, body);
+}
+
+/** Answers an error as `{ error: { code, message, fields? } }`; unknown errors become 500 without details. */
+export function errorResponse(err: unknown): Response {
+  if (err instanceof AppError) {
+    return json(
+      { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}), ...err.extra } },
+      err.status,
+      err.code === 'rate_limited' && typeof err.extra?.retryAfterSeconds === 'number'
+        ? { 'retry-after': String(err.extra.retryAfterSeconds) }
+        : {},
+    );
+  }
+  console.error(err);
+  return json({ error: { code: 'internal', message: 'Something went wrong on our side. Please try again.' } }, 500);
+}
+
+/** Wraps an endpoint so thrown AppErrors become JSON error answers. */
+export function endpoint<C>(handler: (ctx: C) => Promise<Response>): (ctx: C) => Promise<Response> {
+  return async (ctx) => {
+    try {
+      return await handler(ctx);
+    } catch (err) {
+      return errorResponse(err);
+    }
+  };
+}

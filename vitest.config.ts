@@ -1,0 +1,37 @@
+import { defineConfig } from 'vitest/config';
+import { fileURLToPath } from 'node:url';
+
+const alias = { '~': fileURLToPath(new URL('./src', import.meta.url)) };
+
+// Three projects: unit tests need nothing running; integration and e2e tests need the
+// services that docker-free-dev/run-tests.sh starts (PostgreSQL, object store, mail fake).
+export default defineConfig({
+  resolve: { alias },
+  test: {
+    projects: [
+      { resolve: { alias }, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
+      {
+        resolve: { alias },
+        test: {
+          name: 'integration',
+          include: ['tests/integration/**/*.test.ts'],
+          environment: 'node',
+          testTimeout: 120_000,
+          hookTimeout: 180_000,
+          poolOptions: { forks: { singleFork: true } },
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: 'e2e',
+          include: ['tests/e2e/**/*.test.ts'],
+          environment: 'node',
+          testTimeout: 180_000,
+          hookTimeout: 240_000,
+          poolOptions: { forks: { singleFork: true } },
+        },
+      },
+    ],
+  },
+});
