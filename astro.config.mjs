@@ -4,13 +4,19 @@ import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
 
+// Hosts whose Host header Astro trusts when building request URLs (the origin check compares
+// against them). Loopback for local use, plus the public host the build is made for.
+const publicHost = process.env.PUBLIC_BASE_URL ? new URL(process.env.PUBLIC_BASE_URL).hostname : undefined;
+const allowedDomains = [{ hostname: '127.0.0.1' }, { hostname: 'localhost' }];
+if (publicHost && !allowedDomains.some((d) => d.hostname === publicHost)) allowedDomains.push({ hostname: publicHost });
+
 export default defineConfig({
   output: 'server',
   adapter: node({ mode: 'standalone' }),
   integrations: [react()],
   server: { host: '127.0.0.1', port: 4321 },
   // Astro's origin check stays on: form posts from other sites are refused.
-  security: { checkOrigin: true },
+  security: { checkOrigin: true, allowedDomains },
   vite: {
     plugins: [tailwindcss()],
     // Native modules and server-only packages are loaded by Node, not bundled.

@@ -8,6 +8,8 @@ const alias = { '~': fileURLToPath(new URL('./src', import.meta.url)) };
 export default defineConfig({
   resolve: { alias },
   test: {
+    // Serves the built app for the integration and browser projects (see the file for why).
+    globalSetup: ['tests/helpers/app-server.ts'],
     projects: [
       { resolve: { alias }, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
       {

@@ -33,13 +33,16 @@ function signInLimits(pool: pg.Pool): SignInLimits {
   };
 }
 
-/** Builds the dependencies for one database (tests build their own against the test database). */
-export function createAppDeps(databaseUrl: string, production = false): AppDeps {
+/**
+ * Builds the dependencies for one database (tests build their own against the test database).
+ * `secureCookies` is on whenever the app is served over HTTPS.
+ */
+export function createAppDeps(databaseUrl: string, secureCookies = false): AppDeps {
   const { db, pool } = createDb(databaseUrl);
   return {
     db,
     pool,
-    auth: createLucia(db, production),
+    auth: createLucia(db, secureCookies),
     limits: signInLimits(pool),
     studioSlug: process.env.STUDIO_SLUG ?? 'fernhill',
   };
@@ -49,6 +52,6 @@ let shared: AppDeps | undefined;
 
 /** The process-wide dependencies, built on first use from the environment. */
 export function app(): AppDeps {
-  shared ??= createAppDeps(env().DATABASE_URL, env().NODE_ENV === 'production');
+  shared ??= createAppDeps(env().DATABASE_URL, env().PUBLIC_BASE_URL.startsWith('https://'));
   return shared;
 }

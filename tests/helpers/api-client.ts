@@ -1,0 +1,54 @@
+/** A small HTTP client for tests: keeps the session cookie and sends the Origin header Astro checks. */
+export const BASE = () => process.env.TEST_BASE_URL ?? `http://127.0.0.1:${process.env.ROUNDMARK_TEST_PORT ?? '4399'}`;
+export const DEMO_PASSWORD = 'fernhill-demo-2026'; // demo data, printed in the README
+
+export class ApiClient {
+  cookie = '';
+
+  async request(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Response> {
+    const isText = typeof body === 'string';
+    const res = await fetch(BASE() + path, {
+      method,
+      redirect: 'manual',
+      headers: {
+        origin: BASE(),
+        ...(body !== undefined ? { 'content-type': isText ? 'text/plain' : 'application/json' } : {}),
+        ...(this.cookie ? { cookie: this.cookie } : {}),
+        ...headers,
+      },
+      body: body === undefined ? undefined : isText ? body : JSON.stringify(body),
+    });
+    for (const c of res.headers.getSetCookie()) {
+      const pair = c.split(';')[0]!;
+      this.cookie = pair.endsWith('=') ? '' : pair;
+    }
+    return res;
+  }
+
+  get = (path: string) => this.request('GET', path);
+  post = (path: string, body?: unknown) => this.request('POST', path, body);
+  put = (path: string, body?: unknown) => this.request('PUT', path, body);
+  patch = (path: string, body?: unknown) => this.request('PATCH', path, body);
+  del = (path: string) => this.request('DELETE', path);
+
+  /** Signs in through the API and keeps the cookie. */
+  async signIn(email: string, password = DEMO_PASSWORD): Promise<Response> {
+    return this.post('/api/auth/sign-in', { email, password });
+  }
+}
+
+/** A client signed in as a demo person. */
+export async function signedIn(email: string): Promise<ApiClient> {
+  const c = new ApiClient();
+  const res = await c.signIn(email);
+  if (res.status !== 200) throw new Error(`sign-in as ${email} failed: ${res.status} ${await res.text()}`);
+  return c;
+}
+
+/** The demo people by role (demo data from ../shared/design.md). */
+export const DEMO = {
+  owner: 'ada@fernhill.example',
+  coach: 'tomasz@fernhill.example',
+  editor: 'priya@fernhill.example',
+  member: 'sam@fernhill.example',
+} as const;
