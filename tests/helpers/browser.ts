@@ -1,0 +1,21 @@
+import { chromium, type Browser } from 'playwright-core';
+
+/** Debian's Chromium, headless, with the flags this closed-network machine needs. */
+export function launchBrowser(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+    headless: true,
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
+  });
+}
+
+/** Where browser tests keep screenshots (a test artifact, gitignored). */
+export const SHOTS = 'test-results/screenshots';
