@@ -1,0 +1,122 @@
+import { OpenAPIRegistry, OpenApiGeneratorV31, type RouteConfig } from '@asteasolutions/zod-to-openapi';
+import { z } from 'zod';
+import { changePasswordInput, signInInput, signUpInput } from '../../lib/api/auth-schemas';
+import { createLessonInput, lessonOutput, updateLessonInput } from '../../lib/api/lesson-schemas';
+import { apiRoutes } from './routes';
+
+/** The error body every API route answers with on failure. */
+export const errorOutput = z
+  .object({
+    error: z.object({
+      code: z.string().describe('Machine-readable reason, e.g. invalid_input, conflict'),
+      message: z.string().describe('What happened and what to do next, in plain language'),
+      fields: z.record(z.string(), z.string()).optional().describe('Message per invalid field'),
+    }),
+  })
+  .meta({ id: 'Error' });
+
+const json = (schema: z.ZodType, description: string) => ({ description, content: { 'application/json': { schema } } });
+const errors = (...codes: number[]) =>
+  Object.fromEntries(codes.map((c) => [String(c), json(errorOutput, ERROR_TEXT[c] ?? 'Error')]));
+const ERROR_TEXT: Record<number, string> = {
+  400: 'Invalid input; `fields` names each problem',
+  401: 'Not signed in',
+  403: 'Signed in, but the role does not allow this',
+  404: 'Not found (also for another studio’s data)',
+  409: 'Stale version: someone saved first',
+  413: 'Too large',
+  415: 'Unsupported file type',
+  429: 'Too many attempts; see Retry-After',
+  503: 'A dependency is down',
+};
+
+const lessonId = z.object({ id: z.string().uuid().describe('Class id') });
+
+/** Every API route, described from the same zod schemas the endpoints use. */
+export function openApiDocument() {
+  const registry = new OpenAPIRegistry();
+  registry.registerComponent('securitySchemes', 'session', {
+    type: 'apiKey',
+    in: 'cookie',
+    name: 'rm_session',
+    description: 'Session cookie set by sign-in (named __Host-rm_session over HTTPS).',
+  });
+  const add = (route: RouteConfig) => registry.registerPath({ security: [{ session: [] }], ...route });
+
+  add({
+    method: 'post', path: '/api/auth/sign-up', summary: 'Create an account (a member of the studio) and sign in', security: [],
+    request: { body: json(signUpInput, 'New account') },
+    responses: { 201: json(z.object({ userId: z.string(), home: z.string() }), 'Signed in'), ...errors(400, 409) },
+  });
+  add({
+    method: 'post', path: '/api/auth/sign-in', summary: 'Sign in; sets the session cookie', security: [],
+    request: { body: json(signInInput, 'Credentials') },
+    responses: { 200: json(z.object({ userId: z.string(), home: z.string() }), 'Signed in'), ...errors(400, 429) },
+  });
+  add({
+    method: 'post', path: '/api/auth/sign-out', summary: 'Sign out this session, or every session with ?everywhere=1',
+    request: { query: z.object({ everywhere: z.enum(['1']).optional() }) },
+    responses: { 200: json(z.object({ signedOut: z.boolean() }), 'Signed out'), ...errors(401) },
+  });
+  add({
+    method: 'post', path: '/api/account/password', summary: 'Change the password (optionally signing out other sessions)',
+    request: { body: json(changePasswordInput, 'Passwords') },
+    responses: { 204: { description: 'Changed' }, ...errors(400, 401) },
+  });
+  add({
+    method: 'get', path: '/api/me', summary: 'The signed-in person and their studio roles',
+    responses: {
+      200: json(
+        z.object({
+          user: z.object({ id: z.string(), email: z.string(), name: z.string() }),
+          studio: z.object({ studioId: z.string(), studioSlug: z.string(), studioName: z.string(), roles: z.array(z.string()) }).nullable(),
+        }),
+        'You',
+      ),
+      ...errors(401),
+    },
+  });
+  add({
+    method: 'get', path: '/api/health', summary: 'Database and storage reachability', security: [],
+    responses: {
+      200: json(z.object({ ok: z.boolean(), database: z.enum(['up', 'down']), storage: z.enum(['up', 'down']) }), 'All up'),
+      503: json(z.object({ ok: z.boolean(), database: z.enum(['up', 'down']), storage: z.enum(['up', 'down']) }), 'Something is down'),
+    },
+  });
+  add({
+    method: 'get', path: '/api/openapi.json', summary: 'This document', security: [],
+    responses: { 200: { description: 'OpenAPI 3.1 document', content: { 'application/json': { schema: z.object({}).passthrough() } } } },
+  });
+  add({
+    method: 'get', path: '/api/lessons', summary: 'The studio’s classes (staff)',
+    responses: { 200: json(z.object({ lessons: z.array(lessonOutput) }), 'Classes'), ...errors(401, 403) },
+  });
+  add({
+    method: 'post', path: '/api/lessons', summary: 'Create a draft class (staff)',
+    request: { body: json(createLessonInput, 'Class details') },
+    responses: { 201: json(lessonOutput, 'Created'), ...errors(400, 401, 403) },
+  });
+  add({
+    method: 'get', path: '/api/lessons/{id}', summary: 'One class (staff)', request: { params: lessonId },
+    responses: { 200: json(lessonOutput, 'The class'), ...errors(401, 403, 404) },
+  });
+  add({
+    method: 'patch', path: '/api/lessons/{id}', summary: 'Change class details; send the version you read', request: { params: lessonId, body: json(updateLessonInput, 'Changes') },
+    responses: { 200: json(lessonOutput, 'Updated'), ...errors(400, 401, 403, 404, 409) },
+  });
+  add({
+    method: 'delete', path: '/api/lessons/{id}', summary: 'Delete a draft class (owner, coach)', request: { params: lessonId },
+    responses: { 204: { description: 'Deleted' }, ...errors(401, 403, 404, 409) },
+  });
+  for (const extra of apiRoutes) add(extra);
+
+  return new OpenApiGeneratorV31(registry.definitions).generateDocument({
+    openapi: '3.1.0',
+    info: {
+      title: 'Roundmark API',
+      version: '1.0.0',
+      description: 'Classes, plans, timelines and the timing check of a Roundmark studio. Errors answer `{ error: { code, message, fields? } }`.',
+    },
+    servers: [{ url: '/' }],
+  });
+}
