@@ -10,8 +10,8 @@ fi
 
 bash docker-free-dev/ensure-system.sh
 bash docker-free-dev/services.sh up
-npx tsx scripts/migrate.ts
-npx tsx scripts/seed.ts
+npx tsx src/scripts/migrate.ts
+npx tsx src/scripts/seed.ts
 bash docker-free-dev/build-if-stale.sh
 
 export HOST=127.0.0.1 PORT="$ROUNDMARK_APP_PORT" NODE_ENV=production

@@ -1,9 +1,9 @@
 import { and, eq, sql } from 'drizzle-orm';
 import { generateIdFromEntropySize } from 'lucia';
-import { exercises, lessons, memberships, studios, users } from '../src/db/schema';
-import { createAppDeps } from '../src/server/app';
-import { hashPassword } from '../src/server/auth/passwords';
-import { env } from '../src/server/env';
+import { exercises, lessons, memberships, studios, users } from '../db/schema';
+import { createAppDeps } from '../server/app';
+import { hashPassword } from '../server/auth/passwords';
+import { env } from '../server/env';
 import * as demo from './demo/fernhill';
 
 /**

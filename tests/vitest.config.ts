@@ -1,11 +1,14 @@
 import { defineConfig } from 'vitest/config';
 import { fileURLToPath } from 'node:url';
 
-const alias = { '~': fileURLToPath(new URL('./src', import.meta.url)) };
+// Kept under tests/ so the project's top level stays as the layout in DEVELOPERS.md; paths are from the root.
+const root = fileURLToPath(new URL('..', import.meta.url));
+const alias = { '~': fileURLToPath(new URL('../src', import.meta.url)) };
 
 // Three projects: unit tests need nothing running; integration and e2e tests need the
 // services that docker-free-dev/run-tests.sh starts (PostgreSQL, object store, mail fake).
 export default defineConfig({
+  root,
   resolve: { alias },
   test: {
     // Serves the built app for the integration and browser projects (see the file for why).
