@@ -1,6 +1,10 @@
 import { and, eq, sql } from 'drizzle-orm';
 import { generateIdFromEntropySize } from 'lucia';
 import { exercises, lessons, memberships, studios, users } from '../db/schema';
+import { planSchema } from '../lib/plan/plan-schema';
+import { expandPlan } from '../lib/plan/expand-plan';
+import { putTimeline } from '../server/services/timelines';
+import { demoTimeline, withDeliberateMistakes } from './demo/demo-timelines';
 import { createAppDeps } from '../server/app';
 import { hashPassword } from '../server/auth/passwords';
 import { env } from '../server/env';
@@ -44,7 +48,15 @@ for (const l of demo.lessons) {
   const exists = await db.query.lessons.findFirst({ where: and(eq(lessons.studioId, studio.id), eq(lessons.slug, l.slug)) });
   if (exists) continue;
   const { coach, ...fields } = l;
-  await db.insert(lessons).values({ ...fields, studioId: studio.id, coachId: userIds.get(coach)! });
+  const plan = planSchema.parse(l.plan);
+  const schedule = expandPlan(plan);
+  const timeline = l.state === 'draft' ? withDeliberateMistakes(demoTimeline(schedule)) : demoTimeline(schedule);
+  const mediaSeconds = Math.max(...timeline.segments.map((s) => s.endSeconds));
+  const [row] = await db
+    .insert(lessons)
+    .values({ ...fields, plan, mediaSeconds, studioId: studio.id, coachId: userIds.get(coach)! })
+    .returning({ id: lessons.id });
+  await putTimeline(deps, studio.id, row!.id, 0, timeline);
   added++;
 }
 console.log(`demo data ready (${demo.studio.name}; ${added} classes added)`);

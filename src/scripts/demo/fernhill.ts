@@ -147,19 +147,19 @@ export const lessons: DemoLesson[] = [
     state: 'draft',
     plan: {
       blocks: [
-        { kind: 'warmup', seconds: 180 },
+        { kind: 'warmup', seconds: 240 },
         {
           kind: 'circuit',
           rounds: 3,
-          roundBreakSeconds: 45,
+          roundBreakSeconds: 60,
           stations: [
-            { exercise: 'Squat jump', workSeconds: 30, restSeconds: 15 },
-            { exercise: 'Mountain climber', workSeconds: 30, restSeconds: 15 },
-            { exercise: 'Reverse lunge', workSeconds: 30, restSeconds: 15 },
-            { exercise: 'High knees', workSeconds: 30, restSeconds: 15 },
+            { exercise: 'Squat jump', workSeconds: 40, restSeconds: 20 },
+            { exercise: 'Mountain climber', workSeconds: 40, restSeconds: 20 },
+            { exercise: 'Reverse lunge', workSeconds: 40, restSeconds: 20 },
+            { exercise: 'High knees', workSeconds: 40, restSeconds: 20 },
           ],
         },
-        { kind: 'cooldown', seconds: 120 },
+        { kind: 'cooldown', seconds: 180 },
       ],
       options: { roundBreakReplacesLastRest: true, dropFinalRest: true },
     },

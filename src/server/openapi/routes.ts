@@ -1,4 +1,110 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
+import { z } from 'zod';
+import { planSchema } from '../../lib/plan/plan-schema';
+import { timelinePutSchema, segmentSchema, cueSchema } from '../../lib/timeline/timeline-schema';
+import { timelineExportQuery, timelineImportQuery } from '../../lib/api/timeline-file-schemas';
+import { createExerciseInput, exerciseOutput, updateExerciseInput } from '../../lib/api/exercise-schemas';
+import { FINDING_CODES } from '../../lib/timing/finding-types';
 
-/** Routes added by later features register here, so the document stays complete. */
-export const apiRoutes: RouteConfig[] = [];
+const errorRef = z.object({ error: z.object({ code: z.string(), message: z.string() }).passthrough() });
+const json = (schema: z.ZodType, description: string) => ({ description, content: { 'application/json': { schema } } });
+const errors = (...codes: number[]) => Object.fromEntries(codes.map((c) => [String(c), json(errorRef, `Error ${c}`)]));
+const params = z.object({ id: z.string().uuid().describe('Class id') });
+
+const plannedSegment = z.object({
+  index: z.number().int(),
+  kind: z.enum(['warmup', 'work', 'rest', 'round-break', 'cooldown', 'talk']),
+  blockIndex: z.number().int(),
+  blockKind: z.string(),
+  stationIndex: z.number().int().optional(),
+  exercise: z.string().optional(),
+  round: z.number().int().optional(),
+  set: z.number().int().optional(),
+  startSeconds: z.number(),
+  seconds: z.number(),
+});
+const planView = z
+  .object({
+    plan: planSchema.nullable(),
+    schedule: z
+      .object({ startSeconds: z.number(), segments: z.array(plannedSegment), totals: z.record(z.string(), z.number()) })
+      .nullable(),
+    addedExercises: z.array(z.string()).optional(),
+  })
+  .meta({ id: 'PlanView' });
+const timelineOutput = z
+  .object({ version: z.number().int(), segments: z.array(segmentSchema), cues: z.array(cueSchema) })
+  .meta({ id: 'Timeline' });
+const fixChange = z.object({ segmentId: z.string(), field: z.enum(['startSeconds', 'endSeconds']), value: z.number() });
+const finding = z
+  .object({
+    code: z.enum(FINDING_CODES),
+    severity: z.enum(['error', 'warning', 'info']),
+    atSeconds: z.number(),
+    segmentIds: z.array(z.string()),
+    message: z.string(),
+    fix: z.union([fixChange, z.array(fixChange)]).optional(),
+  })
+  .meta({ id: 'Finding' });
+const checkResult = z
+  .object({ ok: z.boolean(), findings: z.array(finding), totals: z.record(z.string(), z.unknown()), version: z.number().int() })
+  .meta({ id: 'CheckResult' });
+
+/** Routes of the plan, timeline, check and exercise features. */
+export const apiRoutes: RouteConfig[] = [
+  {
+    method: 'get', path: '/api/lessons/{id}/plan', summary: 'The class plan with its expected schedule and totals', request: { params },
+    responses: { 200: json(planView, 'Plan (null before one is written)'), ...errors(401, 403, 404) },
+  },
+  {
+    method: 'put', path: '/api/lessons/{id}/plan', summary: 'Write the class plan (exercise names new to the studio are added to its list)',
+    request: { params, body: json(planSchema, 'The plan') },
+    responses: { 200: json(planView, 'Stored'), ...errors(400, 401, 403, 404) },
+  },
+  {
+    method: 'get', path: '/api/lessons/{id}/timeline', summary: 'The draft timeline (version 0 before the first save)', request: { params },
+    responses: { 200: json(timelineOutput, 'Timeline'), ...errors(401, 403, 404) },
+  },
+  {
+    method: 'put', path: '/api/lessons/{id}/timeline', summary: 'Replace the timeline in one transaction; a stale version answers 409',
+    request: { params, body: json(timelinePutSchema, 'Whole timeline') },
+    responses: { 200: json(z.object({ version: z.number().int() }), 'Saved'), ...errors(400, 401, 403, 404, 409) },
+  },
+  {
+    method: 'post', path: '/api/lessons/{id}/check', summary: 'Run the timing check on the stored plan and timeline', request: { params },
+    responses: { 200: json(checkResult, 'Check result'), ...errors(401, 403, 404, 409) },
+  },
+  {
+    method: 'post', path: '/api/lessons/{id}/timeline/import', summary: 'Replace the timeline with a CSV or WebVTT chapters file; a bad file imports nothing',
+    request: {
+      params,
+      query: timelineImportQuery,
+      body: { description: 'CSV (header row) or WebVTT', content: { 'text/csv': { schema: z.string() }, 'text/vtt': { schema: z.string() } } },
+    },
+    responses: {
+      200: json(z.object({ version: z.number().int(), segments: z.number().int(), cues: z.number().int() }), 'Imported'),
+      400: json(z.object({ error: z.object({ code: z.string(), message: z.string(), errors: z.array(z.object({ line: z.number().int(), message: z.string() })) }) }), 'Problems by line; nothing imported'),
+      ...errors(401, 403, 404, 409, 413),
+    },
+  },
+  {
+    method: 'get', path: '/api/lessons/{id}/timeline/export', summary: 'Download the timeline as CSV or a WebVTT chapters file',
+    request: { params, query: timelineExportQuery },
+    responses: {
+      200: { description: 'The file', content: { 'text/csv': { schema: z.string() }, 'text/vtt': { schema: z.string() } } },
+      ...errors(400, 401, 403, 404, 409),
+    },
+  },
+  {
+    method: 'get', path: '/api/exercises', summary: 'The studio’s exercise list',
+    responses: { 200: json(z.object({ exercises: z.array(exerciseOutput) }), 'Exercises'), ...errors(401, 403) },
+  },
+  {
+    method: 'post', path: '/api/exercises', summary: 'Add an exercise', request: { body: json(createExerciseInput, 'Exercise') },
+    responses: { 201: json(exerciseOutput, 'Added'), ...errors(400, 401, 403, 409) },
+  },
+  {
+    method: 'patch', path: '/api/exercises', summary: 'Change an exercise (by id in the body)', request: { body: json(updateExerciseInput, 'Changes') },
+    responses: { 200: json(exerciseOutput, 'Changed'), ...errors(400, 401, 403, 404, 409) },
+  },
+];

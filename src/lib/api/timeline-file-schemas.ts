@@ -1,0 +1,19 @@
+import { z } from 'zod';
+
+/** Largest timeline file accepted for import (a 3-hour class with thousands of marks is ~500 KB). */
+export const MAX_TIMELINE_FILE_BYTES = 2 * 1024 * 1024;
+
+export const timelineImportQuery = z
+  .object({
+    version: z.coerce
+      .number({ error: 'Add ?version= with the timeline version you are replacing.' })
+      .int()
+      .nonnegative()
+      .describe('The timeline version the import replaces; a stale one answers 409.'),
+    format: z.enum(['csv', 'vtt']).optional().describe('File format; guessed from the content when left out.'),
+  })
+  .meta({ id: 'TimelineImportQuery' });
+
+export const timelineExportQuery = z
+  .object({ format: z.enum(['csv', 'vtt'], { error: 'Choose format=csv or format=vtt.' }) })
+  .meta({ id: 'TimelineExportQuery' });

@@ -1,0 +1,267 @@
+/**
+ * The plan's JSON format. It is part of the public API (coaches and integrations write plans
+ * by hand), so the field names here are fixed; more optional fields may be added later.
+ * The same schema validates the endpoint body, the editor form and the OpenAPI document.
+ */
+import { z } from 'zod';
+
+/** A plan may describe at most 12 hours of class: longer input is almost surely a typo. */
+export const MAX_PLAN_SECONDS = 12 * 3600;
+/** Upper bounds that keep expansion and the check bounded for hand-written input. */
+export const MAX_STATIONS = 500;
+export const MAX_ROUNDS = 200;
+export const MAX_SETS = 500;
+export const MAX_BLOCKS = 200;
+export const MAX_PLANNED_SEGMENTS = 20_000;
+
+const seconds = (what: string) =>
+  z
+    .number({ error: `${what} must be a number of seconds.` })
+    .int({ error: `${what} must be whole seconds.` })
+    .positive({ error: `${what} must be more than 0 seconds.` })
+    .max(MAX_PLAN_SECONDS, { error: `${what} can be at most ${MAX_PLAN_SECONDS} seconds (12 hours).` });
+
+const secondsOrZero = (what: string) =>
+  z
+    .number({ error: `${what} must be a number of seconds.` })
+    .int({ error: `${what} must be whole seconds.` })
+    .nonnegative({ error: `${what} cannot be negative.` })
+    .max(MAX_PLAN_SECONDS, { error: `${what} can be at most ${MAX_PLAN_SECONDS} seconds (12 hours).` });
+
+/** An exercise is named by its name; a name the studio's list lacks is added to it. */
+export const exerciseNameSchema = z
+  .string({ error: 'The exercise needs a name.' })
+  .trim()
+  .min(1, { error: 'The exercise needs a name.' })
+  .max(120, { error: 'An exercise name can be at most 120 characters.' })
+  .regex(/^[^\p{Cc}]*$/u, { error: 'An exercise name must be one line without control characters.' })
+  .describe('Exercise name, as in the studio exercise list (a new name is added to the list).');
+
+const blockTitle = z
+  .string()
+  .trim()
+  .min(1)
+  .max(200)
+  .regex(/^[^\p{Cc}]*$/u, { error: 'A title must be one line without control characters.' })
+  .optional()
+  .describe('Optional title shown for this block.');
+
+export const stationSchema = z
+  .object({
+    exercise: exerciseNameSchema,
+    workSeconds: seconds('Work').describe('Seconds of work at this station.'),
+    restSeconds: secondsOrZero('Rest').describe('Seconds of rest after this station (0 for none).'),
+  })
+  .describe('One move inside a circuit, with its work and rest seconds.');
+
+export const warmupBlockSchema = z
+  .object({ kind: z.literal('warmup'), seconds: seconds('The warm-up'), title: blockTitle })
+  .describe('Warm-up of a fixed length.');
+
+export const cooldownBlockSchema = z
+  .object({ kind: z.literal('cooldown'), seconds: seconds('The cool-down'), title: blockTitle })
+  .describe('Cool-down of a fixed length.');
+
+export const talkBlockSchema = z
+  .object({ kind: z.literal('talk'), seconds: seconds('The talk'), title: blockTitle })
+  .describe('Talk (explanation, demonstration) of a fixed length.');
+
+export const circuitBlockSchema = z
+  .object({
+    kind: z.literal('circuit'),
+    rounds: z
+      .number({ error: 'Rounds must be a number.' })
+      .int({ error: 'Rounds must be a whole number.' })
+      .min(1, { error: 'A circuit needs at least 1 round.' })
+      .max(MAX_ROUNDS, { error: `A circuit can have at most ${MAX_ROUNDS} rounds.` })
+      .describe('Number of passes through all stations.'),
+    roundBreakSeconds: secondsOrZero('The round break')
+      .default(0)
+      .describe('Seconds of rest between rounds (not after the last round). Defaults to 0.'),
+    stations: z
+      .array(stationSchema)
+      .min(1, { error: 'A circuit needs at least one station.' })
+      .max(MAX_STATIONS, { error: `A circuit can have at most ${MAX_STATIONS} stations.` })
+      .describe('Stations in the order they are done.'),
+    title: blockTitle,
+  })
+  .describe('Circuit: ordered stations done for a number of rounds, with a round break between rounds.');
+
+export const intervalsBlockSchema = z
+  .object({
+    kind: z.literal('intervals'),
+    exercise: exerciseNameSchema,
+    sets: z
+      .number({ error: 'Sets must be a number.' })
+      .int({ error: 'Sets must be a whole number.' })
+      .min(1, { error: 'Intervals need at least 1 set.' })
+      .max(MAX_SETS, { error: `Intervals can have at most ${MAX_SETS} sets.` })
+      .describe('Number of work/rest sets.'),
+    workSeconds: seconds('Work').describe('Seconds of work in each set.'),
+    restSeconds: secondsOrZero('Rest').describe('Seconds of rest after each set.'),
+    title: blockTitle,
+  })
+  .describe('Intervals: one exercise, work and rest repeated for a number of sets.');
+
+export const planBlockSchema = z
+  .discriminatedUnion('kind', [
+    warmupBlockSchema,
+    circuitBlockSchema,
+    intervalsBlockSchema,
+    cooldownBlockSchema,
+    talkBlockSchema,
+  ], { error: 'Each block needs a kind: warmup, circuit, intervals, cooldown or talk.' })
+  .describe('One block of the plan.');
+
+/*
+ * Default tolerances. None of these comes from a published standard; they are the house
+ * defaults, chosen as follows:
+ * - workSeconds 2: a member following the interval clock notices a work interval that is a
+ *   couple of seconds off; a coach's call ("go!") rarely lands closer than a second or two
+ *   to the planned mark. Common practice, no source.
+ * - restSeconds 5: rests (and round breaks) are looser in practice (water, moving to the
+ *   next station) and members mind an early or late start less. Common practice, no source.
+ * - blockSeconds 15: warm-up, cool-down and talk are free-flowing; a quarter minute either
+ *   way does not change the class. Common practice, no source.
+ * - gapSeconds 3: a few unmarked seconds between segments are usually a sloppy mark; longer
+ *   unmarked stretches are probably a missed segment. Common practice, no source.
+ * - advertisedPercent 10: classes are advertised in whole (often 5-minute) steps; 10 % is a
+ *   Roundmark house rule, not a standard.
+ */
+export const DEFAULT_TOLERANCES = {
+  workSeconds: 2,
+  restSeconds: 5,
+  blockSeconds: 15,
+  gapSeconds: 3,
+  advertisedPercent: 10,
+} as const;
+
+/*
+ * Default options: both true, because the most common way coaches run a circuit is to rest
+ * for the round break instead of (not on top of) the last station's rest, and to end the
+ * last work interval straight into the cool-down. Common practice, no source. Coaches who do
+ * otherwise set the option to false explicitly.
+ */
+export const DEFAULT_PLAN_OPTIONS = {
+  roundBreakReplacesLastRest: true,
+  dropFinalRest: true,
+} as const;
+
+const tolerance = (what: string, max: number) =>
+  z
+    .number({ error: `The ${what} tolerance must be a number.` })
+    .nonnegative({ error: `The ${what} tolerance cannot be negative.` })
+    .max(max, { error: `The ${what} tolerance can be at most ${max}.` });
+
+export const tolerancesSchema = z
+  .object({
+    workSeconds: tolerance('work', 600)
+      .default(DEFAULT_TOLERANCES.workSeconds)
+      .describe('Allowed difference of a work interval from its planned length, in seconds. Default 2.'),
+    restSeconds: tolerance('rest', 600)
+      .default(DEFAULT_TOLERANCES.restSeconds)
+      .describe('Allowed difference of a rest or round break from its planned length, in seconds. Default 5.'),
+    blockSeconds: tolerance('block', 3600)
+      .default(DEFAULT_TOLERANCES.blockSeconds)
+      .describe('Allowed difference of a warm-up, cool-down or talk from its planned length, in seconds. Default 15.'),
+    gapSeconds: tolerance('gap', 3600)
+      .default(DEFAULT_TOLERANCES.gapSeconds)
+      .describe('Longest unmarked stretch between two segments that is not reported, in seconds. Default 3.'),
+    advertisedPercent: tolerance('advertised length', 100)
+      .default(DEFAULT_TOLERANCES.advertisedPercent)
+      .describe('Allowed difference of the class length from the advertised length, in percent. Default 10.'),
+  })
+  .describe('How far the marks may differ from the plan before the timing check reports it.');
+
+export const planOptionsSchema = z
+  .object({
+    roundBreakReplacesLastRest: z
+      .boolean()
+      .default(DEFAULT_PLAN_OPTIONS.roundBreakReplacesLastRest)
+      .describe(
+        'When true, the round break takes the place of the last station\'s rest in every round but the last; ' +
+          'when false, the last station\'s rest comes first and the round break follows it. Default true.',
+      ),
+    dropFinalRest: z
+      .boolean()
+      .default(DEFAULT_PLAN_OPTIONS.dropFinalRest)
+      .describe(
+        'When true, the rest after the last work interval of a circuit or intervals block (its last round or set) ' +
+          'is left out. Default true.',
+      ),
+  })
+  .describe('Explicit choices about rests, since coaches do both.');
+
+/** Planned length of one block in seconds (used for the 12-hour bound and by expansion). */
+export function blockPlannedSeconds(block: PlanBlock, options: PlanOptions): number {
+  switch (block.kind) {
+    case 'warmup':
+    case 'cooldown':
+    case 'talk':
+      return block.seconds;
+    case 'intervals': {
+      const rest = block.restSeconds * (options.dropFinalRest ? block.sets - 1 : block.sets);
+      return block.workSeconds * block.sets + rest;
+    }
+    case 'circuit': {
+      const work = block.stations.reduce((sum, s) => sum + s.workSeconds, 0);
+      const restAll = block.stations.reduce((sum, s) => sum + s.restSeconds, 0);
+      const lastRest = block.stations[block.stations.length - 1]?.restSeconds ?? 0;
+      const breaks = block.roundBreakSeconds * (block.rounds - 1);
+      let rests = restAll * block.rounds;
+      // The last station's rest is dropped in every round that ends in a round break...
+      if (options.roundBreakReplacesLastRest) rests -= lastRest * (block.rounds - 1);
+      // ...and in the final round when the final rest is dropped.
+      if (options.dropFinalRest) rests -= lastRest;
+      return work * block.rounds + rests + breaks;
+    }
+  }
+}
+
+/** Number of planned segments a block expands to (for the size bound). */
+function blockSegmentCount(block: PlanBlock): number {
+  if (block.kind === 'circuit') return block.rounds * (block.stations.length * 2 + 1);
+  if (block.kind === 'intervals') return block.sets * 2;
+  return 1;
+}
+
+export const planSchema = z
+  .object({
+    blocks: z
+      .array(planBlockSchema)
+      .min(1, { error: 'A plan needs at least one block.' })
+      .max(MAX_BLOCKS, { error: `A plan can have at most ${MAX_BLOCKS} blocks.` })
+      .describe('Blocks in the order they happen in the class.'),
+    tolerances: tolerancesSchema.default(DEFAULT_TOLERANCES).describe('Tolerances; defaults apply when left out.'),
+    options: planOptionsSchema.default(DEFAULT_PLAN_OPTIONS).describe('Options; defaults apply when left out.'),
+  })
+  .superRefine((plan, ctx) => {
+    const total = plan.blocks.reduce((sum, b) => sum + blockPlannedSeconds(b, plan.options), 0);
+    if (total > MAX_PLAN_SECONDS) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['blocks'],
+        message: `This plan adds up to ${Math.round(total / 60)} minutes; a class can be at most 12 hours. Check the rounds and seconds.`,
+      });
+    }
+    const count = plan.blocks.reduce((sum, b) => sum + blockSegmentCount(b), 0);
+    if (count > MAX_PLANNED_SEGMENTS) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['blocks'],
+        message: `This plan has ${count} intervals; at most ${MAX_PLANNED_SEGMENTS} are allowed. Check the rounds and sets.`,
+      });
+    }
+  })
+  .describe('A class plan: blocks, tolerances for the timing check and options about rests.');
+
+/** A validated plan, defaults filled in. */
+export type Plan = z.infer<typeof planSchema>;
+/** A plan as written by hand (tolerances, options and round breaks may be left out). */
+export type PlanInput = z.input<typeof planSchema>;
+export type PlanBlock = z.infer<typeof planBlockSchema>;
+export type CircuitBlock = z.infer<typeof circuitBlockSchema>;
+export type IntervalsBlock = z.infer<typeof intervalsBlockSchema>;
+export type Station = z.infer<typeof stationSchema>;
+export type Tolerances = z.infer<typeof tolerancesSchema>;
+export type PlanOptions = z.infer<typeof planOptionsSchema>;

@@ -1,0 +1,268 @@
+/**
+ * Suggested fixes. Every fix moves segment boundaries only, never past a neighbour, so it
+ * cannot create an overlap; where two segments are back to back, the shared boundary moves
+ * for both, which is what a mis-placed mark needs. Among the possible moves the one that
+ * keeps neighbours within their tolerances (and opens no reportable gap) wins, so that
+ * applying fixes repeatedly converges instead of pushing an error back and forth.
+ *
+ * All arithmetic is in whole milliseconds to avoid float drift at tolerance edges.
+ */
+import { toMillis } from '../time/format-time';
+import type { FixChange } from './finding-types';
+import type { TimelineView } from './timeline-view';
+
+const ms = toMillis;
+const sec = (millis: number): number => millis / 1000;
+
+interface Candidate {
+  changes: FixChange[];
+  /** How far (ms) the affected neighbour was beyond its tolerance before the move. */
+  excessBefore: number;
+  /** 1 when the move opens or widens a gap longer than the gap tolerance. */
+  reportableGap: number;
+  /** How far (ms) the affected neighbour is beyond its tolerance after the move. */
+  excess: number;
+  /** 1 when the move leaves any new unmarked time. */
+  opensGap: number;
+  /** 0 for moving the end, 1 for moving the start (ends are marked later, so less sure). */
+  side: number;
+}
+
+/**
+ * A move that pushes a neighbour (further) beyond its tolerance only trades one finding for
+ * another and would make repeated fixing go back and forth: such moves are never offered.
+ */
+const harmful = (c: Candidate): boolean => c.excess > c.excessBefore;
+
+/** Prefers moves that open no reportable gap, then that help the neighbour most, then no gap at all, then the end. */
+function better(a: Candidate, b: Candidate): boolean {
+  const ka = [a.reportableGap, a.excess - a.excessBefore, a.opensGap, a.side];
+  const kb = [b.reportableGap, b.excess - b.excessBefore, b.opensGap, b.side];
+  for (let i = 0; i < ka.length; i++) {
+    if (ka[i]! !== kb[i]!) return ka[i]! < kb[i]!;
+  }
+  return false;
+}
+
+/** How far (ms) a segment of `lengthMs` would be beyond its tolerance (0 when fine or unplanned). */
+function excessOf(view: TimelineView, segmentId: string, lengthMs: number): number {
+  const exp = view.expected.get(segmentId);
+  if (!exp) return 0;
+  return Math.max(0, Math.abs(lengthMs - ms(exp.seconds)) - ms(exp.tolerance));
+}
+
+/**
+ * Changes that give the segment at sorted position `i` the length `targetSeconds`, or
+ * undefined when no safe move exists.
+ */
+export function proposeResize(view: TimelineView, i: number, targetSeconds: number): FixChange[] | undefined {
+  const segs = view.segments;
+  const a = segs[i];
+  if (!a) return undefined;
+  const target = ms(targetSeconds);
+  const start = ms(a.startSeconds);
+  const end = ms(a.endSeconds);
+  const gapTol = ms(view.tolerances.gapSeconds);
+  const media = Number.isFinite(view.mediaSeconds) ? ms(view.mediaSeconds) : Infinity;
+  const candidates: Candidate[] = [];
+  const next = segs[i + 1];
+
+  // Move the end.
+  const newEnd = start + target;
+  if (newEnd <= media && newEnd !== end) {
+    const nextStart = next ? ms(next.startSeconds) : Infinity;
+    const nextExcess = next ? excessOf(view, next.id, ms(next.endSeconds) - nextStart) : 0;
+    if (newEnd < end || newEnd <= nextStart) {
+      const gapBefore = nextStart - end;
+      const gapAfter = nextStart - newEnd;
+      const widens = next !== undefined && gapAfter > Math.max(gapBefore, 0);
+      candidates.push({
+        changes: [{ segmentId: a.id, field: 'endSeconds', value: sec(newEnd) }],
+        // shrinking the last segment shortens the class: count it as opening unmarked time
+        excessBefore: nextExcess,
+        reportableGap: widens && gapAfter > gapTol ? 1 : 0,
+        excess: nextExcess,
+        opensGap: widens || (next === undefined && newEnd < end) ? 1 : 0,
+        side: 0,
+      });
+    }
+    // Back to back with the next segment, and nothing else overlaps: move the shared boundary.
+    if (next && nextStart === end && view.holderBefore[i + 1] === i && newEnd < ms(next.endSeconds) && newEnd >= view.maxEndBefore[i]! * 1000 - 0.5) {
+      const excess = excessOf(view, next.id, ms(next.endSeconds) - newEnd);
+      candidates.push({
+        changes: [
+          { segmentId: a.id, field: 'endSeconds', value: sec(newEnd) },
+          { segmentId: next.id, field: 'startSeconds', value: sec(newEnd) },
+        ],
+        excessBefore: nextExcess,
+        reportableGap: 0,
+        excess,
+        opensGap: 0,
+        side: 0,
+      });
+    }
+  }
+
+  // Move the start.
+  const newStart = end - target;
+  if (newStart >= 0 && newStart !== start) {
+    const limit = view.maxEndBefore[i]! === -Infinity ? -Infinity : ms(view.maxEndBefore[i]!);
+    const h = view.holderBefore[i]!;
+    const prev = h >= 0 ? segs[h] : undefined;
+    const prevExcess = prev ? excessOf(view, prev.id, ms(prev.endSeconds) - ms(prev.startSeconds)) : 0;
+    if (newStart > start || newStart >= limit) {
+      const gapBefore = start - limit;
+      const gapAfter = newStart - limit;
+      const widens = prev !== undefined && gapAfter > Math.max(gapBefore, 0);
+      candidates.push({
+        changes: [{ segmentId: a.id, field: 'startSeconds', value: sec(newStart) }],
+        excessBefore: prevExcess,
+        reportableGap: widens && gapAfter > gapTol ? 1 : 0,
+        excess: prevExcess,
+        opensGap: widens || (prev === undefined && newStart > start) ? 1 : 0,
+        side: 1,
+      });
+    }
+    if (prev && h === i - 1 && ms(prev.endSeconds) === start && newStart > ms(prev.startSeconds)) {
+      const before = view.maxEndBefore[h]!;
+      if (before === -Infinity || newStart >= ms(before)) {
+        const excess = excessOf(view, prev.id, newStart - ms(prev.startSeconds));
+        candidates.push({
+          changes: [
+            { segmentId: prev.id, field: 'endSeconds', value: sec(newStart) },
+            { segmentId: a.id, field: 'startSeconds', value: sec(newStart) },
+          ],
+          excessBefore: prevExcess,
+          reportableGap: 0,
+          excess,
+          opensGap: 0,
+          side: 1,
+        });
+      }
+    }
+  }
+
+  // Move the neighbour whole, and the boundary beyond it (for a neighbour that has its own
+  // planned length and should keep it).
+  const shiftNext = shiftNeighbour(view, i, i + 1, i + 2, newEnd - end, media);
+  if (newEnd <= media && shiftNext) candidates.push({ ...shiftNext, changes: [{ segmentId: a.id, field: 'endSeconds', value: sec(newEnd) }, ...shiftNext.changes], side: 0 });
+  const shiftPrev = newStart >= 0 ? shiftNeighbour(view, i, i - 1, i - 2, newStart - start, media) : undefined;
+  if (shiftPrev) candidates.push({ ...shiftPrev, changes: [...shiftPrev.changes, { segmentId: a.id, field: 'startSeconds', value: sec(newStart) }], side: 1 });
+
+  let best: Candidate | undefined;
+  for (const c of candidates) if (!harmful(c) && (!best || better(c, best))) best = c;
+  return best?.changes;
+}
+
+/**
+ * Moves neighbour `ni` of segment `ai` by `delta` ms without changing its length, and the
+ * facing boundary of the segment `fi` beyond it (when there is one) along with it. Only for
+ * back-to-back chains with nothing else overlapping them, and never past the recording.
+ */
+function shiftNeighbour(view: TimelineView, ai: number, ni: number, fi: number, delta: number, media: number): Omit<Candidate, 'side'> | undefined {
+  const segs = view.segments;
+  const a = segs[ai]!;
+  const n = segs[ni];
+  if (!n || delta === 0) return undefined;
+  const forward = ni > ai;
+  // The chain must be back to back and clean (each is the largest end before the next).
+  if (forward ? ms(n.startSeconds) !== ms(a.endSeconds) || view.holderBefore[ni] !== ai : ms(n.endSeconds) !== ms(a.startSeconds) || view.holderBefore[ai] !== ni) return undefined;
+  const nStart = ms(n.startSeconds) + delta;
+  const nEnd = ms(n.endSeconds) + delta;
+  if (nStart < 0 || nEnd > media) return undefined;
+  const changes: FixChange[] = [
+    { segmentId: n.id, field: 'startSeconds', value: sec(nStart) },
+    { segmentId: n.id, field: 'endSeconds', value: sec(nEnd) },
+  ];
+  const f = segs[fi];
+  let excess = 0;
+  let excessBefore = 0;
+  if (f && (forward ? ms(f.startSeconds) === ms(n.endSeconds) && view.holderBefore[fi] === ni : ms(f.endSeconds) === ms(n.startSeconds) && view.holderBefore[ni] === fi)) {
+    const fLen = forward ? ms(f.endSeconds) - nEnd : nStart - ms(f.startSeconds);
+    if (fLen <= 0) return undefined;
+    excess = excessOf(view, f.id, fLen);
+    excessBefore = excessOf(view, f.id, ms(f.endSeconds) - ms(f.startSeconds));
+    changes.push({ segmentId: f.id, field: forward ? 'startSeconds' : 'endSeconds', value: sec(forward ? nEnd : nStart) });
+  } else if (forward ? (segs[fi] ? nEnd > ms(segs[fi]!.startSeconds) : false) : nStart < (fi >= 0 ? ms(view.maxEndBefore[ni]!) : 0)) {
+    return undefined; // would run into a segment that is not back to back
+  }
+  return { changes, excessBefore, reportableGap: 0, excess, opensGap: 0 };
+}
+
+/**
+ * Makes two overlapping segments back to back (or, when the later one sits inside the
+ * earlier one, ends the earlier one where the later one starts). `ai` holds the largest end
+ * before `bi`. The boundary goes where the earlier segment gets its planned length if it has
+ * one, else where the later one does.
+ */
+export function proposeOverlapFix(view: TimelineView, ai: number, bi: number): FixChange[] | undefined {
+  const a = view.segments[ai];
+  const b = view.segments[bi];
+  if (!a || !b) return undefined;
+  const aStart = ms(a.startSeconds);
+  const aEnd = ms(a.endSeconds);
+  const bStart = ms(b.startSeconds);
+  const bEnd = ms(b.endSeconds);
+  if (bEnd <= aEnd) {
+    return bStart > aStart ? [{ segmentId: a.id, field: 'endSeconds', value: sec(bStart) }] : undefined;
+  }
+  const lo = bStart;
+  const hi = aEnd;
+  const expA = view.expected.get(a.id);
+  const expB = view.expected.get(b.id);
+  let v = expA ? aStart + ms(expA.seconds) : expB ? bEnd - ms(expB.seconds) : lo;
+  v = Math.min(hi, Math.max(lo, v));
+  if (v <= aStart) v = hi;
+  const changes: FixChange[] = [];
+  if (v < aEnd) changes.push({ segmentId: a.id, field: 'endSeconds', value: sec(v) });
+  if (v > bStart) changes.push({ segmentId: b.id, field: 'startSeconds', value: sec(v) });
+  return changes.length > 0 ? changes : undefined;
+}
+
+/** Kinds with no planned length: they may absorb a gap. */
+const FREE_KINDS = new Set(['intro', 'outro']);
+
+/**
+ * Closes a gap between `ai` (holding the largest end so far) and `bi` at one boundary that
+ * keeps both segments within their tolerances; none when no such boundary exists (for
+ * example when the gap is a station nobody marked).
+ */
+export function proposeGapFix(view: TimelineView, ai: number, bi: number): FixChange[] | undefined {
+  const a = view.segments[ai];
+  const b = view.segments[bi];
+  if (!a || !b) return undefined;
+  const aStart = ms(a.startSeconds);
+  const aEnd = ms(a.endSeconds);
+  const bStart = ms(b.startSeconds);
+  const bEnd = ms(b.endSeconds);
+  let lo = aEnd;
+  let hi = bStart;
+  const expA = view.expected.get(a.id);
+  const expB = view.expected.get(b.id);
+  if (expA) {
+    lo = Math.max(lo, aStart + ms(expA.seconds) - ms(expA.tolerance));
+    hi = Math.min(hi, aStart + ms(expA.seconds) + ms(expA.tolerance));
+  } else if (!FREE_KINDS.has(a.kind)) {
+    hi = Math.min(hi, aEnd); // a segment the plan does not account for keeps its length
+  }
+  if (expB) {
+    lo = Math.max(lo, bEnd - ms(expB.seconds) - ms(expB.tolerance));
+    hi = Math.min(hi, bEnd - ms(expB.seconds) + ms(expB.tolerance));
+  } else if (!FREE_KINDS.has(b.kind)) {
+    lo = Math.max(lo, bStart);
+  }
+  if (lo > hi) return undefined;
+  let v = expA ? aStart + ms(expA.seconds) : expB ? bEnd - ms(expB.seconds) : hi;
+  v = Math.min(hi, Math.max(lo, v));
+  const changes: FixChange[] = [];
+  if (v > aEnd) changes.push({ segmentId: a.id, field: 'endSeconds', value: sec(v) });
+  if (v < bStart) changes.push({ segmentId: b.id, field: 'startSeconds', value: sec(v) });
+  return changes.length > 0 ? changes : undefined;
+}
+
+/** Ends a segment at the end of the recording, when it starts inside it. */
+export function proposeMediaFix(view: TimelineView, i: number): FixChange[] | undefined {
+  const a = view.segments[i];
+  if (!a || !Number.isFinite(view.mediaSeconds) || a.startSeconds >= view.mediaSeconds) return undefined;
+  return [{ segmentId: a.id, field: 'endSeconds', value: view.mediaSeconds }];
+}

@@ -1,0 +1,38 @@
+import type { APIRoute } from 'astro';
+import { MAX_TIMELINE_FILE_BYTES, timelineImportQuery } from '../../../../../lib/api/timeline-file-schemas';
+import { timelineFromCsv } from '../../../../../lib/timeline/timeline-csv';
+import { timelineFromWebVtt } from '../../../../../lib/timeline/timeline-webvtt';
+import { app } from '../../../../../server/app';
+import { AppError } from '../../../../../server/http/app-error';
+import { endpoint, json, parseWith } from '../../../../../server/http/api';
+import { requireRole, STAFF } from '../../../../../server/http/guards';
+import { getLesson } from '../../../../../server/services/lessons';
+import { putTimeline } from '../../../../../server/services/timelines';
+
+/** Replaces the timeline with a CSV or WebVTT chapters file; a bad file imports nothing. */
+export const POST: APIRoute = endpoint(async ({ locals, params, request, url }) => {
+  const { studio } = requireRole(locals, STAFF);
+  await getLesson(app(), studio.studioId, params.id!);
+  const query = parseWith(timelineImportQuery, Object.fromEntries(url.searchParams));
+  const declared = Number(request.headers.get('content-length') ?? 0);
+  if (declared > MAX_TIMELINE_FILE_BYTES) throw tooLarge();
+  const text = await request.text();
+  if (new TextEncoder().encode(text).length > MAX_TIMELINE_FILE_BYTES) throw tooLarge();
+  if (!text.trim()) throw new AppError('invalid_input', 'The file is empty. Export a timeline as CSV or WebVTT and import that.');
+  const format = query.format ?? (/^\uFEFF?WEBVTT/.test(text) ? 'vtt' : 'csv');
+  const result = format === 'vtt' ? timelineFromWebVtt(text) : timelineFromCsv(text);
+  if (!result.ok) {
+    const first = result.errors[0]!;
+    throw new AppError(
+      'invalid_input',
+      `Nothing was imported: line ${first.line}: ${first.message}${result.errors.length > 1 ? ` (and ${result.errors.length - 1} more problems)` : ''}`,
+      undefined,
+      { errors: result.errors },
+    );
+  }
+  const saved = await putTimeline(app(), studio.studioId, params.id!, query.version, result.timeline);
+  return json({ ...saved, segments: result.timeline.segments.length, cues: result.timeline.cues.length });
+});
+
+const tooLarge = () =>
+  new AppError('too_large', `Timeline files can be at most ${MAX_TIMELINE_FILE_BYTES / 1024 / 1024} MB.`);

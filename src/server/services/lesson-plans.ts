@@ -1,0 +1,56 @@
+import { and, eq, sql } from 'drizzle-orm';
+import { lessons } from '../../db/schema';
+import { planSchema, type Plan } from '../../lib/plan/plan-schema';
+import { expandPlan, type ExpectedSchedule } from '../../lib/plan/expand-plan';
+import { notFound } from '../http/app-error';
+import type { AppDeps } from '../app';
+import { addMissingExercises } from './exercises';
+
+export interface PlanView {
+  plan: Plan | null;
+  schedule: ExpectedSchedule | null;
+  /** Exercise names this save added to the studio's list. */
+  addedExercises?: string[];
+}
+
+/** Exercise names a plan mentions, in order of first use. */
+export function planExerciseNames(plan: Plan): string[] {
+  const names: string[] = [];
+  for (const b of plan.blocks) {
+    if (b.kind === 'circuit') names.push(...b.stations.map((s) => s.exercise));
+    if (b.kind === 'intervals') names.push(b.exercise);
+  }
+  return [...new Set(names)];
+}
+
+/** Reads a stored plan; plans are validated on write, and parsing again fills defaults added since. */
+export function parseStoredPlan(value: unknown): Plan | null {
+  if (value == null) return null;
+  const parsed = planSchema.safeParse(value);
+  return parsed.success ? parsed.data : null;
+}
+
+/** The class's plan with its expected schedule (from 0 s) and totals. */
+export async function getPlan(deps: AppDeps, studioId: string, lessonId: string): Promise<PlanView> {
+  const [row] = await deps.db
+    .select({ plan: lessons.plan })
+    .from(lessons)
+    .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)));
+  if (!row) throw notFound('That class');
+  const plan = parseStoredPlan(row.plan);
+  return { plan, schedule: plan ? expandPlan(plan) : null };
+}
+
+/** Stores a validated plan and adds new exercise names to the studio's list, in one transaction. */
+export async function putPlan(deps: AppDeps, studioId: string, lessonId: string, plan: Plan): Promise<PlanView> {
+  const addedExercises = await deps.db.transaction(async (tx) => {
+    const updated = await tx
+      .update(lessons)
+      .set({ plan, updatedAt: new Date(), version: sql`${lessons.version} + 1` })
+      .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)))
+      .returning({ id: lessons.id });
+    if (updated.length === 0) throw notFound('That class');
+    return addMissingExercises(tx, studioId, planExerciseNames(plan));
+  });
+  return { plan, schedule: expandPlan(plan), addedExercises };
+}

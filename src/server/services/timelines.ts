@@ -1,0 +1,108 @@
+import { and, eq, sql } from 'drizzle-orm';
+import { cues, lessons, segments } from '../../db/schema';
+import type { Timeline } from '../../lib/timeline/timeline-schema';
+import { checkTiming } from '../../lib/timing/timing-check';
+import type { CheckResult } from '../../lib/timing/finding-types';
+import { AppError, notFound } from '../http/app-error';
+import type { AppDeps } from '../app';
+import { parseStoredPlan } from './lesson-plans';
+
+export interface StoredTimeline extends Timeline {
+  version: number;
+}
+
+const stale = (currentVersion: number) =>
+  new AppError(
+    'conflict',
+    'Someone saved this timeline after you opened it. Nothing of yours was saved: compare with their version, then save again.',
+    undefined,
+    { currentVersion },
+  );
+
+/** Drops nulls from a stored row so optional fields stay absent, as the schema has them. */
+function compact<T extends Record<string, unknown>>(row: T): T {
+  return Object.fromEntries(Object.entries(row).filter(([, v]) => v !== null)) as T;
+}
+
+/** The draft timeline of a class: version 0 and no marks before the first save. */
+export async function getTimeline(deps: AppDeps, studioId: string, lessonId: string): Promise<StoredTimeline> {
+  const [lesson] = await deps.db
+    .select({ version: lessons.timelineVersion })
+    .from(lessons)
+    .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)));
+  if (!lesson) throw notFound('That class');
+  const [segRows, cueRows] = await Promise.all([
+    deps.db
+      .select({
+        id: segments.id,
+        kind: segments.kind,
+        startSeconds: segments.startSeconds,
+        endSeconds: segments.endSeconds,
+        exercise: segments.exercise,
+        round: segments.round,
+        set: segments.set,
+        title: segments.title,
+      })
+      .from(segments)
+      .where(eq(segments.lessonId, lessonId))
+      .orderBy(segments.startSeconds, segments.endSeconds),
+    deps.db
+      .select({ id: cues.id, atSeconds: cues.atSeconds, kind: cues.kind, text: cues.text })
+      .from(cues)
+      .where(eq(cues.lessonId, lessonId))
+      .orderBy(cues.atSeconds),
+  ]);
+  return { version: lesson.version, segments: segRows.map(compact) as Timeline['segments'], cues: cueRows };
+}
+
+/**
+ * Replaces the whole timeline in one transaction when `version` is current; a stale version
+ * answers 409 with the current version and changes nothing.
+ */
+export async function putTimeline(
+  deps: AppDeps,
+  studioId: string,
+  lessonId: string,
+  version: number,
+  timeline: Timeline,
+): Promise<{ version: number }> {
+  return deps.db.transaction(async (tx) => {
+    const [bumped] = await tx
+      .update(lessons)
+      .set({ timelineVersion: sql`${lessons.timelineVersion} + 1`, updatedAt: new Date() })
+      .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId), eq(lessons.timelineVersion, version)))
+      .returning({ version: lessons.timelineVersion });
+    if (!bumped) {
+      const [current] = await tx
+        .select({ version: lessons.timelineVersion })
+        .from(lessons)
+        .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)));
+      if (!current) throw notFound('That class');
+      throw stale(current.version);
+    }
+    await tx.delete(segments).where(eq(segments.lessonId, lessonId));
+    await tx.delete(cues).where(eq(cues.lessonId, lessonId));
+    // Chunked inserts keep each statement under PostgreSQL's 65,535-parameter limit.
+    for (let i = 0; i < timeline.segments.length; i += 5000) {
+      await tx.insert(segments).values(timeline.segments.slice(i, i + 5000).map((s) => ({ ...s, lessonId })));
+    }
+    for (let i = 0; i < timeline.cues.length; i += 10000) {
+      await tx.insert(cues).values(timeline.cues.slice(i, i + 10000).map((c) => ({ ...c, lessonId })));
+    }
+    return { version: bumped.version };
+  });
+}
+
+/** Runs the timing check on the stored plan and timeline; media length from the class until recordings exist. */
+export async function checkLesson(deps: AppDeps, studioId: string, lessonId: string): Promise<CheckResult & { version: number }> {
+  const [lesson] = await deps.db
+    .select({ plan: lessons.plan, mediaSeconds: lessons.mediaSeconds, advertisedMinutes: lessons.advertisedMinutes })
+    .from(lessons)
+    .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)));
+  if (!lesson) throw notFound('That class');
+  const plan = parseStoredPlan(lesson.plan);
+  if (!plan) throw new AppError('conflict', 'This class has no plan yet. Add its plan, then run the check.');
+  const timeline = await getTimeline(deps, studioId, lessonId);
+  const result = checkTiming(plan, timeline, { mediaSeconds: lesson.mediaSeconds, advertisedMinutes: lesson.advertisedMinutes });
+  return { ...result, version: timeline.version };
+}

@@ -1,0 +1,192 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { ApiClient, DEMO, signedIn } from '../helpers/api-client';
+
+let coach: ApiClient;
+let editor: ApiClient;
+let member: ApiClient;
+let lessonId = '';
+
+// Tabata protocol: 8 × (20 s work + 10 s rest) = 240 s
+// (Tabata I. et al., Med Sci Sports Exerc 1996;28(10):1327–1330). dropFinalRest: false keeps the 8th rest.
+const tabataPlan = {
+  blocks: [{ kind: 'intervals', exercise: 'Tabata test move', sets: 8, workSeconds: 20, restSeconds: 10 }],
+  options: { dropFinalRest: false },
+};
+
+/** A correct timeline for the Tabata plan: work/rest from 0 s. */
+function tabataTimeline() {
+  const segments = [];
+  for (let set = 1; set <= 8; set++) {
+    const t = (set - 1) * 30;
+    segments.push({ id: `w${set}`, kind: 'work', startSeconds: t, endSeconds: t + 20, exercise: 'Tabata test move', set });
+    segments.push({ id: `r${set}`, kind: 'rest', startSeconds: t + 20, endSeconds: t + 30, set });
+  }
+  return { segments, cues: [{ id: 'c1', atSeconds: 17, kind: 'countdown', text: '3, 2, 1' }] };
+}
+
+beforeAll(async () => {
+  [coach, editor, member] = await Promise.all([signedIn(DEMO.coach), signedIn(DEMO.editor), signedIn(DEMO.member)]);
+  const res = await coach.post('/api/lessons', { title: 'Tabata API check', advertisedMinutes: 4, mediaSeconds: 250 });
+  expect(res.status).toBe(201);
+  lessonId = (await res.json()).id;
+});
+
+describe('plan', () => {
+  it('stores a plan, expands it, and adds new exercise names to the studio list', async () => {
+    const put = await coach.put(`/api/lessons/${lessonId}/plan`, tabataPlan);
+    expect(put.status).toBe(200);
+    const body = await put.json();
+    expect(body.addedExercises).toEqual(['Tabata test move']);
+    const got = await (await coach.get(`/api/lessons/${lessonId}/plan`)).json();
+    expect(got.schedule.totals.classSeconds).toBe(240); // Tabata 1996: 8 × 30 s
+    expect(got.schedule.totals.workSeconds).toBe(160);
+    expect(got.schedule.segments).toHaveLength(16);
+    const list = await (await coach.get('/api/exercises')).json();
+    expect(list.exercises.map((e: { name: string }) => e.name)).toContain('Tabata test move');
+  });
+
+  it('refuses a malformed plan and names the field', async () => {
+    const res = await coach.put(`/api/lessons/${lessonId}/plan`, { blocks: [{ kind: 'circuit', rounds: 0, stations: [] }] });
+    expect(res.status).toBe(400);
+    const { error } = await res.json();
+    expect(Object.keys(error.fields).some((k) => k.startsWith('blocks.0'))).toBe(true);
+  });
+});
+
+describe('timeline and check', () => {
+  it('starts at version 0, saves, and checks clean', async () => {
+    const empty = await (await editor.get(`/api/lessons/${lessonId}/timeline`)).json();
+    expect(empty).toEqual({ version: 0, segments: [], cues: [] });
+    const saved = await editor.put(`/api/lessons/${lessonId}/timeline`, { version: 0, ...tabataTimeline() });
+    expect(saved.status).toBe(200);
+    expect(await saved.json()).toEqual({ version: 1 });
+    const check = await (await editor.post(`/api/lessons/${lessonId}/check`)).json();
+    expect(check.findings.filter((f: { severity: string }) => f.severity === 'error')).toEqual([]);
+    expect(check.ok).toBe(true);
+  });
+
+  it('answers a stale save with 409 and the current version, and changes nothing', async () => {
+    const current = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
+    const t = tabataTimeline();
+    t.segments[0]!.endSeconds = 25;
+    const first = await coach.put(`/api/lessons/${lessonId}/timeline`, { version: current.version, ...t });
+    expect(first.status).toBe(200);
+    const stale = await editor.put(`/api/lessons/${lessonId}/timeline`, { version: current.version, segments: [], cues: [] });
+    expect(stale.status).toBe(409);
+    expect((await stale.json()).error.currentVersion).toBe(current.version + 1);
+    const after = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
+    expect(after.segments).toHaveLength(16);
+    expect(after.segments.find((s: { id: string }) => s.id === 'w1').endSeconds).toBe(25);
+  });
+
+  it('flags the 25 s first work interval and the overlap it makes with the rest', async () => {
+    const check = await (await coach.post(`/api/lessons/${lessonId}/check`)).json();
+    const codes = check.findings.map((f: { code: string }) => f.code);
+    expect(codes).toContain('work-too-long');
+    expect(codes).toContain('overlap');
+    expect(check.ok).toBe(false);
+  });
+
+  it('refuses overlapping ids and a segment that ends before it starts, saving nothing', async () => {
+    const current = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
+    const res = await coach.put(`/api/lessons/${lessonId}/timeline`, {
+      version: current.version,
+      segments: [
+        { id: 'a', kind: 'work', startSeconds: 10, endSeconds: 5 },
+        { id: 'a', kind: 'rest', startSeconds: 20, endSeconds: 30 },
+      ],
+      cues: [],
+    });
+    expect(res.status).toBe(400);
+    expect((await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json()).version).toBe(current.version);
+  });
+});
+
+describe('import and export', () => {
+  it('will not write overlapping chapters as WebVTT, and says why', async () => {
+    // The timeline still has the overlap from above; W3C WebVTT §4.5.1 nests chapters, never overlaps them.
+    const res = await coach.get(`/api/lessons/${lessonId}/timeline/export?format=vtt`);
+    expect(res.status).toBe(409);
+    expect((await res.json()).error.message).toMatch(/cannot be written as WebVTT/);
+  });
+
+  it('round-trips through CSV and WebVTT keeping every time to the millisecond', async () => {
+    const clean = tabataTimeline();
+    clean.segments[3]!.startSeconds = 50.123; // a time with milliseconds (rest 2 starts later)
+    const v = (await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json()).version;
+    expect((await coach.put(`/api/lessons/${lessonId}/timeline`, { version: v, ...clean })).status).toBe(200);
+    const before = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
+    for (const format of ['csv', 'vtt'] as const) {
+      const exported = await coach.get(`/api/lessons/${lessonId}/timeline/export?format=${format}`);
+      expect(exported.status).toBe(200);
+      expect(exported.headers.get('content-type')).toContain(format === 'csv' ? 'text/csv' : 'text/vtt');
+      const text = await exported.text();
+      if (format === 'vtt') expect(text.startsWith('WEBVTT')).toBe(true); // W3C WebVTT §4.1: file starts with WEBVTT
+      const current = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
+      const imported = await coach.request('POST', `/api/lessons/${lessonId}/timeline/import?version=${current.version}`, text);
+      expect(imported.status, await imported.clone().text()).toBe(200);
+      const after = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
+      const times = (t: typeof before) =>
+        t.segments.map((s: { id: string; startSeconds: number; endSeconds: number }) => [s.id, s.startSeconds, s.endSeconds]).sort();
+      expect(times(after)).toEqual(times(before));
+    }
+  });
+
+  it('names the line of a bad CSV row and imports nothing', async () => {
+    const current = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
+    const csv = 'type,id,kind,start,end,exercise,round,set,title,text\nsegment,x1,work,0:00.000,0:20.000,,,,,\nsegment,x2,jog,0:20.000,0:30.000,,,,,\n';
+    const res = await coach.request('POST', `/api/lessons/${lessonId}/timeline/import?version=${current.version}&format=csv`, csv);
+    expect(res.status).toBe(400);
+    const { error } = await res.json();
+    expect(error.errors[0].line).toBe(3);
+    expect(error.message).toMatch(/^Nothing was imported: line 3:/);
+    expect((await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json()).version).toBe(current.version);
+  });
+
+  it('names the line of a bad WebVTT timestamp', async () => {
+    const current = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
+    // W3C WebVTT §4.1: seconds must be 00–59, so 00:61.000 is not a valid timestamp.
+    const vtt = 'WEBVTT\n\n00:00.000 --> 00:20.000\nWork\n\n00:20.000 --> 00:61.000\nRest\n';
+    const res = await coach.request('POST', `/api/lessons/${lessonId}/timeline/import?version=${current.version}&format=vtt`, vtt);
+    expect(res.status).toBe(400);
+    expect((await res.json()).error.errors[0].line).toBe(6);
+  });
+
+  it('refuses an import without a version, and a stale one', async () => {
+    expect((await coach.request('POST', `/api/lessons/${lessonId}/timeline/import`, 'WEBVTT\n')).status).toBe(400);
+    const stale = await coach.request('POST', `/api/lessons/${lessonId}/timeline/import?version=0`, 'WEBVTT\n\n00:00.000 --> 00:20.000\nWork\n');
+    expect(stale.status).toBe(409);
+  });
+});
+
+describe('roles and studios', () => {
+  it.each([
+    ['GET', 'plan'],
+    ['GET', 'timeline'],
+    ['POST', 'check'],
+    ['GET', 'timeline/export?format=csv'],
+  ])('a member gets 403 for %s %s', async (method, path) => {
+    expect((await member.request(method, `/api/lessons/${lessonId}/${path}`)).status).toBe(403);
+  });
+
+  it('a member cannot read or change the exercise list', async () => {
+    expect((await member.get('/api/exercises')).status).toBe(403);
+    expect((await member.post('/api/exercises', { name: 'Sneaky' })).status).toBe(403);
+  });
+
+  it('refuses a duplicate exercise name regardless of case', async () => {
+    const res = await coach.post('/api/exercises', { name: 'goblet SQUAT' });
+    expect(res.status).toBe(409);
+  });
+});
+
+describe('the demo draft', () => {
+  it('shows its deliberate mistakes through the check', async () => {
+    const list = await (await coach.get('/api/lessons')).json();
+    const draft = list.lessons.find((l: { slug: string }) => l.slug === 'hill-sprints-prep');
+    const check = await (await coach.post(`/api/lessons/${draft.id}/check`)).json();
+    const codes = new Set(check.findings.map((f: { code: string }) => f.code));
+    for (const code of ['work-too-short', 'overlap', 'missing-station', 'length-vs-advertised']) expect(codes).toContain(code);
+    expect(check.ok).toBe(false);
+  });
+});
