@@ -67,33 +67,44 @@ export function expandPlan(plan: Plan, startSeconds = 0): ExpectedSchedule {
   };
   let at = startSeconds;
 
-  const push = (seg: Omit<PlannedSegment, 'index' | 'startSeconds'>): void => {
-    if (seg.seconds <= 0) return;
-    segments.push({ ...seg, index: segments.length, startSeconds: at });
-    at += seg.seconds;
-    switch (seg.kind) {
-      case 'work': totals.workSeconds += seg.seconds; break;
-      case 'rest': totals.restSeconds += seg.seconds; break;
-      case 'round-break': totals.roundBreakSeconds += seg.seconds; break;
-      case 'warmup': totals.warmupSeconds += seg.seconds; break;
-      case 'cooldown': totals.cooldownSeconds += seg.seconds; break;
-      case 'talk': totals.talkSeconds += seg.seconds; break;
+  // Objects are built with one fixed shape (absent fields undefined): a 12-hour plan has
+  // thousands of segments and the check expands the plan on every run.
+  const push = (
+    kind: PlannedKind,
+    seconds: number,
+    blockIndex: number,
+    blockKind: PlanBlock['kind'],
+    stationIndex?: number,
+    exercise?: string,
+    round?: number,
+    set?: number,
+  ): void => {
+    if (seconds <= 0) return;
+    segments.push({ index: segments.length, kind, blockIndex, blockKind, stationIndex, exercise, round, set, startSeconds: at, seconds });
+    at += seconds;
+    switch (kind) {
+      case 'work': totals.workSeconds += seconds; break;
+      case 'rest': totals.restSeconds += seconds; break;
+      case 'round-break': totals.roundBreakSeconds += seconds; break;
+      case 'warmup': totals.warmupSeconds += seconds; break;
+      case 'cooldown': totals.cooldownSeconds += seconds; break;
+      case 'talk': totals.talkSeconds += seconds; break;
     }
   };
 
   plan.blocks.forEach((block, blockIndex) => {
-    const blockKind = block.kind;
     switch (block.kind) {
       case 'warmup':
       case 'cooldown':
       case 'talk':
-        push({ kind: block.kind, blockIndex, blockKind, seconds: block.seconds });
+        push(block.kind, block.seconds, blockIndex, block.kind);
         break;
       case 'intervals':
         for (let set = 1; set <= block.sets; set++) {
-          const base = { blockIndex, blockKind, stationIndex: 0, exercise: block.exercise, set };
-          push({ ...base, kind: 'work', seconds: block.workSeconds });
-          if (!(dropFinalRest && set === block.sets)) push({ ...base, kind: 'rest', seconds: block.restSeconds });
+          push('work', block.workSeconds, blockIndex, 'intervals', 0, block.exercise, undefined, set);
+          if (!(dropFinalRest && set === block.sets)) {
+            push('rest', block.restSeconds, blockIndex, 'intervals', 0, block.exercise, undefined, set);
+          }
         }
         break;
       case 'circuit': {
@@ -101,15 +112,12 @@ export function expandPlan(plan: Plan, startSeconds = 0): ExpectedSchedule {
         for (let round = 1; round <= block.rounds; round++) {
           const finalRound = round === block.rounds;
           block.stations.forEach((station, stationIndex) => {
-            const base = { blockIndex, blockKind, stationIndex, exercise: station.exercise, round };
-            push({ ...base, kind: 'work', seconds: station.workSeconds });
+            push('work', station.workSeconds, blockIndex, 'circuit', stationIndex, station.exercise, round);
             const isLast = stationIndex === last;
             const skipRest = isLast && (finalRound ? dropFinalRest : roundBreakReplacesLastRest);
-            if (!skipRest) push({ ...base, kind: 'rest', seconds: station.restSeconds });
+            if (!skipRest) push('rest', station.restSeconds, blockIndex, 'circuit', stationIndex, station.exercise, round);
           });
-          if (!finalRound) {
-            push({ blockIndex, blockKind, round, kind: 'round-break', seconds: block.roundBreakSeconds });
-          }
+          if (!finalRound) push('round-break', block.roundBreakSeconds, blockIndex, 'circuit', undefined, undefined, round);
         }
         break;
       }

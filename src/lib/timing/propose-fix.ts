@@ -144,9 +144,9 @@ export function proposeResize(view: TimelineView, i: number, targetSeconds: numb
 
   // Move the neighbour whole, and the boundary beyond it (for a neighbour that has its own
   // planned length and should keep it).
-  const shiftNext = shiftNeighbour(view, i, i + 1, i + 2, newEnd - end, media);
+  const shiftNext = rippleNeighbours(view, i, 1, newEnd - end, media);
   if (newEnd <= media && shiftNext) candidates.push({ ...shiftNext, changes: [{ segmentId: a.id, field: 'endSeconds', value: sec(newEnd) }, ...shiftNext.changes], side: 0 });
-  const shiftPrev = newStart >= 0 ? shiftNeighbour(view, i, i - 1, i - 2, newStart - start, media) : undefined;
+  const shiftPrev = newStart >= 0 ? rippleNeighbours(view, i, -1, newStart - start, media) : undefined;
   if (shiftPrev) candidates.push({ ...shiftPrev, changes: [...shiftPrev.changes, { segmentId: a.id, field: 'startSeconds', value: sec(newStart) }], side: 1 });
 
   let best: Candidate | undefined;
@@ -154,39 +154,53 @@ export function proposeResize(view: TimelineView, i: number, targetSeconds: numb
   return best?.changes;
 }
 
+/** How many neighbours a fix may move whole before giving up. */
+const MAX_RIPPLE = 64;
+
 /**
- * Moves neighbour `ni` of segment `ai` by `delta` ms without changing its length, and the
- * facing boundary of the segment `fi` beyond it (when there is one) along with it. Only for
- * back-to-back chains with nothing else overlapping them, and never past the recording.
+ * Moves the segments after (`dir` 1) or before (`dir` -1) segment `ai` by `delta` ms without
+ * changing their lengths, as many as needed until one can take up the change within its
+ * tolerance (its facing boundary moves), unmarked time can, or the recording's edge is reached.
+ * Only along back-to-back chains with nothing else overlapping them.
  */
-function shiftNeighbour(view: TimelineView, ai: number, ni: number, fi: number, delta: number, media: number): Omit<Candidate, 'side'> | undefined {
+function rippleNeighbours(view: TimelineView, ai: number, dir: 1 | -1, delta: number, media: number): Omit<Candidate, 'side'> | undefined {
   const segs = view.segments;
-  const a = segs[ai]!;
-  const n = segs[ni];
-  if (!n || delta === 0) return undefined;
-  const forward = ni > ai;
-  // The chain must be back to back and clean (each is the largest end before the next).
-  if (forward ? ms(n.startSeconds) !== ms(a.endSeconds) || view.holderBefore[ni] !== ai : ms(n.endSeconds) !== ms(a.startSeconds) || view.holderBefore[ai] !== ni) return undefined;
-  const nStart = ms(n.startSeconds) + delta;
-  const nEnd = ms(n.endSeconds) + delta;
-  if (nStart < 0 || nEnd > media) return undefined;
-  const changes: FixChange[] = [
-    { segmentId: n.id, field: 'startSeconds', value: sec(nStart) },
-    { segmentId: n.id, field: 'endSeconds', value: sec(nEnd) },
-  ];
-  const f = segs[fi];
-  let excess = 0;
-  let excessBefore = 0;
-  if (f && (forward ? ms(f.startSeconds) === ms(n.endSeconds) && view.holderBefore[fi] === ni : ms(f.endSeconds) === ms(n.startSeconds) && view.holderBefore[ni] === fi)) {
-    const fLen = forward ? ms(f.endSeconds) - nEnd : nStart - ms(f.startSeconds);
-    if (fLen <= 0) return undefined;
-    excess = excessOf(view, f.id, fLen);
-    excessBefore = excessOf(view, f.id, ms(f.endSeconds) - ms(f.startSeconds));
-    changes.push({ segmentId: f.id, field: forward ? 'startSeconds' : 'endSeconds', value: sec(forward ? nEnd : nStart) });
-  } else if (forward ? (segs[fi] ? nEnd > ms(segs[fi]!.startSeconds) : false) : nStart < (fi >= 0 ? ms(view.maxEndBefore[ni]!) : 0)) {
-    return undefined; // would run into a segment that is not back to back
+  if (delta === 0) return undefined;
+  const changes: FixChange[] = [];
+  let prevIdx = ai;
+  for (let k = 1; k <= MAX_RIPPLE; k++) {
+    const ni = ai + dir * k;
+    const n = segs[ni];
+    const p = segs[prevIdx]!;
+    if (!n) return undefined;
+    const adjacent = dir === 1
+      ? ms(n.startSeconds) === ms(p.endSeconds) && view.holderBefore[ni] === prevIdx
+      : ms(n.endSeconds) === ms(p.startSeconds) && view.holderBefore[prevIdx] === ni;
+    if (!adjacent) return undefined;
+    const nStart = ms(n.startSeconds) + delta;
+    const nEnd = ms(n.endSeconds) + delta;
+    if (nStart < 0 || nEnd > media) return undefined;
+    changes.push({ segmentId: n.id, field: 'startSeconds', value: sec(nStart) }, { segmentId: n.id, field: 'endSeconds', value: sec(nEnd) });
+    const fi = ni + dir;
+    const f = segs[fi];
+    const fAdjacent = f !== undefined && (dir === 1
+      ? ms(f.startSeconds) === ms(n.endSeconds) && view.holderBefore[fi] === ni
+      : ms(f.endSeconds) === ms(n.startSeconds) && view.holderBefore[ni] === fi);
+    if (!fAdjacent) {
+      // Unmarked time (or the class edge) beyond: the moved chain must not run into anything.
+      const blocked = dir === 1 ? f !== undefined && nEnd > ms(f.startSeconds) : nStart < (view.maxEndBefore[ni]! === -Infinity ? 0 : ms(view.maxEndBefore[ni]!));
+      return blocked ? undefined : { changes, excessBefore: 0, reportableGap: 0, excess: 0, opensGap: 0 };
+    }
+    const fLen = dir === 1 ? ms(f.endSeconds) - nEnd : nStart - ms(f.startSeconds);
+    const before = excessOf(view, f.id, ms(f.endSeconds) - ms(f.startSeconds));
+    const after = fLen > 0 ? excessOf(view, f.id, fLen) : Infinity;
+    if (fLen > 0 && after <= before) {
+      changes.push({ segmentId: f.id, field: dir === 1 ? 'startSeconds' : 'endSeconds', value: sec(dir === 1 ? nEnd : nStart) });
+      return { changes, excessBefore: before, reportableGap: 0, excess: after, opensGap: 0 };
+    }
+    prevIdx = ni;
   }
-  return { changes, excessBefore, reportableGap: 0, excess, opensGap: 0 };
+  return undefined;
 }
 
 /**

@@ -11,14 +11,16 @@ import { advertisedFinding, cueFindings, lengthFindings, structureFindings } fro
 import { matchPlan } from './match-plan';
 import { buildTimelineView } from './timeline-view';
 
-/** Stable order: time, then severity (errors first), then code, then the first segment id. */
+const firstId = (f: Finding): string => f.segmentIds[0] ?? f.cueIds?.[0] ?? '';
+const compareText = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
+
+/** Stable order: time, then severity (errors first), then code, then the first segment or cue id. */
 export function compareFindings(a: Finding, b: Finding): number {
   return (
     a.atSeconds - b.atSeconds ||
     SEVERITY_RANK[a.severity] - SEVERITY_RANK[b.severity] ||
-    (a.code < b.code ? -1 : a.code > b.code ? 1 : 0) ||
-    ((a.segmentIds[0] ?? a.cueIds?.[0] ?? '') < (b.segmentIds[0] ?? b.cueIds?.[0] ?? '') ? -1 : 0) ||
-    ((a.segmentIds[0] ?? a.cueIds?.[0] ?? '') > (b.segmentIds[0] ?? b.cueIds?.[0] ?? '') ? 1 : 0)
+    compareText(a.code, b.code) ||
+    compareText(firstId(a), firstId(b))
   );
 }
 

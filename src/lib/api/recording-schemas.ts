@@ -1,0 +1,67 @@
+import { z } from 'zod';
+
+/** Containers the media pipeline accepts, by file extension. */
+export const ACCEPTED_EXTENSIONS = ['mp4', 'm4v', 'mov', 'webm', 'mkv'] as const;
+/** MIME types browsers report for those containers ('' when the browser does not know, as with MKV). */
+export const ACCEPTED_TYPES = ['video/mp4', 'video/quicktime', 'video/webm', 'video/x-matroska', 'application/octet-stream', ''];
+
+export const fileExtension = (name: string) => (name.match(/\.([A-Za-z0-9]+)$/)?.[1] ?? '').toLowerCase();
+
+export const createRecordingInput = z
+  .object({
+    fileName: z.string().trim().min(1, { error: 'The file needs a name.' }).max(255),
+    sizeBytes: z.number().int().nonnegative(),
+    contentType: z.string().max(100).default(''),
+  })
+  .superRefine((v, ctx) => {
+    const ext = fileExtension(v.fileName);
+    if (!(ACCEPTED_EXTENSIONS as readonly string[]).includes(ext) || !ACCEPTED_TYPES.includes(v.contentType)) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['fileName'],
+        message: `Roundmark takes video files in MP4, MOV, WebM or MKV. "${v.fileName}" is not one of those: export the recording as MP4 and upload that.`,
+      });
+    }
+    if (v.sizeBytes === 0) {
+      ctx.addIssue({ code: 'custom', path: ['sizeBytes'], message: 'This file is empty (0 bytes). Check the export and upload the recording again.' });
+    }
+  })
+  .meta({ id: 'CreateRecordingInput' });
+export type CreateRecordingInput = z.infer<typeof createRecordingInput>;
+
+/** One S3 request the upload widget asks us to sign (create, part, list, complete, abort). */
+export const signUploadInput = z
+  .object({
+    method: z.enum(['POST', 'PUT', 'GET', 'DELETE']),
+    key: z.string().max(1024).optional(),
+    uploadId: z.string().min(1).max(1024).optional(),
+    partNumber: z.number().int().min(1).max(10_000).optional(),
+    contentType: z.string().max(100).optional(),
+  })
+  .meta({ id: 'SignUploadInput' });
+export type SignUploadInput = z.infer<typeof signUploadInput>;
+
+export const recordingStates = ['uploading', 'processing', 'ready', 'failed'] as const;
+
+export const recordingOutput = z
+  .object({
+    id: z.string().uuid(),
+    lessonId: z.string().uuid(),
+    state: z.enum(recordingStates),
+    fileName: z.string(),
+    sizeBytes: z.number(),
+    step: z.string().nullable(),
+    progress: z.number(),
+    failureReason: z.string().nullable(),
+    warnings: z.array(z.string()),
+    durationSeconds: z.number().nullable(),
+    width: z.number().nullable(),
+    height: z.number().nullable(),
+    isCurrent: z.boolean(),
+    posterUrl: z.string().nullable(),
+    playlistUrl: z.string().nullable(),
+    peaksUrl: z.string().nullable(),
+    createdAt: z.string(),
+  })
+  .meta({ id: 'Recording' });
+export type RecordingOutput = z.infer<typeof recordingOutput>;

@@ -1,0 +1,119 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { expandPlan } from '~/lib/plan/expand-plan';
+import type { PlanInput } from '~/lib/plan/plan-schema';
+import type { Timeline } from '~/lib/timeline/timeline-schema';
+import { applyAllFixes } from '~/lib/timing/apply-fix';
+import { checkTiming } from '~/lib/timing/timing-check';
+import { codes, plan, timelineFromPlan } from './timing-fixtures';
+
+const secs = (min: number, max: number) => fc.integer({ min, max });
+const exercise = fc.constantFrom('Squat', 'Row', 'Lunge', 'Press', 'Plank');
+
+const blockArb = fc.oneof(
+  fc.record({ kind: fc.constantFrom('warmup' as const, 'cooldown' as const, 'talk' as const), seconds: secs(20, 400) }),
+  fc.record({
+    kind: fc.constant('circuit' as const),
+    rounds: fc.integer({ min: 1, max: 3 }),
+    roundBreakSeconds: secs(0, 90),
+    stations: fc.array(fc.record({ exercise, workSeconds: secs(10, 90), restSeconds: secs(0, 40) }), { minLength: 1, maxLength: 4 }),
+  }),
+  fc.record({ kind: fc.constant('intervals' as const), exercise, sets: fc.integer({ min: 1, max: 5 }), workSeconds: secs(10, 60), restSeconds: secs(0, 30) }),
+);
+
+const planArb = fc
+  .record({
+    blocks: fc.array(blockArb, { minLength: 1, maxLength: 4 }),
+    options: fc.record({ roundBreakReplacesLastRest: fc.boolean(), dropFinalRest: fc.boolean() }),
+  })
+  .map((p) => plan(p as PlanInput));
+
+const tolerancesOf = (p: ReturnType<typeof plan>, kind: string): [number, string, string] => {
+  if (kind === 'work') return [p.tolerances.workSeconds, 'work-too-long', 'work-too-short'];
+  if (kind === 'rest' || kind === 'round-break') return [p.tolerances.restSeconds, 'rest-too-long', 'rest-too-short'];
+  return [p.tolerances.blockSeconds, 'block-length', 'block-length'];
+};
+
+describe('timing check properties (fast-check)', () => {
+  it('a timeline marking any valid plan exactly has no finding at all', () => {
+    fc.assert(
+      fc.property(planArb, secs(0, 600), (p, start) => {
+        const t = timelineFromPlan(p, start);
+        const end = start + expandPlan(p).totals.classSeconds;
+        const r = checkTiming(p, t, { mediaSeconds: end });
+        expect(r.findings).toEqual([]);
+        expect(r.ok).toBe(true);
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it('moving one shared boundary yields exactly the findings its two lengths call for', () => {
+    let withFindings = 0;
+    fc.assert(
+      fc.property(planArb, fc.nat(), fc.integer({ min: 1, max: 60_000 }), fc.boolean(), (p, pick, magnitudeMs, later) => {
+        const t = timelineFromPlan(p);
+        fc.pre(t.segments.length >= 2);
+        const i = pick % (t.segments.length - 1);
+        const left = t.segments[i]!;
+        const right = t.segments[i + 1]!;
+        const room = later ? right.endSeconds - right.startSeconds : left.endSeconds - left.startSeconds;
+        const d = ((later ? 1 : -1) * Math.min(magnitudeMs, Math.round(room * 1000) - 1)) / 1000;
+        fc.pre(d !== 0);
+        const at = Math.round((left.endSeconds + d) * 1000) / 1000;
+        const moved: Timeline = {
+          cues: [],
+          segments: t.segments.map((s, k) => (k === i ? { ...s, endSeconds: at } : k === i + 1 ? { ...s, startSeconds: at } : s)),
+        };
+        // Oracle, independent of the check: each of the two segments changed length by ±d.
+        const expected: string[] = [];
+        for (const [seg, change] of [[left, d], [right, -d]] as const) {
+          const [tol, long, short] = tolerancesOf(p, seg.kind);
+          const diffMs = Math.round(change * 1000);
+          if (Math.abs(diffMs) > tol * 1000) expected.push(diffMs > 0 ? long : short);
+        }
+        expect(codes(checkTiming(p, moved).findings)).toEqual(expected.sort());
+        if (expected.length > 0) withFindings++;
+      }),
+      { numRuns: 400 },
+    );
+    // Guard against a vacuous run: most moves go beyond a tolerance.
+    expect(withFindings).toBeGreaterThan(100);
+  });
+
+  it('applying every suggested fix converges to no errors after random boundary moves', () => {
+    let startedWithErrors = 0;
+    let startedWithFindings = 0;
+    fc.assert(
+      fc.property(
+        planArb,
+        fc.array(fc.record({ pick: fc.nat(), fraction: fc.integer({ min: -900, max: 900 }).map((n) => n / 1000) }), { minLength: 1, maxLength: 6 }),
+        (p, moves) => {
+          let t = timelineFromPlan(p);
+          fc.pre(t.segments.length >= 2);
+          for (const { pick, fraction } of moves) {
+            const i = pick % (t.segments.length - 1);
+            const left = t.segments[i]!;
+            const right = t.segments[i + 1]!;
+            const room = fraction > 0 ? right.endSeconds - right.startSeconds : left.endSeconds - left.startSeconds;
+            const at = Math.round((left.endSeconds + fraction * room) * 1000) / 1000;
+            if (!(at > left.startSeconds && at < right.endSeconds)) continue;
+            t = { cues: [], segments: t.segments.map((s, k) => (k === i ? { ...s, endSeconds: at } : k === i + 1 ? { ...s, startSeconds: at } : s)) };
+          }
+          const end = expandPlan(p).totals.classSeconds;
+          const before = checkTiming(p, t, { mediaSeconds: end });
+          if (!before.ok) startedWithErrors++;
+          if (before.findings.length > 0) startedWithFindings++;
+          const r = applyAllFixes(p, t, { mediaSeconds: end });
+          const after = checkTiming(p, r.timeline, { mediaSeconds: end });
+          expect(after.findings.filter((f) => f.severity === 'error')).toEqual([]);
+          expect(r.converged).toBe(true);
+        },
+      ),
+      { numRuns: 500 },
+    );
+    // Guard against a vacuous run (most moves land on rests and blocks, whose findings are warnings).
+    expect(startedWithFindings).toBeGreaterThan(150);
+    expect(startedWithErrors).toBeGreaterThan(10);
+  });
+});
