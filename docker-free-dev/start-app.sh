@@ -15,6 +15,10 @@ npx tsx src/scripts/seed.ts
 bash docker-free-dev/build-if-stale.sh
 
 export HOST=127.0.0.1 PORT="$ROUNDMARK_APP_PORT" NODE_ENV=production
-# Local services speak plain HTTP on loopback; production deployments set their own values.
-say "Roundmark is starting on $PUBLIC_BASE_URL (demo accounts in README.md). Ctrl+C stops the app; 'npm run services -- down' stops the services."
-exec node dist/server/entry.mjs
+# The job worker runs beside the server and stops with it.
+npx tsx src/worker.ts >"$RUN/worker.log" 2>&1 &
+worker=$!
+trap 'kill $worker 2>/dev/null; wait $worker 2>/dev/null' EXIT INT TERM
+say "Roundmark is starting on $PUBLIC_BASE_URL (demo accounts in README.md); the job worker logs to .data/run/worker.log."
+say "Ctrl+C stops the app and the worker; 'npm run services -- down' stops the services."
+node dist/server/entry.mjs

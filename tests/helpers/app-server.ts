@@ -1,9 +1,10 @@
 import { spawn, type ChildProcess } from 'node:child_process';
-import { existsSync } from 'node:fs';
+import { existsSync, mkdirSync, openSync, readFileSync, writeFileSync } from 'node:fs';
 
 /**
  * Vitest global set-up: serves the built app (dist/) on ROUNDMARK_TEST_PORT against the test
- * database that docker-free-dev/run-tests.sh prepared, for the integration and browser tests.
+ * database that docker-free-dev/run-tests.sh prepared, and runs the job worker beside it, for
+ * the integration and browser tests. Both logs go to test-results/.
  */
 export default async function setup() {
   const port = process.env.ROUNDMARK_TEST_PORT ?? '4399';
@@ -11,15 +12,43 @@ export default async function setup() {
   process.env.TEST_BASE_URL = base;
   if (!existsSync('dist/server/entry.mjs') || !process.env.DATABASE_URL) return;
   if (await healthy(base)) return; // already served by someone else (a second vitest run)
-  const child: ChildProcess = spawn('node', ['dist/server/entry.mjs'], {
-    env: { ...process.env, HOST: '127.0.0.1', PORT: port },
-    stdio: ['ignore', 'inherit', 'inherit'],
-  });
-  for (let i = 0; i < 100 && !(await healthy(base)); i++) await new Promise((r) => setTimeout(r, 100));
-  if (!(await healthy(base))) throw new Error(`the app did not answer on ${base}`);
+  mkdirSync('test-results', { recursive: true });
+  const children: ChildProcess[] = [
+    spawn('node', ['dist/server/entry.mjs'], {
+      env: { ...process.env, HOST: '127.0.0.1', PORT: port },
+      stdio: ['ignore', openSync('test-results/app.log', 'a'), openSync('test-results/app.log', 'a')],
+    }),
+    startWorker(),
+  ];
+  for (let i = 0; i < 150 && !(await healthy(base)); i++) await new Promise((r) => setTimeout(r, 100));
+  if (!(await healthy(base))) throw new Error(`the app did not answer on ${base} (see test-results/app.log)`);
   return () => {
-    child.kill('SIGTERM');
+    for (const c of children) c.kill('SIGTERM');
+    stopWorkerFromPidFile();
   };
+}
+
+/** Where the running worker's pid is kept, so a fault test can kill it and start another. */
+export const WORKER_PID_FILE = 'test-results/worker.pid';
+
+/** Starts the job worker; a short stale limit lets recovery tests finish in seconds. */
+export function startWorker(): ChildProcess {
+  mkdirSync('test-results', { recursive: true });
+  const log = openSync('test-results/worker.log', 'a');
+  const child = spawn('node', ['--import', 'tsx', 'src/worker.ts'], {
+    env: { ...process.env, ROUNDMARK_STALE_SECONDS: '8' },
+    stdio: ['ignore', log, log],
+  });
+  writeFileSync(WORKER_PID_FILE, String(child.pid));
+  return child;
+}
+
+function stopWorkerFromPidFile(): void {
+  try {
+    process.kill(Number(readFileSync(WORKER_PID_FILE, 'utf8')), 'SIGTERM');
+  } catch {
+    // already stopped
+  }
 }
 
 async function healthy(base: string): Promise<boolean> {

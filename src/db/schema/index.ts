@@ -1,3 +1,4 @@
 export * from './auth';
 export * from './studio';
 export * from './lessons';
+export * from './recordings';

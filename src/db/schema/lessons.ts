@@ -46,6 +46,8 @@ export const lessons = pgTable(
     plan: jsonb(),
     /** Bumped by every timeline save; 0 means never saved. Stale saves answer 409. */
     timelineVersion: integer().notNull().default(0),
+    /** The ready recording members watch; a new upload replaces it only once it is ready. */
+    currentRecordingId: uuid(),
     version: integer().notNull().default(1),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),

@@ -23,7 +23,10 @@ export function fieldErrors(error: z.ZodError): Record<string, string> {
 export function parseWith<S extends z.ZodType>(schema: S, data: unknown): z.infer<S> {
   const parsed = schema.safeParse(data);
   if (!parsed.success) {
-    throw new AppError('invalid_input', 'Some fields need another look.', fieldErrors(parsed.error));
+    const fields = fieldErrors(parsed.error);
+    const messages = Object.values(fields);
+    // One problem: say it outright; several: point at the fields.
+    throw new AppError('invalid_input', messages.length === 1 ? messages[0]! : 'Some fields need another look.', fields);
   }
   return parsed.data;
 }

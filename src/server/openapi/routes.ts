@@ -5,6 +5,7 @@ import { timelinePutSchema, segmentSchema, cueSchema } from '../../lib/timeline/
 import { timelineExportQuery, timelineImportQuery } from '../../lib/api/timeline-file-schemas';
 import { createExerciseInput, exerciseOutput, updateExerciseInput } from '../../lib/api/exercise-schemas';
 import { FINDING_CODES } from '../../lib/timing/finding-types';
+import { createRecordingInput, recordingOutput, signUploadInput } from '../../lib/api/recording-schemas';
 
 const errorRef = z.object({ error: z.object({ code: z.string(), message: z.string() }).passthrough() });
 const json = (schema: z.ZodType, description: string) => ({ description, content: { 'application/json': { schema } } });
@@ -50,8 +51,36 @@ const checkResult = z
   .object({ ok: z.boolean(), findings: z.array(finding), totals: z.record(z.string(), z.unknown()), version: z.number().int() })
   .meta({ id: 'CheckResult' });
 
-/** Routes of the plan, timeline, check and exercise features. */
+const recordingParams = z.object({ id: z.string().uuid().describe('Recording id') });
+
+/** Routes of the plan, timeline, check, exercise and recording features. */
 export const apiRoutes: RouteConfig[] = [
+  {
+    method: 'get', path: '/api/lessons/{id}/recordings', summary: 'Recordings of a class, newest first', request: { params },
+    responses: { 200: json(z.object({ recordings: z.array(recordingOutput) }), 'Recordings'), ...errors(401, 403, 404) },
+  },
+  {
+    method: 'post', path: '/api/lessons/{id}/recordings', summary: 'Announce an upload; the server checks type and size and chooses the storage key',
+    request: { params, body: json(createRecordingInput, 'The file to upload') },
+    responses: { 201: json(recordingOutput, 'Ready to upload'), ...errors(400, 401, 403, 404, 413) },
+  },
+  {
+    method: 'get', path: '/api/recordings/{id}', summary: 'State, step and progress of a recording', request: { params: recordingParams },
+    responses: { 200: json(recordingOutput, 'Recording'), ...errors(401, 403, 404) },
+  },
+  {
+    method: 'post', path: '/api/recordings/{id}/sign', summary: 'Presign one S3 request of the multipart upload (create, part, list parts, complete, abort)',
+    request: { params: recordingParams, body: json(signUploadInput, 'The S3 request to sign') },
+    responses: { 200: json(z.object({ url: z.string().url(), key: z.string() }), 'Presigned URL for the recording’s own key'), ...errors(400, 401, 403, 404, 409, 413) },
+  },
+  {
+    method: 'post', path: '/api/recordings/{id}/complete', summary: 'Report that the store completed the upload; processing starts', request: { params: recordingParams },
+    responses: { 200: json(recordingOutput, 'Recording'), ...errors(401, 403, 404, 409) },
+  },
+  {
+    method: 'post', path: '/api/recordings/{id}/retry', summary: 'Process a failed recording again', request: { params: recordingParams },
+    responses: { 200: json(recordingOutput, 'Recording'), ...errors(401, 403, 404, 409) },
+  },
   {
     method: 'get', path: '/api/lessons/{id}/plan', summary: 'The class plan with its expected schedule and totals', request: { params },
     responses: { 200: json(planView, 'Plan (null before one is written)'), ...errors(401, 403, 404) },

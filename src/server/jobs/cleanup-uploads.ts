@@ -1,0 +1,28 @@
+import { AbortMultipartUploadCommand } from '@aws-sdk/client-s3';
+import { and, eq, lt } from 'drizzle-orm';
+import { recordings } from '../../db/schema';
+import { failRecording } from '../services/recordings';
+import type { JobHandler } from './job-context';
+
+/** Uploads untouched this long are abandoned: their parts are aborted and the recording marked failed. */
+export const ABANDONED_AFTER_HOURS = 24;
+
+/** Aborts abandoned multipart uploads so their parts stop taking space (the store keeps them otherwise). */
+export const cleanupUploads: JobHandler<'uploads.cleanup'> = async (_data, ctx) => {
+  const cutoff = new Date(Date.now() - ABANDONED_AFTER_HOURS * 3600_000);
+  const stale = await ctx.deps.db
+    .select()
+    .from(recordings)
+    .where(and(eq(recordings.state, 'uploading'), lt(recordings.updatedAt, cutoff)));
+  for (const rec of stale) {
+    if (rec.uploadId && rec.uploadId !== 'generated') {
+      await ctx.s3
+        .send(new AbortMultipartUploadCommand({ Bucket: ctx.bucket, Key: rec.sourceKey, UploadId: rec.uploadId }))
+        .catch((err: { name?: string }) => {
+          if (err.name !== 'NoSuchUpload') throw err; // already gone is fine
+        });
+    }
+    await failRecording(ctx.deps, rec.id, 'This upload was not finished within a day, so it was cancelled. Upload the recording again.');
+  }
+  return { outcome: 'done', detail: `${stale.length} abandoned uploads cleaned up` };
+};

@@ -1,0 +1,23 @@
+import { JOB_NAMES, type JobName } from '../queue';
+import type { JobHandler } from './job-context';
+import { cleanupUploads } from './cleanup-uploads';
+import { demoRecording } from './demo-recording';
+import { packageRecording } from './package-recording';
+import { probeRecording } from './probe-recording';
+
+/** One handler per job name. */
+export const JOB_HANDLERS: { [N in JobName]: JobHandler<N> } = {
+  'recording.probe': probeRecording,
+  'recording.package': packageRecording,
+  'recording.demo': demoRecording,
+  'uploads.cleanup': cleanupUploads,
+};
+
+/** Refuses to start when a queue has no handler or a handler no queue (checked at worker start). */
+export function assertRegistryComplete(): void {
+  const handled = Object.keys(JOB_HANDLERS).sort();
+  const named = [...JOB_NAMES].sort();
+  if (handled.join() !== named.join()) {
+    throw new Error(`job registry mismatch: queues ${named.join(', ')} vs handlers ${handled.join(', ')}`);
+  }
+}

@@ -1,0 +1,45 @@
+import PgBoss from 'pg-boss';
+
+/**
+ * Job names and their payloads. Each name has exactly one handler in src/server/jobs/; the
+ * worker refuses to start when a name has none.
+ */
+export interface JobPayloads {
+  'recording.probe': { recordingId: string };
+  'recording.package': { recordingId: string };
+  'recording.demo': { lessonId: string };
+  'uploads.cleanup': Record<string, never>;
+}
+export type JobName = keyof JobPayloads;
+export const JOB_NAMES: JobName[] = ['recording.probe', 'recording.package', 'recording.demo', 'uploads.cleanup'];
+
+// Media jobs can run for most of an hour on a 2-core machine (facts: 60 min of 1080p needs ~45 min),
+// so they expire after 4 hours, not pg-boss's 15-minute default; retries back off exponentially.
+const QUEUE_OPTIONS: Record<JobName, PgBoss.Queue> = {
+  'recording.probe': { name: 'recording.probe', retryLimit: 3, retryDelay: 10, retryBackoff: true, expireInSeconds: 600 },
+  'recording.package': { name: 'recording.package', retryLimit: 3, retryDelay: 30, retryBackoff: true, expireInSeconds: 4 * 3600 },
+  'recording.demo': { name: 'recording.demo', retryLimit: 2, retryDelay: 30, retryBackoff: true, expireInSeconds: 4 * 3600 },
+  'uploads.cleanup': { name: 'uploads.cleanup', retryLimit: 1, expireInSeconds: 600 },
+};
+
+/** Starts pg-boss on the app database and makes sure every queue exists (sending to a missing one is silently dropped). */
+export async function startQueue(databaseUrl: string): Promise<PgBoss> {
+  const boss = new PgBoss({ connectionString: databaseUrl, application_name: 'roundmark-queue' });
+  boss.on('error', (err) => console.error('queue error:', err));
+  await boss.start();
+  for (const name of JOB_NAMES) await boss.createQueue(name, QUEUE_OPTIONS[name]);
+  return boss;
+}
+
+/** Sends a typed job; one job per key at a time, so a double click queues one. */
+export async function sendJob<N extends JobName>(boss: PgBoss, name: N, data: JobPayloads[N], key?: string): Promise<string | null> {
+  return boss.send(name, data, key ? { singletonKey: key, singletonSeconds: 60 } : {});
+}
+
+let shared: Promise<PgBoss> | undefined;
+
+/** The process-wide queue (the web server only sends; the worker also works). */
+export function queue(databaseUrl: string): Promise<PgBoss> {
+  shared ??= startQueue(databaseUrl);
+  return shared;
+}

@@ -1,0 +1,62 @@
+import { and, eq } from 'drizzle-orm';
+import { GetObjectCommand, type S3Client } from '@aws-sdk/client-s3';
+import { lessons, recordings } from '../../db/schema';
+import { notFound } from '../http/app-error';
+import type { AppDeps } from '../app';
+import type { StudioAccess } from './accounts';
+import { recordingPrefix } from './recordings';
+
+/** Files a recording's media folder may hold; anything else is not found. */
+const MEDIA_PATH = /^(poster\.jpg|peaks\.bin|hls\/master\.m3u8|hls\/v\d{1,2}\/(index\.m3u8|seg_\d{1,6}\.ts))$/;
+
+const CONTENT_TYPES: [RegExp, string][] = [
+  [/\.m3u8$/, 'application/vnd.apple.mpegurl'],
+  [/\.ts$/, 'video/mp2t'],
+  [/\.jpg$/, 'image/jpeg'],
+  [/\.bin$/, 'application/octet-stream'],
+];
+
+/**
+ * Whether a person may fetch a recording's media: staff of its studio always; members only the
+ * current recording of a published class of their studio. Anything else looks "not found".
+ */
+export async function mediaKeyFor(
+  deps: AppDeps,
+  studio: StudioAccess | null,
+  recordingId: string,
+  path: string,
+): Promise<{ key: string; contentType: string }> {
+  if (!studio || !MEDIA_PATH.test(path) || !/^[0-9a-f-]{36}$/i.test(recordingId)) throw notFound('That file');
+  const [row] = await deps.db
+    .select({ rec: recordings, lessonState: lessons.state, current: lessons.currentRecordingId })
+    .from(recordings)
+    .innerJoin(lessons, eq(lessons.id, recordings.lessonId))
+    .where(and(eq(recordings.id, recordingId), eq(recordings.studioId, studio.studioId), eq(recordings.state, 'ready')));
+  if (!row) throw notFound('That file');
+  const staff = studio.roles.some((r) => r !== 'member');
+  if (!staff && !(row.lessonState === 'published' && row.current === recordingId)) throw notFound('That file');
+  return {
+    key: `${recordingPrefix(row.rec)}media/${path}`,
+    contentType: CONTENT_TYPES.find(([re]) => re.test(path))?.[1] ?? 'application/octet-stream',
+  };
+}
+
+/** Streams an object from storage, passing a Range request through (players seek with it). */
+export async function streamObject(s3: S3Client, bucket: string, key: string, contentType: string, range: string | null): Promise<Response> {
+  try {
+    const obj = await s3.send(new GetObjectCommand({ Bucket: bucket, Key: key, ...(range ? { Range: range } : {}) }));
+    const headers = new Headers({
+      'content-type': contentType,
+      'accept-ranges': 'bytes',
+      // Playlists and segments of a ready recording never change; the URL carries no secret.
+      'cache-control': 'private, max-age=3600',
+    });
+    if (obj.ContentLength != null) headers.set('content-length', String(obj.ContentLength));
+    if (obj.ContentRange) headers.set('content-range', obj.ContentRange);
+    if (obj.ETag) headers.set('etag', obj.ETag);
+    return new Response(obj.Body!.transformToWebStream(), { status: obj.ContentRange ? 206 : 200, headers });
+  } catch (err) {
+    if ((err as { name?: string }).name === 'NoSuchKey') throw notFound('That file');
+    throw err;
+  }
+}

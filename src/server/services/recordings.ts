@@ -1,0 +1,230 @@
+import { and, desc, eq } from 'drizzle-orm';
+import {
+  AbortMultipartUploadCommand,
+  CompleteMultipartUploadCommand,
+  CreateMultipartUploadCommand,
+  HeadObjectCommand,
+  ListPartsCommand,
+  UploadPartCommand,
+  type S3Client,
+} from '@aws-sdk/client-s3';
+import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
+import { lessons, recordings } from '../../db/schema';
+import { fileExtension, type CreateRecordingInput, type RecordingOutput, type SignUploadInput } from '../../lib/api/recording-schemas';
+import { AppError, notFound } from '../http/app-error';
+import type { AppDeps } from '../app';
+
+export type RecordingRow = typeof recordings.$inferSelect;
+
+/** Storage and limits a recording service needs. */
+export interface MediaDeps extends AppDeps {
+  s3: S3Client;
+  bucket: string;
+  maxUploadBytes: number;
+  /** Queues a job (the web server passes pg-boss; tests may pass the real queue too). */
+  enqueue: (name: 'recording.probe' | 'recording.package', recordingId: string) => Promise<void>;
+}
+
+/** Presigned URLs live 15 minutes: long enough for a slow part, short enough to be useless later. */
+const SIGNED_URL_SECONDS = 15 * 60;
+
+/** Storage prefix of one recording; studio and class ids keep tenants apart. */
+export const recordingPrefix = (r: Pick<RecordingRow, 'studioId' | 'lessonId' | 'id'>) =>
+  `studios/${r.studioId}/lessons/${r.lessonId}/recordings/${r.id}/`;
+
+const humanSize = (bytes: number) =>
+  bytes >= 1024 ** 3 ? `${(bytes / 1024 ** 3).toFixed(1)} GB` : `${Math.round(bytes / 1024 ** 2)} MB`;
+
+/** A recording as the API shows it; media URLs go through our own authenticated route. */
+export function toRecordingOutput(r: RecordingRow, currentId: string | null): RecordingOutput {
+  const ready = r.state === 'ready';
+  return {
+    id: r.id,
+    lessonId: r.lessonId,
+    state: r.state,
+    fileName: r.fileName,
+    sizeBytes: r.sizeBytes,
+    step: r.step,
+    progress: r.progress,
+    failureReason: r.failureReason,
+    warnings: r.warnings,
+    durationSeconds: r.durationSeconds,
+    width: r.width,
+    height: r.height,
+    isCurrent: r.id === currentId,
+    posterUrl: ready ? `/media/${r.id}/poster.jpg` : null,
+    playlistUrl: ready ? `/media/${r.id}/hls/master.m3u8` : null,
+    peaksUrl: ready ? `/media/${r.id}/peaks.bin` : null,
+    createdAt: r.createdAt.toISOString(),
+  };
+}
+
+async function lessonOf(deps: AppDeps, studioId: string, lessonId: string) {
+  const [lesson] = await deps.db
+    .select({ id: lessons.id, currentRecordingId: lessons.currentRecordingId })
+    .from(lessons)
+    .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)));
+  if (!lesson) throw notFound('That class');
+  return lesson;
+}
+
+/** A recording of the studio; another studio's answers "not found". */
+export async function recordingOf(deps: AppDeps, studioId: string, recordingId: string): Promise<RecordingRow> {
+  if (!/^[0-9a-f-]{36}$/i.test(recordingId)) throw notFound('That recording');
+  const [row] = await deps.db
+    .select()
+    .from(recordings)
+    .where(and(eq(recordings.id, recordingId), eq(recordings.studioId, studioId)));
+  if (!row) throw notFound('That recording');
+  return row;
+}
+
+/** Recordings of a class, newest first. */
+export async function listRecordings(deps: AppDeps, studioId: string, lessonId: string): Promise<RecordingOutput[]> {
+  const lesson = await lessonOf(deps, studioId, lessonId);
+  const rows = await deps.db.select().from(recordings).where(eq(recordings.lessonId, lessonId)).orderBy(desc(recordings.createdAt));
+  return rows.map((r) => toRecordingOutput(r, lesson.currentRecordingId));
+}
+
+/** Starts a recording: checks type and size, and fixes the storage key on the server. */
+export async function createRecording(
+  deps: MediaDeps,
+  studioId: string,
+  lessonId: string,
+  userId: string,
+  input: CreateRecordingInput,
+): Promise<RecordingOutput> {
+  const lesson = await lessonOf(deps, studioId, lessonId);
+  if (input.sizeBytes > deps.maxUploadBytes) {
+    throw new AppError(
+      'too_large',
+      `This file is ${humanSize(input.sizeBytes)}; the largest recording Roundmark takes is ${humanSize(deps.maxUploadBytes)}. Export at a lower bitrate and upload again.`,
+      { sizeBytes: 'The file is too large.' },
+    );
+  }
+  const id = crypto.randomUUID();
+  const ext = fileExtension(input.fileName);
+  const [row] = await deps.db
+    .insert(recordings)
+    .values({
+      id,
+      studioId,
+      lessonId,
+      createdBy: userId,
+      fileName: input.fileName,
+      contentType: input.contentType,
+      sizeBytes: input.sizeBytes,
+      sourceKey: `${recordingPrefix({ studioId, lessonId, id })}source.${ext}`,
+      step: 'upload',
+    })
+    .returning();
+  return toRecordingOutput(row!, lesson.currentRecordingId);
+}
+
+/**
+ * Presigns one S3 request of the browser's multipart upload. Only the recording's own key and
+ * multipart upload are ever signed; the upload id is bound to the recording on first use.
+ */
+export async function signUpload(
+  deps: MediaDeps,
+  studioId: string,
+  recordingId: string,
+  req: SignUploadInput,
+): Promise<{ url: string; key: string }> {
+  const rec = await recordingOf(deps, studioId, recordingId);
+  if (rec.state !== 'uploading') {
+    throw new AppError('conflict', 'This upload has already finished or was cancelled. Start a new upload.');
+  }
+  const Bucket = deps.bucket;
+  const Key = rec.sourceKey;
+  const opts = { expiresIn: SIGNED_URL_SECONDS };
+  const signed = (url: string) => ({ url, key: Key });
+  if (req.method === 'POST' && !req.uploadId) {
+    return signed(
+      await getSignedUrl(deps.s3, new CreateMultipartUploadCommand({ Bucket, Key, ContentType: rec.contentType || 'application/octet-stream' }), opts),
+    );
+  }
+  if (!req.uploadId) {
+    throw new AppError('invalid_input', 'Recordings upload in parts: this request needs an upload id.');
+  }
+  if (rec.uploadId && rec.uploadId !== req.uploadId) throw notFound('That upload');
+  if (!rec.uploadId) {
+    // Bind the upload id the store gave the browser; a second, different id is refused above.
+    const bound = await deps.db
+      .update(recordings)
+      .set({ uploadId: req.uploadId, updatedAt: new Date() })
+      .where(and(eq(recordings.id, rec.id), eq(recordings.state, 'uploading')))
+      .returning({ id: recordings.id });
+    if (!bound.length) throw notFound('That upload');
+  }
+  const UploadId = req.uploadId;
+  switch (req.method) {
+    case 'PUT': {
+      if (!req.partNumber) throw new AppError('invalid_input', 'A part upload needs a part number.');
+      // S3 parts are at least 5 MiB except the last, so the claimed size bounds the part count.
+      const maxParts = Math.max(1, Math.ceil(rec.sizeBytes / (5 * 1024 * 1024)));
+      if (req.partNumber > maxParts) {
+        throw new AppError('too_large', 'This upload is sending more data than the file it announced. Start the upload again.');
+      }
+      return signed(await getSignedUrl(deps.s3, new UploadPartCommand({ Bucket, Key, UploadId, PartNumber: req.partNumber }), opts));
+    }
+    case 'GET':
+      return signed(await getSignedUrl(deps.s3, new ListPartsCommand({ Bucket, Key, UploadId }), opts));
+    case 'POST':
+      return signed(await getSignedUrl(deps.s3, new CompleteMultipartUploadCommand({ Bucket, Key, UploadId }), opts));
+    case 'DELETE':
+      return signed(await getSignedUrl(deps.s3, new AbortMultipartUploadCommand({ Bucket, Key, UploadId }), opts));
+  }
+}
+
+/** Marks a failed recording with a reason the coach can act on. */
+export async function failRecording(deps: AppDeps, recordingId: string, reason: string): Promise<void> {
+  await deps.db
+    .update(recordings)
+    .set({ state: 'failed', failureReason: reason, step: null, updatedAt: new Date() })
+    .where(eq(recordings.id, recordingId));
+}
+
+/**
+ * Called by the browser after the store completed the upload: checks the stored object (the
+ * size limit is enforced on what arrived, not on what was announced) and queues processing.
+ */
+export async function completeUpload(deps: MediaDeps, studioId: string, recordingId: string): Promise<RecordingOutput> {
+  const rec = await recordingOf(deps, studioId, recordingId);
+  const lesson = await lessonOf(deps, studioId, rec.lessonId);
+  if (rec.state !== 'uploading') return toRecordingOutput(rec, lesson.currentRecordingId);
+  let size: number;
+  try {
+    const head = await deps.s3.send(new HeadObjectCommand({ Bucket: deps.bucket, Key: rec.sourceKey }));
+    size = head.ContentLength ?? 0;
+  } catch {
+    throw new AppError('conflict', 'The upload has not finished yet: the file is not in storage. Wait for 100 %, then try again.');
+  }
+  if (size > deps.maxUploadBytes) {
+    await failRecording(deps, rec.id, `The file is ${humanSize(size)}; the limit is ${humanSize(deps.maxUploadBytes)}.`);
+  } else if (size === 0) {
+    await failRecording(deps, rec.id, 'This file is empty (0 bytes). Check the export and upload the recording again.');
+  } else {
+    await deps.db
+      .update(recordings)
+      .set({ state: 'processing', sizeBytes: size, step: 'probe', progress: 0, updatedAt: new Date() })
+      .where(and(eq(recordings.id, rec.id), eq(recordings.state, 'uploading')));
+    await deps.enqueue('recording.probe', rec.id);
+  }
+  return toRecordingOutput(await recordingOf(deps, studioId, recordingId), lesson.currentRecordingId);
+}
+
+/** Starts a failed recording's processing again from the probe. */
+export async function retryRecording(deps: MediaDeps, studioId: string, recordingId: string): Promise<RecordingOutput> {
+  const rec = await recordingOf(deps, studioId, recordingId);
+  if (rec.state !== 'failed' || !rec.uploadId) {
+    throw new AppError('conflict', 'Only a recording that failed after its upload finished can be retried.');
+  }
+  await deps.db
+    .update(recordings)
+    .set({ state: 'processing', step: 'probe', progress: 0, failureReason: null, updatedAt: new Date() })
+    .where(eq(recordings.id, rec.id));
+  await deps.enqueue('recording.probe', rec.id);
+  const lesson = await lessonOf(deps, studioId, rec.lessonId);
+  return toRecordingOutput(await recordingOf(deps, studioId, recordingId), lesson.currentRecordingId);
+}
