@@ -1,0 +1,89 @@
+import type { Segment } from '../timeline/timeline-schema';
+import { formatVttTimestamp } from '../time/format-time';
+
+/** One chapter members can jump to: a part of the class and the rest that follows it. */
+export interface Chapter {
+  index: number;
+  title: string;
+  kind: Segment['kind'];
+  startSeconds: number;
+  endSeconds: number;
+  exercise?: string;
+  round?: number;
+  rounds?: number;
+  set?: number;
+  sets?: number;
+}
+
+const KIND_TITLES: Record<Segment['kind'], string> = {
+  intro: 'Welcome',
+  warmup: 'Warm-up',
+  work: 'Work',
+  rest: 'Rest',
+  'round-break': 'Round break',
+  cooldown: 'Cool-down',
+  outro: 'Wrap-up',
+  talk: 'Coach talk',
+};
+
+/**
+ * Chapters from a checked timeline: every part except rests starts a chapter, and a rest
+ * belongs to the chapter before it (members jump to moves, not to rests). Chapters are
+ * back-to-back and never overlap, as WebVTT chapter cues must not (W3C WebVTT §4.5.1).
+ */
+export function buildChapters(segments: readonly Segment[]): Chapter[] {
+  const sorted = [...segments].sort((a, b) => a.startSeconds - b.startSeconds);
+  const rounds = Math.max(0, ...sorted.map((s) => s.round ?? 0));
+  const setsByExercise = new Map<string, number>();
+  for (const s of sorted) if (s.set && s.exercise) setsByExercise.set(s.exercise, Math.max(setsByExercise.get(s.exercise) ?? 0, s.set));
+  const chapters: Chapter[] = [];
+  for (const s of sorted) {
+    const last = chapters[chapters.length - 1];
+    if (s.kind === 'rest' && last) {
+      last.endSeconds = Math.max(last.endSeconds, s.endSeconds);
+      continue;
+    }
+    if (last && last.endSeconds > s.startSeconds) last.endSeconds = s.startSeconds;
+    const sets = s.exercise ? setsByExercise.get(s.exercise) : undefined;
+    const chapter: Chapter = {
+      index: chapters.length,
+      title: chapterTitle(s, rounds, sets),
+      kind: s.kind,
+      startSeconds: s.startSeconds,
+      endSeconds: s.endSeconds,
+      ...(s.exercise ? { exercise: s.exercise } : {}),
+      ...(s.round ? { round: s.round, rounds } : {}),
+      ...(s.set ? { set: s.set, ...(sets ? { sets } : {}) } : {}),
+    };
+    chapters.push(chapter);
+  }
+  // Close small gaps so the chapter list covers the class without holes.
+  for (let i = 0; i < chapters.length - 1; i++) chapters[i]!.endSeconds = chapters[i + 1]!.startSeconds;
+  return chapters.filter((c) => c.endSeconds > c.startSeconds).map((c, index) => ({ ...c, index }));
+}
+
+/** "Goblet squat · round 2 of 4", "Fast feet · set 3 of 8", "Warm-up". */
+export function chapterTitle(s: Segment, rounds: number, sets?: number): string {
+  if (s.title && s.kind !== 'work') return s.title;
+  const name = s.kind === 'work' && s.exercise ? s.exercise : KIND_TITLES[s.kind];
+  const parts = [name];
+  if (s.round && rounds > 1) parts.push(`round ${s.round} of ${rounds}`);
+  if (s.set) parts.push(sets ? `set ${s.set} of ${sets}` : `set ${s.set}`);
+  return parts.join(' · ');
+}
+
+/**
+ * The chapters as a WebVTT file (W3C WebVTT): the WEBVTT header, a blank line, then one cue per
+ * chapter with a numeric identifier and the title as plain text (§4.2.3: chapter text has no tags).
+ */
+export function chaptersToVtt(chapters: readonly Chapter[]): string {
+  const blocks = chapters.map(
+    (c) => `${c.index + 1}\n${formatVttTimestamp(c.startSeconds)} --> ${formatVttTimestamp(c.endSeconds)}\n${plainText(c.title)}`,
+  );
+  return `WEBVTT\n\n${blocks.join('\n\n')}\n`;
+}
+
+/** Cue text must not contain "-->", line breaks or markup characters. */
+function plainText(title: string): string {
+  return title.replace(/-->/g, '→').replace(/[\r\n]+/g, ' ').replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+}
