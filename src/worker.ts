@@ -74,6 +74,7 @@ const sweeper = setInterval(
   Math.min(30, STALE_SECONDS / 2) * 1000,
 );
 await boss.schedule('uploads.cleanup', '17 * * * *', {});
+await boss.schedule('lessons.publish-due', '* * * * *', {});
 
 console.log(`worker ready (${JOB_NAMES.join(', ')}), scratch ${workDir}`);
 

@@ -55,7 +55,19 @@ for (const l of demo.lessons) {
   const mediaSeconds = Math.max(...timeline.segments.map((s) => s.endSeconds));
   const [row] = await db
     .insert(lessons)
-    .values({ ...fields, plan, mediaSeconds, studioId: studio.id, coachId: userIds.get(coach)! })
+    .values({
+      ...fields,
+      // Classes meant to be published go live once their demo recording is ready (a scheduled
+      // publish the worker carries out); the coach acknowledged the check's warnings.
+      state: 'draft',
+      ...(l.state === 'published'
+        ? { publishAt: new Date(), publishScheduledBy: userIds.get(coach)!, publishAcknowledgesWarnings: true }
+        : {}),
+      plan,
+      mediaSeconds,
+      studioId: studio.id,
+      coachId: userIds.get(coach)!,
+    })
     .returning({ id: lessons.id });
   await putTimeline(deps, studio.id, row!.id, 0, timeline);
   added++;

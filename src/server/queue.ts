@@ -9,9 +9,18 @@ export interface JobPayloads {
   'recording.package': { recordingId: string };
   'recording.demo': { lessonId: string };
   'uploads.cleanup': Record<string, never>;
+  'lessons.publish-due': Record<string, never>;
+  'version.thumbnails': { versionId: string };
 }
 export type JobName = keyof JobPayloads;
-export const JOB_NAMES: JobName[] = ['recording.probe', 'recording.package', 'recording.demo', 'uploads.cleanup'];
+export const JOB_NAMES: JobName[] = [
+  'recording.probe',
+  'recording.package',
+  'recording.demo',
+  'uploads.cleanup',
+  'lessons.publish-due',
+  'version.thumbnails',
+];
 
 // Media jobs can run for most of an hour on a 2-core machine (facts: 60 min of 1080p needs ~45 min),
 // so they expire after 4 hours, not pg-boss's 15-minute default; retries back off exponentially.
@@ -20,6 +29,8 @@ const QUEUE_OPTIONS: Record<JobName, PgBoss.Queue> = {
   'recording.package': { name: 'recording.package', retryLimit: 3, retryDelay: 30, retryBackoff: true, expireInSeconds: 4 * 3600 },
   'recording.demo': { name: 'recording.demo', retryLimit: 2, retryDelay: 30, retryBackoff: true, expireInSeconds: 4 * 3600 },
   'uploads.cleanup': { name: 'uploads.cleanup', retryLimit: 1, expireInSeconds: 600 },
+  'lessons.publish-due': { name: 'lessons.publish-due', retryLimit: 1, expireInSeconds: 300 },
+  'version.thumbnails': { name: 'version.thumbnails', retryLimit: 3, retryDelay: 20, retryBackoff: true, expireInSeconds: 3600 },
 };
 
 /** Starts pg-boss on the app database and makes sure every queue exists (sending to a missing one is silently dropped). */

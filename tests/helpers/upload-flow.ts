@@ -28,7 +28,7 @@ export class SignedUpload {
 
   async putPart(partNumber: number, body: Uint8Array): Promise<string> {
     const url = await this.signed({ method: 'PUT', uploadId: this.uploadId, partNumber });
-    const res = await fetch(url, { method: 'PUT', body });
+    const res = await fetch(url, { method: 'PUT', body: body as unknown as BodyInit });
     if (!res.ok) throw new Error(`part ${partNumber}: ${res.status}`);
     return res.headers.get('etag')!;
   }
@@ -72,7 +72,18 @@ export async function uploadWhole(api: ApiClient, lessonId: string, fileName: st
 }
 
 /** Polls a recording until it leaves uploading/processing (or the time runs out). */
-export async function waitForRecording(api: ApiClient, recordingId: string, timeoutMs = 150_000, until = (r: { state: string }) => r.state === 'ready' || r.state === 'failed') {
+export interface RecordingState {
+  state: string;
+  step: string | null;
+  progress: number;
+}
+
+export async function waitForRecording(
+  api: ApiClient,
+  recordingId: string,
+  timeoutMs = 150_000,
+  until = (r: RecordingState) => r.state === 'ready' || r.state === 'failed',
+) {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const r = await (await api.get(`/api/recordings/${recordingId}`)).json();

@@ -41,7 +41,7 @@ describe('chapters', () => {
     // W3C WebVTT §4.1: cue identifiers are unique; §4.5.1 chapter cues do not overlap (the parser does not check these).
     const ids = parsed.cues.map((c: { id: string }) => c.id);
     expect(new Set(ids).size).toBe(ids.length);
-    for (let i = 1; i < parsed.cues.length; i++) expect(parsed.cues[i].startTime).toBeGreaterThanOrEqual(parsed.cues[i - 1].endTime);
+    for (let i = 1; i < parsed.cues.length; i++) expect(parsed.cues[i]!.startTime).toBeGreaterThanOrEqual(parsed.cues[i - 1]!.endTime);
   });
 });
 

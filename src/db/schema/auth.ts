@@ -12,6 +12,8 @@ export const users = pgTable(
     emailVerifiedAt: timestamp({ withTimezone: true }),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     passwordChangedAt: timestamp({ withTimezone: true }),
+    /** When the member acknowledged the general exercise caution before their first play. */
+    cautionAcknowledgedAt: timestamp({ withTimezone: true }),
   },
   (t) => [uniqueIndex('users_email_lower_idx').on(sql`lower(${t.email})`)],
 );

@@ -2,3 +2,4 @@ export * from './auth';
 export * from './studio';
 export * from './lessons';
 export * from './recordings';
+export * from './publishing';

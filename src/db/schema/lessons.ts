@@ -1,4 +1,5 @@
 import {
+  boolean,
   doublePrecision,
   index,
   integer,
@@ -48,6 +49,13 @@ export const lessons = pgTable(
     timelineVersion: integer().notNull().default(0),
     /** The ready recording members watch; a new upload replaces it only once it is ready. */
     currentRecordingId: uuid(),
+    /** The published version members see (latest publish); null while never published. */
+    publishedVersionId: uuid(),
+    /** A scheduled publish: done by the worker once due (and the recording is ready). */
+    publishAt: timestamp({ withTimezone: true }),
+    publishScheduledBy: text().references(() => users.id, { onDelete: 'set null' }),
+    /** Whether whoever scheduled it acknowledged the check's warnings. */
+    publishAcknowledgesWarnings: boolean().notNull().default(false),
     version: integer().notNull().default(1),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),

@@ -1,6 +1,8 @@
 import { JOB_NAMES, type JobName } from '../queue';
 import type { JobHandler } from './job-context';
+import { chapterThumbnails } from './chapter-thumbnails';
 import { cleanupUploads } from './cleanup-uploads';
+import { publishDue } from './publish-due';
 import { demoRecording } from './demo-recording';
 import { packageRecording } from './package-recording';
 import { probeRecording } from './probe-recording';
@@ -11,6 +13,8 @@ export const JOB_HANDLERS: { [N in JobName]: JobHandler<N> } = {
   'recording.package': packageRecording,
   'recording.demo': demoRecording,
   'uploads.cleanup': cleanupUploads,
+  'lessons.publish-due': publishDue,
+  'version.thumbnails': chapterThumbnails,
 };
 
 /** Refuses to start when a queue has no handler or a handler no queue (checked at worker start). */

@@ -6,6 +6,7 @@ import { timelineExportQuery, timelineImportQuery } from '../../lib/api/timeline
 import { createExerciseInput, exerciseOutput, updateExerciseInput } from '../../lib/api/exercise-schemas';
 import { FINDING_CODES } from '../../lib/timing/finding-types';
 import { createRecordingInput, recordingOutput, signUploadInput } from '../../lib/api/recording-schemas';
+import { progressInput, publishInput } from '../../lib/api/publish-schemas';
 
 const errorRef = z.object({ error: z.object({ code: z.string(), message: z.string() }).passthrough() });
 const json = (schema: z.ZodType, description: string) => ({ description, content: { 'application/json': { schema } } });
@@ -53,8 +54,48 @@ const checkResult = z
 
 const recordingParams = z.object({ id: z.string().uuid().describe('Recording id') });
 
-/** Routes of the plan, timeline, check, exercise and recording features. */
+/** Routes of the plan, timeline, check, exercise, recording, publishing and playback features. */
 export const apiRoutes: RouteConfig[] = [
+  {
+    method: 'post', path: '/api/lessons/{id}/publish', summary: 'Publish a new immutable version (coach, owner); errors block, warnings need acknowledgeWarnings; publishAt schedules (owner)',
+    request: { params, body: json(publishInput, 'Publish options') },
+    responses: {
+      201: json(z.object({ versionId: z.string().uuid(), number: z.number().int() }), 'Published'),
+      202: json(z.object({ scheduledFor: z.string() }), 'Scheduled'),
+      ...errors(400, 401, 403, 404, 409),
+    },
+  },
+  {
+    method: 'post', path: '/api/lessons/{id}/unpublish', summary: 'Take the class out of the library (versions are kept)', request: { params },
+    responses: { 200: json(z.object({ state: z.literal('draft') }), 'Unpublished'), ...errors(401, 403, 404) },
+  },
+  {
+    method: 'post', path: '/api/lessons/{id}/archive', summary: 'Archive the class (versions are kept)', request: { params },
+    responses: { 200: json(z.object({ state: z.literal('archived') }), 'Archived'), ...errors(401, 403, 404) },
+  },
+  {
+    method: 'get', path: '/api/lessons/{id}/versions', summary: 'Published versions, newest first', request: { params },
+    responses: {
+      200: json(z.object({ versions: z.array(z.object({ id: z.string(), number: z.number().int(), publishedAt: z.string(), warningsAcknowledged: z.boolean(), publishedBy: z.string().nullable() })) }), 'Versions'),
+      ...errors(401, 403, 404),
+    },
+  },
+  {
+    method: 'get', path: '/api/lessons/{id}/progress', summary: 'Where the member stopped in a class', request: { params },
+    responses: { 200: json(z.object({ positionSeconds: z.number(), finished: z.boolean() }), 'Progress'), ...errors(401) },
+  },
+  {
+    method: 'post', path: '/api/lessons/{id}/progress', summary: 'Report playback (position, watched spans, event); finishing is decided here',
+    request: { params, body: json(progressInput, 'Playback report') },
+    responses: {
+      200: json(z.object({ positionSeconds: z.number(), finished: z.boolean(), justFinished: z.boolean(), summary: z.object({ watchedSeconds: z.number(), workWatchedSeconds: z.number(), workSeconds: z.number(), roundsDone: z.number().int() }).nullable() }), 'Recorded'),
+      ...errors(400, 401, 403, 404),
+    },
+  },
+  {
+    method: 'post', path: '/api/me/caution', summary: 'Record that the member read the general exercise caution',
+    responses: { 200: json(z.object({ acknowledged: z.boolean() }), 'Recorded'), ...errors(401) },
+  },
   {
     method: 'get', path: '/api/lessons/{id}/recordings', summary: 'Recordings of a class, newest first', request: { params },
     responses: { 200: json(z.object({ recordings: z.array(recordingOutput) }), 'Recordings'), ...errors(401, 403, 404) },

@@ -1,4 +1,4 @@
-import { and, desc, eq } from 'drizzle-orm';
+import { and, desc, eq, isNotNull } from 'drizzle-orm';
 import { lessons, users } from '../../db/schema';
 import type { AppDeps } from '../app';
 
@@ -16,10 +16,11 @@ export async function publishedLessons(deps: AppDeps, studioId: string, limit = 
       focus: lessons.focus,
       difficulty: lessons.difficulty,
       coachName: users.name,
+      recordingId: lessons.currentRecordingId,
     })
     .from(lessons)
     .innerJoin(users, eq(users.id, lessons.coachId))
-    .where(and(eq(lessons.studioId, studioId), eq(lessons.state, 'published')))
+    .where(and(eq(lessons.studioId, studioId), eq(lessons.state, 'published'), isNotNull(lessons.publishedVersionId)))
     .orderBy(desc(lessons.updatedAt))
     .limit(limit);
 }

@@ -7,7 +7,8 @@ import type { StudioAccess } from './accounts';
 import { recordingPrefix } from './recordings';
 
 /** Files a recording's media folder may hold; anything else is not found. */
-const MEDIA_PATH = /^(poster\.jpg|peaks\.bin|hls\/master\.m3u8|hls\/v\d{1,2}\/(index\.m3u8|seg_\d{1,6}\.ts))$/;
+const MEDIA_PATH =
+  /^(poster\.jpg|peaks\.bin|hls\/master\.m3u8|hls\/v\d{1,2}\/(index\.m3u8|seg_\d{1,6}\.ts)|chapters\/[0-9a-f-]{36}\/\d{1,4}\.jpg)$/;
 
 const CONTENT_TYPES: [RegExp, string][] = [
   [/\.m3u8$/, 'application/vnd.apple.mpegurl'],

@@ -1,0 +1,208 @@
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { ChapterList } from './class-player/ChapterList';
+import { IntervalClock } from './class-player/IntervalClock';
+import type { PlayerProps } from './class-player/types';
+import { useProgress } from './class-player/use-progress';
+import { clockAt, clockTimeline } from '../../lib/publishing/interval-clock';
+import { parseTemporalFragment } from '../../lib/publishing/media-fragment';
+import type { Chapter } from '../../lib/publishing/chapters';
+import { formatClock } from '../../lib/time/format-time';
+
+/** Index of the chapter playing at `t`. */
+function chapterIndexAt(chapters: Chapter[], t: number): number {
+  let idx = 0;
+  for (const c of chapters) if (c.startSeconds <= t + 0.05) idx = c.index;
+  return idx;
+}
+
+/**
+ * The member's player: HLS video with a chapters track, the chapter list, the interval clock,
+ * keyboard control, resume, the caution before a first play, and a short summary on finishing.
+ */
+export default function ClassPlayer(props: PlayerProps) {
+  const video = useRef<HTMLVideoElement>(null);
+  const [time, setTime] = useState(0);
+  const [clockShown, setClockShown] = useState(true);
+  const [cautionOk, setCautionOk] = useState(props.cautionAcknowledged);
+  const [resumeOffer, setResumeOffer] = useState(props.resumeAt > 10 && props.resumeAt < props.durationSeconds - 10 && !props.finished);
+  const [error, setError] = useState('');
+  const timeline = useMemo(() => clockTimeline(props.segments), [props.segments]);
+  const notes = useMemo(() => new Map(props.exercises.map((e) => [e.name.toLowerCase(), e])), [props.exercises]);
+  const { report, summary, dismissSummary } = useProgress(props.lessonId, video);
+  const clock = clockAt(timeline, time);
+  const current = chapterIndexAt(props.chapters, time);
+
+  // hls.js where the browser has no native HLS; loaded only here, so other pages stay light.
+  useEffect(() => {
+    const v = video.current;
+    if (!v) return;
+    let destroy = () => {};
+    if (v.canPlayType('application/vnd.apple.mpegurl')) {
+      v.src = props.playlistUrl;
+    } else {
+      void import('hls.js').then(({ default: Hls }) => {
+        if (!Hls.isSupported()) {
+          setError('This browser cannot play the class. Try a current version of Chrome, Firefox, Safari or Edge.');
+          return;
+        }
+        const hls = new Hls({ capLevelToPlayerSize: true });
+        hls.on(Hls.Events.ERROR, (_e, data) => {
+          if (data.fatal) setError('The video stopped loading. Check your connection, then reload the page to continue where you were.');
+        });
+        hls.loadSource(props.playlistUrl);
+        hls.attachMedia(v);
+        destroy = () => hls.destroy();
+      });
+    }
+    // A W3C Media Fragments link (#t=…) opens the class at that time.
+    const fragment = parseTemporalFragment(window.location.hash);
+    if (fragment) {
+      v.currentTime = fragment.start;
+      setTime(fragment.start);
+      setResumeOffer(false);
+    }
+    return () => destroy();
+  }, [props.playlistUrl]);
+
+  useEffect(() => {
+    const v = video.current;
+    if (!v) return;
+    let frame = 0;
+    const tick = () => {
+      setTime(v.currentTime);
+      frame = v.paused ? 0 : requestAnimationFrame(tick);
+    };
+    const onPlay = () => (frame = requestAnimationFrame(tick));
+    const onTime = () => setTime(v.currentTime);
+    v.addEventListener('play', onPlay);
+    v.addEventListener('seeked', onTime);
+    v.addEventListener('timeupdate', onTime);
+    return () => {
+      cancelAnimationFrame(frame);
+      v.removeEventListener('play', onPlay);
+      v.removeEventListener('seeked', onTime);
+      v.removeEventListener('timeupdate', onTime);
+    };
+  }, []);
+
+  const seek = (t: number, event: 'seek' | 'chapter' = 'seek') => {
+    const v = video.current;
+    if (!v) return;
+    const from = v.currentTime;
+    v.currentTime = Math.min(Math.max(0, t), props.durationSeconds);
+    setTime(v.currentTime);
+    setResumeOffer(false);
+    void report(event, from);
+  };
+  const jump = (c: Chapter) => {
+    seek(c.startSeconds, 'chapter');
+    history.replaceState(null, '', `#t=${Number(c.startSeconds.toFixed(3))}`);
+  };
+
+  const onKeyDown = (e: React.KeyboardEvent) => {
+    if (e.target instanceof HTMLButtonElement && (e.key === ' ' || e.key === 'Enter')) return;
+    const v = video.current;
+    if (!v || !cautionOk) return;
+    const map: Record<string, () => void> = {
+      ' ': () => (v.paused ? void v.play() : v.pause()),
+      k: () => (v.paused ? void v.play() : v.pause()),
+      ArrowRight: () => seek(v.currentTime + 10),
+      ArrowLeft: () => seek(v.currentTime - 10),
+      n: () => {
+        const next = props.chapters[current + 1];
+        if (next) jump(next);
+      },
+      p: () => {
+        const c = props.chapters[current];
+        // Like a track list: back to the start of this chapter, or the one before when near its start.
+        const target = c && v.currentTime - c.startSeconds > 3 ? c : props.chapters[Math.max(0, current - 1)];
+        if (target) jump(target);
+      },
+      c: () => setClockShown((s) => !s),
+    };
+    const action = map[e.key];
+    if (action) {
+      e.preventDefault();
+      action();
+    }
+  };
+
+  const acknowledge = async () => {
+    const res = await fetch('/api/me/caution', { method: 'POST' });
+    if (res.ok) {
+      setCautionOk(true);
+      void video.current?.play().catch(() => {});
+    } else setError('We could not record your answer. Please try again.');
+  };
+
+  return (
+    <div className="grid gap-6 lg:grid-cols-[2fr_1fr]" onKeyDown={onKeyDown}>
+      <div>
+        <div className="relative overflow-hidden rounded-[10px] bg-ink" tabIndex={-1}>
+          <video
+            ref={video}
+            className="aspect-video w-full"
+            poster={props.posterUrl}
+            controls={cautionOk}
+            playsInline
+            preload="metadata"
+            aria-label={`${props.title}: class video`}
+            data-testid="class-video"
+          >
+            <track kind="chapters" src={props.chaptersUrl} srcLang="en" label="Chapters" default />
+          </video>
+          {clockShown && cautionOk && <IntervalClock clock={clock} note={clock.current?.exercise ? notes.get(clock.current.exercise.toLowerCase()) : undefined} />}
+          {!cautionOk && (
+            <div className="absolute inset-0 flex items-center justify-center bg-ink/90 p-6 text-paper" role="dialog" aria-modal="true" aria-labelledby="caution-title">
+              <div className="max-w-lg">
+                <h2 id="caution-title" className="text-2xl mb-2">Before your first class</h2>
+                <ul className="list-disc space-y-1 pl-5">
+                  <li>Check with a physician before starting a new exercise programme, especially if you are pregnant, injured or have a health condition.</li>
+                  <li>Stop if you feel pain, dizziness or shortness of breath.</li>
+                  <li>When unsure, choose the easier option the coach shows.</li>
+                </ul>
+                <p className="mt-2 text-sm text-stone">General information, not medical advice. Local rules and qualified professionals come first.</p>
+                <button type="button" onClick={() => void acknowledge()} className="mt-4 rounded-[10px] bg-sun px-4 py-2 font-bold text-ink" autoFocus>
+                  I understand, let’s start
+                </button>
+              </div>
+            </div>
+          )}
+        </div>
+        {error && <p role="alert" className="mt-2 rounded-[10px] bg-error/10 p-3 font-semibold text-error">{error}</p>}
+        <div className="mt-3 flex flex-wrap items-center gap-3">
+          {resumeOffer && cautionOk && (
+            <p className="flex items-center gap-2 rounded-[10px] bg-tide/10 p-2" data-testid="resume-offer">
+              You stopped at <span className="font-bold tabular">{formatClock(props.resumeAt)}</span>.
+              <button type="button" className="rounded-[10px] bg-tide-deep px-3 py-1 font-semibold text-white" onClick={() => { seek(props.resumeAt); void video.current?.play().catch(() => {}); }}>
+                Resume
+              </button>
+              <button type="button" className="rounded-[10px] border border-ink px-3 py-1" onClick={() => setResumeOffer(false)}>
+                Start over
+              </button>
+            </p>
+          )}
+          <button type="button" className="rounded-[10px] border border-ink px-3 py-1 text-sm" onClick={() => setClockShown((s) => !s)} aria-pressed={clockShown}>
+            {clockShown ? 'Hide clock' : 'Show clock'}
+          </button>
+          <p className="text-sm text-ink-soft">Keys: space play/pause · ← → 10 s · N / P next or previous chapter · C clock</p>
+        </div>
+        {summary && (
+          <section className="mt-4 rounded-[10px] border-l-4 border-mint bg-mint/10 p-4" role="status" aria-label="Class finished">
+            <h2 className="text-xl">Class finished, well done!</h2>
+            <p>
+              You trained for <span className="font-bold tabular">{formatClock(summary.watchedSeconds)}</span>
+              {summary.roundsDone > 0 && <> and completed <span className="font-bold">{summary.roundsDone}</span> round{summary.roundsDone === 1 ? '' : 's'}</>}.
+              Drink some water and take it easy for a few minutes.
+            </p>
+            <button type="button" className="mt-2 text-sm underline" onClick={dismissSummary}>Close</button>
+          </section>
+        )}
+      </div>
+      <aside className="card max-h-[70vh] overflow-y-auto p-3">
+        <h2 className="px-2 pb-2 text-lg">Chapters</h2>
+        <ChapterList chapters={props.chapters} current={current} thumbnailBase={props.thumbnailBase} notes={notes} onJump={jump} />
+      </aside>
+    </div>
+  );
+}

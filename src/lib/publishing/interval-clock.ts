@@ -1,0 +1,74 @@
+import type { Segment } from '../timeline/timeline-schema';
+
+/** What the interval clock shows at one moment of the class. */
+export interface ClockState {
+  /** The part now on, or null between marked parts. */
+  current: { kind: Segment['kind']; label: string; exercise?: string } | null;
+  /** Seconds left in the current part, and its length (for the ring). */
+  remaining: number;
+  length: number;
+  round: number | null;
+  rounds: number | null;
+  set: number | null;
+  sets: number | null;
+  /** The next part, e.g. "Push-up" or "Rest", with seconds until it starts. */
+  next: { label: string; inSeconds: number } | null;
+}
+
+const LABELS: Record<Segment['kind'], string> = {
+  intro: 'Welcome',
+  warmup: 'Warm-up',
+  work: 'Work',
+  rest: 'Rest',
+  'round-break': 'Round break',
+  cooldown: 'Cool-down',
+  outro: 'Wrap-up',
+  talk: 'Coach talk',
+};
+
+const label = (s: Segment) => (s.kind === 'work' && s.exercise ? s.exercise : LABELS[s.kind]);
+
+/** Index of the last segment starting at or before `t` (binary search; segments sorted by start). */
+function indexAt(sorted: readonly Segment[], t: number): number {
+  let lo = 0;
+  let hi = sorted.length - 1;
+  let found = -1;
+  while (lo <= hi) {
+    const mid = (lo + hi) >> 1;
+    if (sorted[mid]!.startSeconds <= t) {
+      found = mid;
+      lo = mid + 1;
+    } else hi = mid - 1;
+  }
+  return found;
+}
+
+/** Prepares a timeline for the clock: sorted, with round and set totals. */
+export function clockTimeline(segments: readonly Segment[]) {
+  const sorted = [...segments].sort((a, b) => a.startSeconds - b.startSeconds);
+  const rounds = Math.max(0, ...sorted.map((s) => s.round ?? 0)) || null;
+  const sets = new Map<string, number>();
+  for (const s of sorted) if (s.set && s.exercise) sets.set(s.exercise, Math.max(sets.get(s.exercise) ?? 0, s.set));
+  return { sorted, rounds, sets };
+}
+
+/** The clock at time `t` (seconds into the recording). */
+export function clockAt(timeline: ReturnType<typeof clockTimeline>, t: number): ClockState {
+  const { sorted, rounds, sets } = timeline;
+  const i = indexAt(sorted, t);
+  const seg = i >= 0 && t < sorted[i]!.endSeconds ? sorted[i]! : null;
+  const nextSeg = sorted[i + 1] ?? null;
+  // A rest belongs to the round of the move before it, even when the rest itself is unmarked.
+  const roundSource = seg?.round ? seg : [...sorted.slice(0, i + 1)].reverse().find((s) => s.round);
+  const setTotal = seg?.exercise ? sets.get(seg.exercise) ?? null : null;
+  return {
+    current: seg ? { kind: seg.kind, label: label(seg), ...(seg.exercise ? { exercise: seg.exercise } : {}) } : null,
+    remaining: seg ? Math.max(0, seg.endSeconds - t) : nextSeg ? Math.max(0, nextSeg.startSeconds - t) : 0,
+    length: seg ? seg.endSeconds - seg.startSeconds : 0,
+    round: rounds && roundSource?.round ? roundSource.round : null,
+    rounds,
+    set: seg?.set ?? null,
+    sets: setTotal,
+    next: nextSeg ? { label: label(nextSeg), inSeconds: Math.max(0, nextSeg.startSeconds - t) } : null,
+  };
+}

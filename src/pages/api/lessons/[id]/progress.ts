@@ -1,0 +1,26 @@
+import type { APIRoute } from 'astro';
+import { progressInput } from '../../../../lib/api/publish-schemas';
+import { app } from '../../../../server/app';
+import { AppError } from '../../../../server/http/app-error';
+import { endpoint, json, parseWith } from '../../../../server/http/api';
+import { requireUser } from '../../../../server/http/guards';
+import { progressOf, recordProgress } from '../../../../server/services/member-classes';
+
+export const GET: APIRoute = endpoint(async ({ locals, params }) => {
+  const { user } = requireUser(locals);
+  const row = await progressOf(app(), user.id, params.id!);
+  return json({ positionSeconds: row?.positionSeconds ?? 0, finished: !!row?.finishedAt });
+});
+
+/** Playback reports (also sent with sendBeacon on leave, hence text/plain JSON is accepted). */
+export const POST: APIRoute = endpoint(async ({ locals, params, request }) => {
+  const { user } = requireUser(locals);
+  if (!locals.studio) throw new AppError('forbidden', 'Join the studio to watch its classes.');
+  let body: unknown;
+  try {
+    body = JSON.parse(await request.text());
+  } catch {
+    throw new AppError('invalid_input', 'The request body must be JSON.');
+  }
+  return json(await recordProgress(app(), locals.studio.studioId, user.id, params.id!, parseWith(progressInput, body)));
+});

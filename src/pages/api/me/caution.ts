@@ -1,0 +1,12 @@
+import type { APIRoute } from 'astro';
+import { app } from '../../../server/app';
+import { endpoint, json } from '../../../server/http/api';
+import { requireUser } from '../../../server/http/guards';
+import { acknowledgeCaution } from '../../../server/services/member-classes';
+
+/** Records that the member read the general exercise caution before their first play. */
+export const POST: APIRoute = endpoint(async ({ locals }) => {
+  const { user } = requireUser(locals);
+  await acknowledgeCaution(app(), user.id);
+  return json({ acknowledged: true });
+});

@@ -1,0 +1,17 @@
+import type { APIRoute } from 'astro';
+import { eq } from 'drizzle-orm';
+import { lessonVersions } from '../../../db/schema';
+import { app } from '../../../server/app';
+import { endpoint } from '../../../server/http/api';
+import { requireUser } from '../../../server/http/guards';
+import { AppError } from '../../../server/http/app-error';
+import { publishedClass } from '../../../server/services/member-classes';
+
+/** The published version's WebVTT chapters file, for the player's <track kind="chapters">. */
+export const GET: APIRoute = endpoint(async ({ locals, params }) => {
+  requireUser(locals);
+  if (!locals.studio) throw new AppError('not_found', 'That class could not be found.');
+  const cls = await publishedClass(app(), locals.studio.studioId, params.slug!);
+  const [v] = await app().db.select({ vtt: lessonVersions.chaptersVtt }).from(lessonVersions).where(eq(lessonVersions.id, cls.versionId));
+  return new Response(v!.vtt, { headers: { 'content-type': 'text/vtt; charset=utf-8', 'cache-control': 'private, max-age=300' } });
+});
