@@ -40,6 +40,8 @@ ALTER TABLE "lessons" ADD COLUMN "published_version_id" uuid;--> statement-break
 ALTER TABLE "lessons" ADD COLUMN "publish_at" timestamp with time zone;--> statement-breakpoint
 ALTER TABLE "lessons" ADD COLUMN "publish_scheduled_by" text;--> statement-breakpoint
 ALTER TABLE "lessons" ADD COLUMN "publish_acknowledges_warnings" boolean DEFAULT false NOT NULL;--> statement-breakpoint
+ALTER TABLE "lessons" ADD COLUMN "search_document" text DEFAULT '' NOT NULL;--> statement-breakpoint
+ALTER TABLE "lessons" ADD COLUMN "published_seconds" real;--> statement-breakpoint
 ALTER TABLE "lesson_versions" ADD CONSTRAINT "lesson_versions_lesson_id_lessons_id_fk" FOREIGN KEY ("lesson_id") REFERENCES "public"."lessons"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "lesson_versions" ADD CONSTRAINT "lesson_versions_recording_id_recordings_id_fk" FOREIGN KEY ("recording_id") REFERENCES "public"."recordings"("id") ON DELETE no action ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "lesson_versions" ADD CONSTRAINT "lesson_versions_published_by_users_id_fk" FOREIGN KEY ("published_by") REFERENCES "public"."users"("id") ON DELETE set null ON UPDATE no action;--> statement-breakpoint
@@ -52,4 +54,5 @@ ALTER TABLE "play_progress" ADD CONSTRAINT "play_progress_version_id_lesson_vers
 CREATE UNIQUE INDEX "lesson_versions_lesson_number_idx" ON "lesson_versions" USING btree ("lesson_id","number");--> statement-breakpoint
 CREATE INDEX "play_events_lesson_idx" ON "play_events" USING btree ("lesson_id","created_at");--> statement-breakpoint
 CREATE UNIQUE INDEX "play_progress_user_lesson_idx" ON "play_progress" USING btree ("user_id","lesson_id");--> statement-breakpoint
-ALTER TABLE "lessons" ADD CONSTRAINT "lessons_publish_scheduled_by_users_id_fk" FOREIGN KEY ("publish_scheduled_by") REFERENCES "public"."users"("id") ON DELETE set null ON UPDATE no action;
+ALTER TABLE "lessons" ADD CONSTRAINT "lessons_publish_scheduled_by_users_id_fk" FOREIGN KEY ("publish_scheduled_by") REFERENCES "public"."users"("id") ON DELETE set null ON UPDATE no action;--> statement-breakpoint
+CREATE INDEX "lessons_search_idx" ON "lessons" USING gin (to_tsvector('english', "search_document"));

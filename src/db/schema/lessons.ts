@@ -56,6 +56,10 @@ export const lessons = pgTable(
     publishScheduledBy: text().references(() => users.id, { onDelete: 'set null' }),
     /** Whether whoever scheduled it acknowledged the check's warnings. */
     publishAcknowledgesWarnings: boolean().notNull().default(false),
+    /** Title, description and exercise names of the published version, for full-text search. */
+    searchDocument: text().notNull().default(''),
+    /** Length of the published version in seconds (library length filters). */
+    publishedSeconds: real(),
     version: integer().notNull().default(1),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
@@ -63,6 +67,7 @@ export const lessons = pgTable(
   (t) => [
     uniqueIndex('lessons_studio_slug_idx').on(t.studioId, t.slug),
     index('lessons_studio_state_idx').on(t.studioId, t.state),
+    index('lessons_search_idx').using('gin', sql`to_tsvector('english', ${t.searchDocument})`),
   ],
 );
 

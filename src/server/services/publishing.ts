@@ -137,7 +137,15 @@ export async function publishLesson(
       .returning({ id: lessonVersions.id });
     await tx
       .update(lessons)
-      .set({ state: 'published', publishedVersionId: version!.id, publishAt: null, publishScheduledBy: null, updatedAt: new Date() })
+      .set({
+        state: 'published',
+        publishedVersionId: version!.id,
+        publishedSeconds: recording.durationSeconds!,
+        searchDocument: [l.title, l.description, ...names, ...l.focus, ...l.equipment].join(' \n'),
+        publishAt: null,
+        publishScheduledBy: null,
+        updatedAt: new Date(),
+      })
       .where(eq(lessons.id, lessonId));
     return { versionId: version!.id, number };
   });

@@ -22,7 +22,9 @@ export function ChapterList(props: {
     <ol className="flex flex-col gap-1" aria-label="Chapters">
       {props.chapters.map((c) => {
         const isCurrent = c.index === props.current;
-        const note = c.exercise ? props.notes.get(c.exercise.toLowerCase()) : undefined;
+        // Notes show at an exercise's first chapter and whenever it is the one playing.
+        const first = props.chapters.findIndex((o) => o.exercise === c.exercise) === c.index;
+        const note = c.exercise && (first || isCurrent) ? props.notes.get(c.exercise.toLowerCase()) : undefined;
         return (
           <li key={c.index}>
             <button
