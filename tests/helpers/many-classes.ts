@@ -42,7 +42,14 @@ export async function generateStudioWithClasses(deps: AppDeps, n: number, slug =
       returning id, lesson_id
     )
     insert into lesson_versions (lesson_id, number, recording_id, snapshot, chapters_vtt, duration_seconds, published_at)
-    select r.lesson_id, 1, r.id, '{}'::jsonb, 'WEBVTT', 600, now() - (row_number() over ()) * interval '1 minute' from r`);
+    select r.lesson_id, 1, r.id,
+           jsonb_build_object(
+             'details', jsonb_build_object('title', 'Generated class', 'slug', 'generated', 'description', '', 'advertisedMinutes', 10,
+                                           'equipment', '[]'::jsonb, 'impact', 'low', 'focus', '[]'::jsonb, 'difficulty', 'beginner',
+                                           'cautions', '', 'coachName', 'Coach'),
+             'plan', '{"blocks": []}'::jsonb, 'segments', '[]'::jsonb, 'cues', '[]'::jsonb, 'chapters', '[]'::jsonb,
+             'exercises', '[]'::jsonb, 'check', '{"errors": 0, "warnings": 0, "infos": 0, "warningMessages": []}'::jsonb),
+           'WEBVTT', 600, now() - (row_number() over ()) * interval '1 minute' from r`);
   // A separate statement: rows inserted inside a WITH are not visible to the same statement's UPDATE.
   await deps.db.execute(sql`
     update lessons set published_version_id = v.id, current_recording_id = v.recording_id

@@ -1,0 +1,293 @@
+// The coach's upload story through the real app, the real object store, the real worker and
+// Chromium: a generated clip goes through the class page's upload widget (S3 multipart, every
+// request signed by our API), shows its progress, and becomes ready with its poster.
+import { mkdtemp, rm, writeFile } from 'node:fs/promises';
+import { execFile } from 'node:child_process';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { promisify } from 'node:util';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { ListPartsCommand, S3Client } from '@aws-sdk/client-s3';
+import { ApiClient, BASE, DEMO, DEMO_PASSWORD } from '../helpers/api-client';
+import { launchBrowser, SHOTS } from '../helpers/browser';
+
+const run = promisify(execFile);
+const MAX_UPLOAD_BYTES = Number(process.env.MAX_UPLOAD_BYTES ?? 8 * 1024 ** 3);
+const MiB = 1024 * 1024;
+const gb = (bytes: number) => `${(bytes / 1024 ** 3).toFixed(1)} GB`;
+
+let browser: Browser;
+let dir: string;
+let clip: string; // 12 s, 640x360, about 9 MB: two multipart parts (S3 parts are at least 5 MiB)
+let api: ApiClient;
+
+const s3 = new S3Client({
+  endpoint: process.env.S3_ENDPOINT ?? `http://127.0.0.1:${process.env.ROUNDMARK_S3_PORT ?? 4569}`,
+  region: process.env.S3_REGION ?? 'us-east-1',
+  credentials: { accessKeyId: process.env.S3_ACCESS_KEY_ID ?? 'S3RVER', secretAccessKey: process.env.S3_SECRET_ACCESS_KEY ?? 'S3RVER' },
+  forcePathStyle: true,
+  requestChecksumCalculation: 'WHEN_REQUIRED',
+  responseChecksumValidation: 'WHEN_REQUIRED',
+});
+
+interface Recording {
+  id: string;
+  state: string;
+  step: string | null;
+  isCurrent: boolean;
+  durationSeconds: number | null;
+  width: number | null;
+  height: number | null;
+  posterUrl: string | null;
+  failureReason: string | null;
+}
+
+beforeAll(async () => {
+  dir = await mkdtemp(path.join(tmpdir(), 'roundmark-upload-'));
+  clip = path.join(dir, 'Morning ladder take 2.mp4');
+  // Constant 6 Mbit/s so the small clip still spans two parts.
+  await run('ffmpeg', [
+    '-hide_banner', '-loglevel', 'error', '-y',
+    '-f', 'lavfi', '-i', 'testsrc=size=640x360:rate=30',
+    '-f', 'lavfi', '-i', 'sine=frequency=440:sample_rate=48000',
+    '-t', '12',
+    '-c:v', 'libx264', '-preset', 'ultrafast', '-pix_fmt', 'yuv420p',
+    '-b:v', '6M', '-minrate', '6M', '-maxrate', '6M', '-bufsize', '6M', '-x264-params', 'nal-hrd=cbr',
+    '-c:a', 'aac', '-b:a', '96k', '-movflags', '+faststart',
+    clip,
+  ]);
+  browser = await launchBrowser();
+  api = new ApiClient();
+  const res = await api.signIn(DEMO.coach);
+  expect(res.status).toBe(200);
+});
+
+afterAll(async () => {
+  await browser?.close();
+  if (dir) await rm(dir, { recursive: true, force: true });
+});
+
+/** A fresh draft class of the coach's, so each case starts with no recording. */
+async function newClass(title: string): Promise<string> {
+  const res = await api.post('/api/lessons', { title, advertisedMinutes: 12 });
+  expect(res.status).toBe(201);
+  return ((await res.json()) as { id: string }).id;
+}
+
+async function recordingsOf(lessonId: string): Promise<Recording[]> {
+  const res = await api.get(`/api/lessons/${lessonId}/recordings`);
+  expect(res.status).toBe(200);
+  return ((await res.json()) as { recordings: Recording[] }).recordings;
+}
+
+/** Signs in through the form, as a coach would, and opens the class page with the widget hydrated. */
+async function openClassPage(lessonId: string): Promise<{ context: BrowserContext; page: Page }> {
+  const context = await browser.newContext({ viewport: { width: 1200, height: 1000 } });
+  const page = await context.newPage();
+  await page.goto(BASE() + '/sign-in');
+  await page.getByLabel('E-mail').fill(DEMO.coach);
+  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL(BASE() + '/studio/classes');
+  await page.goto(`${BASE()}/studio/classes/${lessonId}`);
+  await page.getByRole('heading', { name: 'Recording', level: 2 }).waitFor();
+  await page.locator('.uppy-Dashboard-input').first().waitFor({ state: 'attached' });
+  return { context, page };
+}
+
+/** Slows the page's uploads (Chromium's own network emulation) so progress, pause and cancel can be watched. */
+async function throttleUploads(context: BrowserContext, page: Page, bytesPerSecond: number) {
+  const cdp = await context.newCDPSession(page);
+  await cdp.send('Network.enable');
+  await cdp.send('Network.emulateNetworkConditions', {
+    offline: false,
+    latency: 20,
+    downloadThroughput: -1,
+    uploadThroughput: bytesPerSecond,
+  });
+  return cdp;
+}
+
+describe('uploading a recording on the class page', () => {
+  it('uploads a generated clip in parts, shows progress, pauses and resumes, and ends ready with its poster', async () => {
+    const lessonId = await newClass('Upload story: morning ladder');
+    const { context, page } = await openClassPage(lessonId);
+    await page.getByText('No recording yet.').waitFor();
+    const signed: string[] = [];
+    page.on('request', (req) => {
+      if (/\/api\/recordings\/[^/]+\/sign$/.test(new URL(req.url()).pathname)) {
+        const body = JSON.parse(req.postData() ?? '{}') as { method: string; partNumber?: number; uploadId?: string };
+        signed.push(body.method === 'PUT' ? `PUT part ${body.partNumber}` : body.uploadId ? `${body.method} upload` : `${body.method} create`);
+      }
+    });
+    const cdp = await throttleUploads(context, page, 1.5 * MiB);
+
+    await page.setInputFiles('.uppy-Dashboard-input', clip);
+    await page.locator('.uppy-Dashboard-Item').waitFor();
+    await page.locator('.uppy-StatusBar-actionBtn--upload').click();
+
+    // Progress: Uppy's status bar, and our panel's bar for this recording with bytes, speed and time left.
+    const item = page.locator('[data-recording-id]').first();
+    await item.and(page.locator('[data-state="uploading"]')).waitFor({ timeout: 15_000 });
+    await item.locator('[data-upload-speed]').waitFor({ timeout: 15_000 });
+    await page.screenshot({ path: `${SHOTS}/upload-progress.png`, fullPage: true });
+    await expect(item.locator('[data-upload-speed]').textContent()).resolves.toMatch(/^[\d.]+ [KMG]B of 8\.7 MB · [\d.]+ [KMG]B\/s · about \d+:\d\d left$/);
+    await expect.poll(async () => Number(await item.getByRole('progressbar').getAttribute('aria-valuenow')), { timeout: 15_000 }).toBeGreaterThan(0);
+    await page.locator('.uppy-StatusBar', { hasText: 'Uploading' }).waitFor();
+
+    // Pause, then resume: the resume asks the store which parts it has (a signed GET: ListParts).
+    await page.getByRole('button', { name: 'Pause', exact: true }).click();
+    await page.locator('.uppy-StatusBar', { hasText: 'Paused' }).waitFor();
+    await item.locator('[data-step]', { hasText: 'Paused' }).waitFor();
+    await page.screenshot({ path: `${SHOTS}/upload-paused.png`, fullPage: true });
+    await page.getByRole('button', { name: 'Resume', exact: true }).click();
+    await expect.poll(() => signed.includes('GET upload'), { timeout: 15_000 }).toBe(true);
+    await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+
+    // The upload finishes in the store, the server takes it over; the worker makes it ready.
+    await item.and(page.locator('[data-state="processing"], [data-state="ready"]')).waitFor({ timeout: 60_000 });
+    expect(signed[0]).toBe('POST create');
+    expect(signed).toContain('PUT part 1');
+    expect(signed).toContain('PUT part 2');
+    expect(signed.at(-1)).toBe('POST upload'); // CompleteMultipartUpload
+    await page.screenshot({ path: `${SHOTS}/upload-processing.png`, fullPage: true });
+
+    await item.and(page.locator('[data-state="ready"]')).waitFor({ timeout: 120_000 });
+    const poster = item.locator('img');
+    await poster.waitFor();
+    await expect.poll(() => poster.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth), { timeout: 15_000 }).toBeGreaterThan(0);
+    await expect(item.textContent()).resolves.toContain('Members see this one');
+    await expect(item.locator('dd').allTextContents()).resolves.toEqual(['0:12', '640 × 360']);
+    await expect(item.locator('[data-status-label]').textContent()).resolves.toBe('Ready');
+    await page.screenshot({ path: `${SHOTS}/upload-ready.png`, fullPage: true });
+
+    const [rec] = await recordingsOf(lessonId);
+    expect(rec).toMatchObject({ state: 'ready', isCurrent: true, width: 640, height: 360 });
+    expect(rec!.durationSeconds).toBeCloseTo(12, 0);
+    await context.close();
+  });
+
+  it('refuses a text file in the browser with a message that says what to upload', async () => {
+    const lessonId = await newClass('Upload story: wrong file');
+    const notes = path.join(dir, 'class notes.txt');
+    await writeFile(notes, 'Warm-up 4 min, then five stations.\n');
+    const { context, page } = await openClassPage(lessonId);
+    const requests: string[] = [];
+    page.on('request', (req) => {
+      if (req.method() !== 'GET') requests.push(req.url());
+    });
+
+    await page.setInputFiles('.uppy-Dashboard-input', notes);
+    const problem = page.locator('[data-upload-problem]');
+    await problem.waitFor();
+    await expect(problem.textContent()).resolves.toBe(
+      'Roundmark takes video files in MP4, MOV, WebM or MKV. "class notes.txt" is not one of those: export the recording as MP4 and upload that.',
+    );
+    expect(await page.locator('.uppy-Dashboard-Item').count()).toBe(0);
+    await page.screenshot({ path: `${SHOTS}/upload-wrong-type.png`, fullPage: true });
+    expect(requests).toEqual([]); // nothing was announced or sent
+    expect(await recordingsOf(lessonId)).toEqual([]);
+    await context.close();
+  });
+
+  it('refuses a file over the size limit in the browser, and the server refuses it too (413)', async () => {
+    const lessonId = await newClass('Upload story: too large');
+    // A sparse file: the browser sees its size without the disk holding it.
+    const big = path.join(dir, 'Full day workshop.mov');
+    await run('truncate', ['-s', String(MAX_UPLOAD_BYTES + 1024 * MiB), big]);
+    const { context, page } = await openClassPage(lessonId);
+
+    await page.setInputFiles('.uppy-Dashboard-input', big);
+    const problem = page.locator('[data-upload-problem]');
+    await problem.waitFor();
+    await expect(problem.textContent()).resolves.toBe(
+      `This file is ${gb(MAX_UPLOAD_BYTES + 1024 * MiB)}; the largest recording Roundmark takes is ${gb(MAX_UPLOAD_BYTES)}. Export at a lower bitrate and upload again.`,
+    );
+    expect(await page.locator('.uppy-Dashboard-Item').count()).toBe(0);
+    await page.screenshot({ path: `${SHOTS}/upload-too-large.png`, fullPage: true });
+    await context.close();
+
+    // The server does not trust the browser: the same announcement answers 413.
+    const res = await api.post(`/api/lessons/${lessonId}/recordings`, {
+      fileName: 'Full day workshop.mov',
+      sizeBytes: MAX_UPLOAD_BYTES + MiB,
+      contentType: 'video/quicktime',
+    });
+    expect(res.status).toBe(413);
+    const body = (await res.json()) as { error: { code: string; message: string } };
+    expect(body.error.code).toBe('too_large');
+    expect(body.error.message).toContain('Export at a lower bitrate');
+    expect(await recordingsOf(lessonId)).toEqual([]);
+  });
+
+  it('after a dropped connection, the upload carries on from the parts the store already has', async () => {
+    const lessonId = await newClass('Upload story: dropped connection');
+    const { context, page } = await openClassPage(lessonId);
+    const cdp = await throttleUploads(context, page, 1 * MiB);
+    const signed: string[] = [];
+    const storedParts: number[] = [];
+    page.on('request', (req) => {
+      if (/\/api\/recordings\/[^/]+\/sign$/.test(new URL(req.url()).pathname)) {
+        const body = JSON.parse(req.postData() ?? '{}') as { method: string; partNumber?: number; uploadId?: string };
+        signed.push(body.method === 'PUT' ? `PUT part ${body.partNumber}` : body.uploadId ? `${body.method} upload` : `${body.method} create`);
+      }
+    });
+    page.on('response', (res) => {
+      const url = new URL(res.url());
+      if (res.request().method() === 'PUT' && url.searchParams.has('partNumber') && res.status() === 200) {
+        storedParts.push(Number(url.searchParams.get('partNumber')));
+      }
+    });
+
+    await page.setInputFiles('.uppy-Dashboard-input', clip);
+    await page.locator('.uppy-StatusBar-actionBtn--upload').click();
+    await expect.poll(() => storedParts, { timeout: 30_000 }).toContain(1);
+    // The connection drops while part 2 is on its way, and comes back a few seconds later.
+    await cdp.send('Network.emulateNetworkConditions', { offline: true, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+    await page.locator('[data-upload-problem]', { hasText: 'The connection dropped.' }).waitFor({ timeout: 15_000 });
+    await page.locator('[data-recording-id] [data-step]', { hasText: 'Stopped: carries on from the last finished part' }).waitFor();
+    await page.screenshot({ path: `${SHOTS}/upload-offline.png`, fullPage: true });
+    await page.waitForTimeout(2_000);
+    await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+
+    const item = page.locator('[data-recording-id]').first();
+    await item.and(page.locator('[data-state="processing"], [data-state="ready"]')).waitFor({ timeout: 60_000 });
+    expect(signed).toContain('GET upload'); // ListParts: ask the store what it has
+    expect(signed.filter((s) => s === 'PUT part 1')).toHaveLength(1); // part 1 was not sent again
+    expect(storedParts.filter((n) => n === 1)).toHaveLength(1);
+    expect(storedParts).toContain(2);
+    expect(await page.locator('[data-upload-problem]').count()).toBe(0);
+    await context.close();
+  });
+
+  it('cancelling mid-upload aborts the multipart upload in the store', async () => {
+    const lessonId = await newClass('Upload story: cancelled');
+    const { context, page } = await openClassPage(lessonId);
+    await throttleUploads(context, page, 1 * MiB);
+    const storeCalls: { method: string; url: string; status?: number }[] = [];
+    page.on('response', (res) => {
+      const url = new URL(res.url());
+      if (url.searchParams.has('uploadId')) storeCalls.push({ method: res.request().method(), url: res.url(), status: res.status() });
+    });
+
+    await page.setInputFiles('.uppy-Dashboard-input', clip);
+    await page.locator('.uppy-StatusBar-actionBtn--upload').click();
+    // Wait until the first part is stored, so there is something to clean up.
+    await expect.poll(() => storeCalls.some((c) => c.method === 'PUT' && c.status === 200), { timeout: 30_000 }).toBe(true);
+    await page.locator('.uppy-StatusBar').getByRole('button', { name: 'Cancel', exact: true }).click();
+    await expect.poll(() => storeCalls.find((c) => c.method === 'DELETE')?.status, { timeout: 15_000 }).toBe(204);
+    expect(await page.locator('.uppy-Dashboard-Item').count()).toBe(0);
+
+    // The store no longer knows the upload: its parts are gone.
+    const abort = new URL(storeCalls.find((c) => c.method === 'DELETE')!.url);
+    const [, bucket, ...keyParts] = decodeURIComponent(abort.pathname).split('/');
+    const err = await s3
+      .send(new ListPartsCommand({ Bucket: bucket!, Key: keyParts.join('/'), UploadId: abort.searchParams.get('uploadId')! }))
+      .then(() => null, (e: { name?: string }) => e);
+    expect(err?.name).toBe('NoSuchUpload');
+    await expect(page.locator('[data-recording-id]').first().getAttribute('data-state')).resolves.toBe('stalled');
+    await page.screenshot({ path: `${SHOTS}/upload-cancelled.png`, fullPage: true });
+    await context.close();
+  });
+});
