@@ -81,7 +81,7 @@ describe('what members get', () => {
     // The republished version renamed the first move (see above).
     expect(parsed.cues.map((c: { text: string }) => c.text)).toEqual(['Box step · set 1 of 1', 'Step-up · set 2 of 2']);
     // Chapters never overlap (W3C WebVTT §4.5.1); the parser does not check this, so we do.
-    expect(parsed.cues[0].endTime).toBeLessThanOrEqual(parsed.cues[1].startTime);
+    expect(parsed.cues[0]!.endTime).toBeLessThanOrEqual(parsed.cues[1]!.startTime);
   });
 
   it('schema.org VideoObject JSON-LD with an ISO 8601 duration and one Clip per chapter, in order', async () => {

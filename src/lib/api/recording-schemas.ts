@@ -3,7 +3,7 @@ import { z } from 'zod';
 /** Containers the media pipeline accepts, by file extension. */
 export const ACCEPTED_EXTENSIONS = ['mp4', 'm4v', 'mov', 'webm', 'mkv'] as const;
 /** MIME types browsers report for those containers ('' when the browser does not know, as with MKV). */
-export const ACCEPTED_TYPES = ['video/mp4', 'video/quicktime', 'video/webm', 'video/x-matroska', 'application/octet-stream', ''];
+export const ACCEPTED_TYPES = ['video/mp4', 'video/x-m4v', 'video/quicktime', 'video/webm', 'video/x-matroska', 'application/octet-stream', ''];
 
 export const fileExtension = (name: string) => (name.match(/\.([A-Za-z0-9]+)$/)?.[1] ?? '').toLowerCase();
 

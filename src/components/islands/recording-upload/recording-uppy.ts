@@ -1,4 +1,5 @@
 import Uppy, { RestrictionError, type UppyFile } from '@uppy/core';
+import GoldenRetriever from '@uppy/golden-retriever';
 import AwsS3, { type AwsBody } from '@uppy/aws-s3';
 import { ACCEPTED_EXTENSIONS, ACCEPTED_TYPES, fileExtension, type RecordingOutput } from '../../../lib/api/recording-schemas';
 import {
@@ -108,6 +109,11 @@ export function createRecordingUppy({ lessonId, maxUploadBytes, onRecording, onP
       return signed;
     },
   });
+
+  // Keeps the file's state (its recording id and multipart upload id) across a page reload or a
+  // closed tab, so the upload resumes from the parts the store already has. Large files come back
+  // as placeholders the coach re-selects; small ones are kept whole in IndexedDB.
+  uppy.use(GoldenRetriever<RecordingMeta, AwsBody>, { serviceWorker: false, expires: 24 * 60 * 60 * 1000 });
 
   // Before the bytes go: announce the file, so the server checks it and fixes where it goes.
   // On a retry the file already has its recording, and the upload resumes instead.
