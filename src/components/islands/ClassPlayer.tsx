@@ -40,7 +40,8 @@ export default function ClassPlayer(props: PlayerProps) {
     if (v.canPlayType('application/vnd.apple.mpegurl')) {
       v.src = props.playlistUrl;
     } else {
-      void import('hls.js').then(({ default: Hls }) => {
+      // The light build (no subtitles, DRM or alternate audio, which classes do not use) keeps the page small.
+      void import('hls.js/light').then(({ default: Hls }) => {
         if (!Hls.isSupported()) {
           setError('This browser cannot play the class. Try a current version of Chrome, Firefox, Safari or Edge.');
           return;
