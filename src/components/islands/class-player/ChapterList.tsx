@@ -35,7 +35,8 @@ export function ChapterList(props: {
               className={`flex w-full items-center gap-3 rounded-[10px] p-2 text-left hover:bg-paper ${isCurrent ? 'bg-sun/20 ring-2 ring-sun' : ''}`}
             >
               <span className="relative h-12 w-20 shrink-0 overflow-hidden rounded-[4px] bg-stone/40">
-                <img src={`${props.thumbnailBase}${c.index + 1}.jpg`} alt="" loading="lazy" className="h-full w-full object-cover" onError={(e) => (e.currentTarget.style.visibility = 'hidden')} />
+                {/* A background image: a thumbnail still being made shows the plain swatch, never a broken-image icon. */}
+                <span className="absolute inset-0 bg-cover bg-center" style={{ backgroundImage: `url(${props.thumbnailBase}${c.index + 1}.jpg)` }} />
                 <span className={`absolute bottom-0 left-0 h-1 w-full ${KIND_SWATCH[c.kind] ?? 'bg-stone'}`} aria-hidden="true" />
               </span>
               <span className="min-w-0 flex-1">
