@@ -3,3 +3,4 @@ export * from './studio';
 export * from './lessons';
 export * from './recordings';
 export * from './publishing';
+export * from './billing';
