@@ -3,6 +3,8 @@ import { z } from 'zod';
 import { changePasswordInput, signInInput, signUpInput } from '../../lib/api/auth-schemas';
 import { createLessonInput, lessonOutput, updateLessonInput } from '../../lib/api/lesson-schemas';
 import { apiRoutes } from './routes';
+import { billingRoutes } from './routes-billing';
+import { mailRoutes } from './routes-mail';
 
 /** The error body every API route answers with on failure. */
 export const errorOutput = z
@@ -108,7 +110,7 @@ export function openApiDocument() {
     method: 'delete', path: '/api/lessons/{id}', summary: 'Delete a draft class (owner, coach)', request: { params: lessonId },
     responses: { 204: { description: 'Deleted' }, ...errors(401, 403, 404, 409) },
   });
-  for (const extra of apiRoutes) add(extra);
+  for (const extra of [...apiRoutes, ...billingRoutes, ...mailRoutes]) add(extra);
 
   return new OpenApiGeneratorV31(registry.definitions).generateDocument({
     openapi: '3.1.0',
