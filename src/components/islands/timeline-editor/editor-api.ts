@@ -1,0 +1,104 @@
+/** The timeline editor's calls to our API (same origin, session cookie) and to the media proxy. */
+import { planSchema, type Plan } from '../../../lib/plan/plan-schema';
+import { timelineContentSchema, type Timeline } from '../../../lib/timeline/timeline-schema';
+import { decodePeaks, type Peaks } from '../../../lib/media/peaks';
+
+export class EditorApiError extends Error {
+  constructor(message: string, readonly status: number, readonly code: string, readonly body?: unknown) {
+    super(message);
+    this.name = 'EditorApiError';
+  }
+}
+
+const OFFLINE = 'We could not reach Roundmark. Check your connection; your marks are kept on this device.';
+
+async function call<T>(method: 'GET' | 'PUT' | 'POST', path: string, body?: unknown): Promise<T> {
+  let res: Response;
+  try {
+    res = await fetch(path, {
+      method,
+      credentials: 'same-origin',
+      headers: body === undefined ? { accept: 'application/json' } : { accept: 'application/json', 'content-type': 'application/json' },
+      body: body === undefined ? undefined : JSON.stringify(body),
+    });
+  } catch {
+    throw new EditorApiError(OFFLINE, 0, 'network');
+  }
+  const data = (await res.json().catch(() => null)) as { error?: { code?: string; message?: string } } | null;
+  if (!res.ok) {
+    if (res.status === 401) throw new EditorApiError('Your session has ended. Sign in again in another tab, then save; your marks are kept on this device.', 401, 'unauthenticated');
+    throw new EditorApiError(data?.error?.message ?? `Something went wrong on our side (${res.status}). Please try again.`, res.status, data?.error?.code ?? 'unknown', data);
+  }
+  return data as T;
+}
+
+export interface EditorRecording {
+  id: string;
+  state: string;
+  isCurrent: boolean;
+  durationSeconds: number | null;
+  playlistUrl: string | null;
+  posterUrl: string | null;
+  peaksUrl: string | null;
+  createdAt: string;
+  progress?: number;
+  step?: string | null;
+}
+
+export interface EditorData {
+  lesson: { id: string; title: string; advertisedMinutes: number; mediaSeconds: number | null };
+  plan: Plan | null;
+  version: number;
+  timeline: Timeline;
+  recording: EditorRecording | null;
+  /** A recording still uploading or processing (shown as a note). */
+  preparing: EditorRecording | null;
+}
+
+const lessonPath = (id: string) => `/api/lessons/${encodeURIComponent(id)}`;
+
+/** The recording to mark: the current ready one, else the newest ready one. */
+export function pickRecording(list: readonly EditorRecording[]): EditorRecording | null {
+  const ready = list.filter((r) => r.state === 'ready');
+  return ready.find((r) => r.isCurrent) ?? [...ready].sort((a, b) => b.createdAt.localeCompare(a.createdAt))[0] ?? null;
+}
+
+export async function loadEditorData(lessonId: string): Promise<EditorData> {
+  const [lesson, planView, stored, recs] = await Promise.all([
+    call<EditorData['lesson']>('GET', lessonPath(lessonId)),
+    call<{ plan: unknown }>('GET', `${lessonPath(lessonId)}/plan`),
+    loadTimeline(lessonId),
+    call<{ recordings: EditorRecording[] }>('GET', `${lessonPath(lessonId)}/recordings`),
+  ]);
+  const parsedPlan = planView.plan ? planSchema.safeParse(planView.plan) : null;
+  const recording = pickRecording(recs.recordings);
+  const preparing = recording ? null : recs.recordings.find((r) => r.state === 'uploading' || r.state === 'processing') ?? null;
+  return { lesson, plan: parsedPlan?.success ? parsedPlan.data : null, ...stored, recording, preparing };
+}
+
+export async function loadTimeline(lessonId: string): Promise<{ version: number; timeline: Timeline }> {
+  const data = await call<{ version: number; segments: unknown; cues: unknown }>('GET', `${lessonPath(lessonId)}/timeline`);
+  return { version: data.version, timeline: timelineContentSchema.parse({ segments: data.segments, cues: data.cues }) };
+}
+
+export type SaveOutcome = { ok: true; version: number } | { ok: false; conflict: true; currentVersion: number };
+
+/** Saves the whole timeline against `version`; a 409 comes back as a conflict, never thrown. */
+export async function saveTimeline(lessonId: string, version: number, timeline: Timeline): Promise<SaveOutcome> {
+  try {
+    const res = await call<{ version: number }>('PUT', `${lessonPath(lessonId)}/timeline`, { version, segments: timeline.segments, cues: timeline.cues });
+    return { ok: true, version: res.version };
+  } catch (err) {
+    if (err instanceof EditorApiError && err.status === 409) {
+      const body = err.body as { error?: { currentVersion?: number } } | undefined;
+      return { ok: false, conflict: true, currentVersion: body?.error?.currentVersion ?? -1 };
+    }
+    throw err;
+  }
+}
+
+export async function loadPeaks(url: string): Promise<Peaks> {
+  const res = await fetch(url, { credentials: 'same-origin' });
+  if (!res.ok) throw new EditorApiError('The waveform could not be loaded. Reload the page to try again.', res.status, 'peaks');
+  return decodePeaks(new Uint8Array(await res.arrayBuffer()));
+}
