@@ -157,7 +157,7 @@ describe('uploading a recording on the class page', () => {
     const poster = item.locator('img');
     await poster.waitFor();
     await expect.poll(() => poster.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth), { timeout: 15_000 }).toBeGreaterThan(0);
-    await expect(item.textContent()).resolves.toContain('Members see this one');
+    await expect(item.textContent()).resolves.toContain('Used for this class');
     await expect(item.locator('dd').allTextContents()).resolves.toEqual(['0:12', '640 × 360']);
     await expect(item.locator('[data-status-label]').textContent()).resolves.toBe('Ready');
     await page.screenshot({ path: `${SHOTS}/upload-ready.png`, fullPage: true });

@@ -59,7 +59,7 @@ function RecordingItem({ rec, uploadingHere, onRetry }: { rec: RecordingOutput }
         {rec.state === 'ready' && rec.posterUrl && (
           <img
             src={rec.posterUrl}
-            alt={`First frame of ${rec.fileName}`}
+            alt={`Poster frame of ${rec.fileName}`}
             className="aspect-video w-44 shrink-0 rounded-[4px] bg-ink object-cover"
             loading="lazy"
           />
@@ -69,7 +69,7 @@ function RecordingItem({ rec, uploadingHere, onRetry }: { rec: RecordingOutput }
             <StatusBadge look={look} />
             {rec.isCurrent && (
               <span className="inline-flex items-center gap-1 rounded-full bg-ink px-2 py-0.5 text-sm font-bold text-paper">
-                <StarIcon /> Members see this one
+                <StarIcon /> Used for this class
               </span>
             )}
             <span className="min-w-0 truncate font-semibold" title={rec.fileName}>
