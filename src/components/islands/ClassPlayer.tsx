@@ -7,6 +7,7 @@ import { clockAt, clockTimeline } from '../../lib/publishing/interval-clock';
 import { parseTemporalFragment } from '../../lib/publishing/media-fragment';
 import type { Chapter } from '../../lib/publishing/chapters';
 import { formatClock } from '../../lib/time/format-time';
+import { CAUTION_FOOTNOTE, GENERAL_CAUTION } from '../../lib/publishing/member-words';
 
 /** Index of the chapter playing at `t`. */
 function chapterIndexAt(chapters: Chapter[], t: number): number {
@@ -158,11 +159,11 @@ export default function ClassPlayer(props: PlayerProps) {
               <div className="max-w-lg">
                 <h2 id="caution-title" className="text-2xl mb-2">Before your first class</h2>
                 <ul className="list-disc space-y-1 pl-5">
-                  <li>Check with a physician before starting a new exercise programme, especially if you are pregnant, injured or have a health condition.</li>
-                  <li>Stop if you feel pain, dizziness or shortness of breath.</li>
-                  <li>When unsure, choose the easier option the coach shows.</li>
+                  {GENERAL_CAUTION.map((line) => (
+                    <li key={line}>{line}</li>
+                  ))}
                 </ul>
-                <p className="mt-2 text-sm text-stone">General information, not medical advice. Local rules and qualified professionals come first.</p>
+                <p className="mt-2 text-sm text-stone">{CAUTION_FOOTNOTE}</p>
                 <button type="button" onClick={() => void acknowledge()} className="mt-4 rounded-[10px] bg-sun px-4 py-2 font-bold text-ink" autoFocus>
                   I understand, let’s start
                 </button>

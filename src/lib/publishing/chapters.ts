@@ -1,5 +1,6 @@
 import type { Segment } from '../timeline/timeline-schema';
 import { formatVttTimestamp } from '../time/format-time';
+import { PART_NAMES } from './member-words';
 
 /** One chapter members can jump to: a part of the class and the rest that follows it. */
 export interface Chapter {
@@ -15,16 +16,6 @@ export interface Chapter {
   sets?: number;
 }
 
-const KIND_TITLES: Record<Segment['kind'], string> = {
-  intro: 'Welcome',
-  warmup: 'Warm-up',
-  work: 'Work',
-  rest: 'Rest',
-  'round-break': 'Round break',
-  cooldown: 'Cool-down',
-  outro: 'Wrap-up',
-  talk: 'Coach talk',
-};
 
 /**
  * Chapters from a checked timeline: every part except rests starts a chapter, and a rest
@@ -65,7 +56,7 @@ export function buildChapters(segments: readonly Segment[]): Chapter[] {
 /** "Goblet squat · round 2 of 4", "Fast feet · set 3 of 8", "Warm-up". */
 export function chapterTitle(s: Segment, rounds: number, sets?: number): string {
   if (s.title && s.kind !== 'work') return s.title;
-  const name = s.kind === 'work' && s.exercise ? s.exercise : KIND_TITLES[s.kind];
+  const name = s.kind === 'work' && s.exercise ? s.exercise : PART_NAMES[s.kind];
   const parts = [name];
   if (s.round && rounds > 1) parts.push(`round ${s.round} of ${rounds}`);
   if (s.set) parts.push(sets ? `set ${s.set} of ${sets}` : `set ${s.set}`);

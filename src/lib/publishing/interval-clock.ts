@@ -1,4 +1,5 @@
 import type { Segment } from '../timeline/timeline-schema';
+import { PART_NAMES } from './member-words';
 
 /** What the interval clock shows at one moment of the class. */
 export interface ClockState {
@@ -15,18 +16,8 @@ export interface ClockState {
   next: { label: string; inSeconds: number } | null;
 }
 
-const LABELS: Record<Segment['kind'], string> = {
-  intro: 'Welcome',
-  warmup: 'Warm-up',
-  work: 'Work',
-  rest: 'Rest',
-  'round-break': 'Round break',
-  cooldown: 'Cool-down',
-  outro: 'Wrap-up',
-  talk: 'Coach talk',
-};
 
-const label = (s: Segment) => (s.kind === 'work' && s.exercise ? s.exercise : LABELS[s.kind]);
+const label = (s: Segment) => (s.kind === 'work' && s.exercise ? s.exercise : PART_NAMES[s.kind]);
 
 /** Index of the last segment starting at or before `t` (binary search; segments sorted by start). */
 function indexAt(sorted: readonly Segment[], t: number): number {

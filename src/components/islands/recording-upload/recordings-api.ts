@@ -1,4 +1,5 @@
 import { useQuery } from '@tanstack/react-query';
+import { apiCall } from '../api-client';
 import {
   createRecordingInput,
   type CreateRecordingInput,
@@ -6,46 +7,14 @@ import {
   type SignUploadInput,
 } from '../../../lib/api/recording-schemas';
 
-/** An error answer of our API (`{ error: { code, message, fields? } }`), or a network failure (status 0). */
-export class ApiError extends Error {
-  constructor(
-    message: string,
-    readonly status: number,
-    readonly code: string,
-    readonly fields?: Record<string, string>,
-  ) {
-    super(message);
-    this.name = 'ApiError';
-  }
-}
+export { ApiError } from '../api-client';
 
-const OFFLINE_MESSAGE = 'We could not reach Roundmark. Check your connection, then try again.';
-
-/** Sends JSON to our API (same origin, session cookie) and answers the parsed body or throws an ApiError. */
-async function call<T>(method: 'GET' | 'POST', path: string, body?: unknown, signal?: AbortSignal): Promise<T> {
-  let res: Response;
-  try {
-    res = await fetch(path, {
-      method,
-      credentials: 'same-origin',
-      headers: body === undefined ? { accept: 'application/json' } : { accept: 'application/json', 'content-type': 'application/json' },
-      body: body === undefined ? undefined : JSON.stringify(body),
-      signal,
-    });
-  } catch (err) {
-    if (err instanceof DOMException && err.name === 'AbortError') throw err;
-    throw new ApiError(OFFLINE_MESSAGE, 0, 'network');
-  }
-  const data = (await res.json().catch(() => null)) as { error?: { code?: string; message?: string; fields?: Record<string, string> } } | null;
-  if (!res.ok) {
-    const e = data?.error;
-    if (res.status === 401) throw new ApiError('Your session has ended. Sign in again, then add the file again.', 401, 'unauthenticated');
-    // A 400 says "Some fields need another look"; the field's own message says what to do.
-    const fieldMessage = e?.code === 'invalid_input' && e.fields ? Object.values(e.fields)[0] : undefined;
-    throw new ApiError(fieldMessage ?? e?.message ?? `Something went wrong on our side (${res.status}). Please try again.`, res.status, e?.code ?? 'unknown', e?.fields);
-  }
-  return data as T;
-}
+/** Sends JSON to our API; the messages speak of the upload. */
+const call = <T,>(method: 'GET' | 'POST', path: string, body?: unknown, signal?: AbortSignal) =>
+  apiCall<T>(method, path, body, {
+    ...(signal ? { signal } : {}),
+    signedOutMessage: 'Your session has ended. Sign in again, then add the file again.',
+  });
 
 /** What the widget announces for a file, with the same schema the server checks. */
 export function announcementFor(file: { name?: string; size: number | null; type?: string }): CreateRecordingInput {

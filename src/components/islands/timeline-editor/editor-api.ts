@@ -2,35 +2,14 @@
 import { planSchema, type Plan } from '../../../lib/plan/plan-schema';
 import { timelineContentSchema, type Timeline } from '../../../lib/timeline/timeline-schema';
 import { decodePeaks, type Peaks } from '../../../lib/media/peaks';
+import { apiCall, ApiError } from '../api-client';
 
-export class EditorApiError extends Error {
-  constructor(message: string, readonly status: number, readonly code: string, readonly body?: unknown) {
-    super(message);
-    this.name = 'EditorApiError';
-  }
-}
-
-const OFFLINE = 'We could not reach Roundmark. Check your connection; your marks are kept on this device.';
-
-async function call<T>(method: 'GET' | 'PUT' | 'POST', path: string, body?: unknown): Promise<T> {
-  let res: Response;
-  try {
-    res = await fetch(path, {
-      method,
-      credentials: 'same-origin',
-      headers: body === undefined ? { accept: 'application/json' } : { accept: 'application/json', 'content-type': 'application/json' },
-      body: body === undefined ? undefined : JSON.stringify(body),
-    });
-  } catch {
-    throw new EditorApiError(OFFLINE, 0, 'network');
-  }
-  const data = (await res.json().catch(() => null)) as { error?: { code?: string; message?: string } } | null;
-  if (!res.ok) {
-    if (res.status === 401) throw new EditorApiError('Your session has ended. Sign in again in another tab, then save; your marks are kept on this device.', 401, 'unauthenticated');
-    throw new EditorApiError(data?.error?.message ?? `Something went wrong on our side (${res.status}). Please try again.`, res.status, data?.error?.code ?? 'unknown', data);
-  }
-  return data as T;
-}
+/** Calls our API; the messages remind that the marks stay on this device. */
+const call = <T,>(method: 'GET' | 'PUT' | 'POST', path: string, body?: unknown) =>
+  apiCall<T>(method, path, body, {
+    offlineMessage: 'We could not reach Roundmark. Check your connection; your marks are kept on this device.',
+    signedOutMessage: 'Your session has ended. Sign in again in another tab, then save; your marks are kept on this device.',
+  });
 
 export interface EditorRecording {
   id: string;
@@ -89,7 +68,7 @@ export async function saveTimeline(lessonId: string, version: number, timeline: 
     const res = await call<{ version: number }>('PUT', `${lessonPath(lessonId)}/timeline`, { version, segments: timeline.segments, cues: timeline.cues });
     return { ok: true, version: res.version };
   } catch (err) {
-    if (err instanceof EditorApiError && err.status === 409) {
+    if (err instanceof ApiError && err.status === 409) {
       const body = err.body as { error?: { currentVersion?: number } } | undefined;
       return { ok: false, conflict: true, currentVersion: body?.error?.currentVersion ?? -1 };
     }
@@ -99,6 +78,6 @@ export async function saveTimeline(lessonId: string, version: number, timeline: 
 
 export async function loadPeaks(url: string): Promise<Peaks> {
   const res = await fetch(url, { credentials: 'same-origin' });
-  if (!res.ok) throw new EditorApiError('The waveform could not be loaded. Reload the page to try again.', res.status, 'peaks');
+  if (!res.ok) throw new ApiError('The waveform could not be loaded. Reload the page to try again.', res.status, 'peaks');
   return decodePeaks(new Uint8Array(await res.arrayBuffer()));
 }
