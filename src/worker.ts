@@ -67,6 +67,16 @@ async function requeueStale(): Promise<void> {
     await sendJob(boss, name, { recordingId: r.id }, `${name}:${r.id}:recover:${Date.now()}`);
     console.log(`recovering ${r.id} from its ${r.step} step`);
   }
+  // Demo recordings being generated (state uploading, step generate) are recovered the same way.
+  const generating = await deps.db
+    .update(recordings)
+    .set({ updatedAt: new Date() })
+    .where(and(eq(recordings.state, 'uploading'), eq(recordings.step, 'generate'), lt(recordings.updatedAt, cutoff)))
+    .returning({ id: recordings.id, lessonId: recordings.lessonId });
+  for (const r of generating) {
+    await sendJob(boss, 'recording.demo', { lessonId: r.lessonId }, `recording.demo:${r.lessonId}:recover:${Date.now()}`);
+    console.log(`recovering demo recording ${r.id}`);
+  }
 }
 await requeueStale();
 const sweeper = setInterval(

@@ -14,11 +14,13 @@ export default defineConfig({
     // Serves the built app for the integration and browser projects (see the file for why).
     globalSetup: ['tests/helpers/app-server.ts'],
     projects: [
-      { resolve: { alias }, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
+      { resolve: { alias }, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', sequence: { groupOrder: 0 } } },
       {
         resolve: { alias },
         test: {
           name: 'integration',
+          // Integration, then browser tests, never at the same time: they share the app, its worker and the database.
+          sequence: { groupOrder: 1 },
           include: ['tests/integration/**/*.test.ts'],
           environment: 'node',
           testTimeout: 120_000,
@@ -30,6 +32,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'e2e',
+          sequence: { groupOrder: 2 },
           include: ['tests/e2e/**/*.test.ts'],
           environment: 'node',
           testTimeout: 180_000,
