@@ -2,10 +2,11 @@
 # Builds the app when dist/ is missing or older than any source file, so a second start is quick.
 source "$(dirname "$0")/lib.sh"
 cd "$ROOT"
-stamp=dist/.roundmark-build
+out="${ROUNDMARK_DIST:-dist}" # a second test run on one machine can build elsewhere
+stamp="$out/.roundmark-build"
 if [ -f "$stamp" ] && [ -z "$(find src public astro.config.mjs package-lock.json -newer "$stamp" -print -quit)" ]; then
   exit 0
 fi
 say "Building the app"
-npx astro build >"$DATA/build.log" 2>&1 || { tail -30 "$DATA/build.log" >&2; fail "the build failed (last lines above)"; }
+npx astro build --outDir "$out" >"$DATA/build.log" 2>&1 || { tail -30 "$DATA/build.log" >&2; fail "the build failed (last lines above)"; }
 touch "$stamp"

@@ -4,6 +4,13 @@ import { z } from 'zod';
  * The one place that reads process.env. The server, the worker, scripts and drizzle.config.ts
  * all use it, so a missing or malformed setting fails at start-up with the full list.
  */
+/** The local payments fake's settings (docker-free-dev/local.env); never used in production. */
+const LOCAL_PAYMENTS = {
+  apiUrl: 'http://127.0.0.1:12111',
+  secretKey: 'sk_test_roundmark_local_only',
+  webhookSecret: 'whsec_roundmark_local_only',
+};
+
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
   DATABASE_URL: z.string().url(),
@@ -20,9 +27,27 @@ const envSchema = z.object({
   MAIL_FROM: z.string().min(3).default('Roundmark <no-reply@roundmark.example>'),
   PUBLIC_BASE_URL: z.string().url().default('http://127.0.0.1:4321'),
   MAX_UPLOAD_BYTES: z.coerce.number().int().positive().default(8 * 1024 ** 3),
-});
+  /** Payment provider's API base; unset in production means the real service. */
+  PAYMENTS_API_URL: z.string().url().optional(),
+  PAYMENTS_SECRET_KEY: z.string().min(1).optional(),
+  PAYMENTS_WEBHOOK_SECRET: z.string().min(1).optional(),
+})
+  // Payment keys are required in production; elsewhere they fall back to the local fake's values
+  // (docker-free-dev/local.env), so a forgotten key can never reach production silently.
+  .superRefine((e, ctx) => {
+    if (e.NODE_ENV !== 'production') return;
+    for (const key of ['PAYMENTS_SECRET_KEY', 'PAYMENTS_WEBHOOK_SECRET'] as const) {
+      if (!e[key]) ctx.addIssue({ code: 'custom', path: [key], message: 'required in production' });
+    }
+  })
+  .transform((e) => ({
+    ...e,
+    PAYMENTS_API_URL: e.PAYMENTS_API_URL ?? (e.NODE_ENV === 'production' ? undefined : LOCAL_PAYMENTS.apiUrl),
+    PAYMENTS_SECRET_KEY: e.PAYMENTS_SECRET_KEY ?? LOCAL_PAYMENTS.secretKey,
+    PAYMENTS_WEBHOOK_SECRET: e.PAYMENTS_WEBHOOK_SECRET ?? LOCAL_PAYMENTS.webhookSecret,
+  }));
 
-export type Env = z.infer<typeof envSchema>;
+export type Env = z.output<typeof envSchema>;
 
 let cached: Env | undefined;
 

@@ -11,6 +11,8 @@ export interface JobPayloads {
   'uploads.cleanup': Record<string, never>;
   'lessons.publish-due': Record<string, never>;
   'version.thumbnails': { versionId: string };
+  'mail.class-published': { versionId: string };
+  'mail.trial-reminders': Record<string, never>;
 }
 export type JobName = keyof JobPayloads;
 export const JOB_NAMES: JobName[] = [
@@ -20,6 +22,8 @@ export const JOB_NAMES: JobName[] = [
   'uploads.cleanup',
   'lessons.publish-due',
   'version.thumbnails',
+  'mail.class-published',
+  'mail.trial-reminders',
 ];
 
 // Media jobs can run for most of an hour on a 2-core machine (facts: 60 min of 1080p needs ~45 min),
@@ -31,6 +35,9 @@ const QUEUE_OPTIONS: Record<JobName, PgBoss.Queue> = {
   'uploads.cleanup': { name: 'uploads.cleanup', retryLimit: 1, expireInSeconds: 600 },
   'lessons.publish-due': { name: 'lessons.publish-due', retryLimit: 1, expireInSeconds: 300 },
   'version.thumbnails': { name: 'version.thumbnails', retryLimit: 3, retryDelay: 20, retryBackoff: true, expireInSeconds: 3600 },
+  // Mail jobs retry when the SMTP server refuses; each message is sent once per key (sent_notices).
+  'mail.class-published': { name: 'mail.class-published', retryLimit: 5, retryDelay: 60, retryBackoff: true, expireInSeconds: 900 },
+  'mail.trial-reminders': { name: 'mail.trial-reminders', retryLimit: 2, retryDelay: 120, expireInSeconds: 900 },
 };
 
 /** Starts pg-boss on the app database and makes sure every queue exists (sending to a missing one is silently dropped). */

@@ -286,7 +286,8 @@ describe('uploading a recording on the class page', () => {
       .send(new ListPartsCommand({ Bucket: bucket!, Key: keyParts.join('/'), UploadId: abort.searchParams.get('uploadId')! }))
       .then(() => null, (e: { name?: string }) => e);
     expect(err?.name).toBe('NoSuchUpload');
-    await expect(page.locator('[data-recording-id]').first().getAttribute('data-state')).resolves.toBe('stalled');
+    // The widget told the server at once: the recording shows as cancelled, not as a stalled upload.
+    await page.locator('[data-recording-id][data-state="failed"]', { hasText: 'You cancelled this upload' }).first().waitFor();
     await page.screenshot({ path: `${SHOTS}/upload-cancelled.png`, fullPage: true });
     await context.close();
   });

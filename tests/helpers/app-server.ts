@@ -10,11 +10,12 @@ export default async function setup() {
   const port = process.env.ROUNDMARK_TEST_PORT ?? '4399';
   const base = `http://127.0.0.1:${port}`;
   process.env.TEST_BASE_URL = base;
-  if (!existsSync('dist/server/entry.mjs') || !process.env.DATABASE_URL) return;
+  const dist = process.env.ROUNDMARK_DIST ?? 'dist';
+  if (!existsSync(`${dist}/server/entry.mjs`) || !process.env.DATABASE_URL) return;
   if (await healthy(base)) return; // already served by someone else (a second vitest run)
   mkdirSync('test-results', { recursive: true });
   const children: ChildProcess[] = [
-    spawn('node', ['dist/server/entry.mjs'], {
+    spawn('node', [`${dist}/server/entry.mjs`], {
       env: { ...process.env, HOST: '127.0.0.1', PORT: port },
       stdio: ['ignore', openSync('test-results/app.log', 'a'), openSync('test-results/app.log', 'a')],
     }),

@@ -58,6 +58,7 @@ export const recordingOutput = z
     width: z.number().nullable(),
     height: z.number().nullable(),
     isCurrent: z.boolean(),
+    canRetry: z.boolean().describe('Whether processing can be started again (failed after a finished upload).'),
     posterUrl: z.string().nullable(),
     playlistUrl: z.string().nullable(),
     peaksUrl: z.string().nullable(),

@@ -1,7 +1,7 @@
 import { AbortMultipartUploadCommand } from '@aws-sdk/client-s3';
-import { and, eq, lt } from 'drizzle-orm';
+import { and, eq, isNotNull, lt, ne } from 'drizzle-orm';
 import { recordings } from '../../db/schema';
-import { failRecording } from '../services/recordings';
+import { CANCELLED_REASON, failRecording } from '../services/recordings';
 import type { JobHandler } from './job-context';
 
 /** Uploads untouched this long are abandoned: their parts are aborted and the recording marked failed. */
@@ -24,5 +24,18 @@ export const cleanupUploads: JobHandler<'uploads.cleanup'> = async (_data, ctx) 
     }
     await failRecording(ctx.deps, rec.id, 'This upload was not finished within a day, so it was cancelled. Upload the recording again.');
   }
-  return { outcome: 'done', detail: `${stale.length} abandoned uploads cleaned up` };
+  // Cancelled uploads whose browser did not get to abort them: abort once, then forget the id.
+  const cancelled = await ctx.deps.db
+    .select()
+    .from(recordings)
+    .where(and(eq(recordings.state, 'failed'), eq(recordings.failureReason, CANCELLED_REASON), isNotNull(recordings.uploadId), ne(recordings.uploadId, 'generated')));
+  for (const rec of cancelled) {
+    await ctx.s3
+      .send(new AbortMultipartUploadCommand({ Bucket: ctx.bucket, Key: rec.sourceKey, UploadId: rec.uploadId! }))
+      .catch((err: { name?: string }) => {
+        if (err.name !== 'NoSuchUpload') throw err;
+      });
+    await ctx.deps.db.update(recordings).set({ uploadId: null }).where(eq(recordings.id, rec.id));
+  }
+  return { outcome: 'done', detail: `${stale.length} abandoned and ${cancelled.length} cancelled uploads cleaned up` };
 };

@@ -18,8 +18,9 @@ export const publishDue: JobHandler<'lessons.publish-due'> = async (_data, ctx) 
   const waiting: string[] = [];
   for (const l of due) {
     try {
-      const { versionId } = await publishLesson(ctx.deps, l.studioId, l.id, l.by, l.ack);
+      const { versionId, number } = await publishLesson(ctx.deps, l.studioId, l.id, l.by, l.ack);
       await ctx.send('version.thumbnails', { versionId }, `version.thumbnails:${versionId}`);
+      if (number === 1) await ctx.send('mail.class-published', { versionId }, `mail.class-published:${versionId}`);
       published.push(l.id);
     } catch (err) {
       if (!(err instanceof AppError)) throw err;

@@ -6,6 +6,8 @@ import { publishDue } from './publish-due';
 import { demoRecording } from './demo-recording';
 import { packageRecording } from './package-recording';
 import { probeRecording } from './probe-recording';
+import { mailClassPublished } from './mail-class-published';
+import { mailTrialReminders } from './mail-trial-reminders';
 
 /** One handler per job name. */
 export const JOB_HANDLERS: { [N in JobName]: JobHandler<N> } = {
@@ -15,6 +17,8 @@ export const JOB_HANDLERS: { [N in JobName]: JobHandler<N> } = {
   'uploads.cleanup': cleanupUploads,
   'lessons.publish-due': publishDue,
   'version.thumbnails': chapterThumbnails,
+  'mail.class-published': mailClassPublished,
+  'mail.trial-reminders': mailTrialReminders,
 };
 
 /** Refuses to start when a queue has no handler or a handler no queue (checked at worker start). */

@@ -1,4 +1,114 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
+import { z } from 'zod';
+import {
+  billingSettingsInput,
+  billingSettingsOutput,
+  checkoutInput,
+  checkoutOutput,
+  memberRow,
+  membershipOutput,
+  MEMBER_SORTS,
+  promoCreateInput,
+  promoOutput,
+  promoPatchInput,
+} from '../../lib/api/billing-schemas';
+
+const errorRef = z.object({ error: z.object({ code: z.string(), message: z.string() }).passthrough() });
+const json = (schema: z.ZodType, description: string) => ({ description, content: { 'application/json': { schema } } });
+const errors = (...codes: number[]) => Object.fromEntries(codes.map((c) => [String(c), json(errorRef, `Error ${c}`)]));
 
 /** API routes of the billing feature, described from their zod schemas. */
-export const billingRoutes: RouteConfig[] = [];
+export const billingRoutes: RouteConfig[] = [
+  {
+    method: 'post',
+    path: '/api/payments/webhook',
+    summary: 'Signed events from the payment provider (Stripe-Signature header); each event id is applied once',
+    security: [],
+    request: {
+      headers: z.object({ 'stripe-signature': z.string().describe('t=<unix time>,v1=<HMAC-SHA256 of "t.payload">') }),
+      body: { description: 'The event as the provider sent it', content: { 'application/json': { schema: z.object({ id: z.string(), type: z.string() }).passthrough() } } },
+    },
+    responses: {
+      200: json(z.object({ received: z.literal(true), applied: z.boolean(), reason: z.string().optional() }), 'Received (applied, or ignored as a repeat, older or unrelated event)'),
+      ...errors(400),
+    },
+  },
+  {
+    method: 'post',
+    path: '/api/billing/checkout',
+    summary: 'Open the hosted payment page for the membership (member); trial for first-timers, optional promo code',
+    request: { body: json(checkoutInput, 'Optional promo code') },
+    responses: { 200: json(checkoutOutput, 'Send the member to this URL'), ...errors(400, 401, 403, 409, 503) },
+  },
+  {
+    method: 'get',
+    path: '/api/billing/membership',
+    summary: 'The signed-in member’s membership',
+    responses: { 200: json(membershipOutput, 'Membership'), ...errors(401, 403) },
+  },
+  {
+    method: 'post',
+    path: '/api/billing/cancel',
+    summary: 'Cancel at the end of the current period or trial (member)',
+    responses: { 200: json(membershipOutput, 'Membership'), ...errors(401, 403, 409, 503) },
+  },
+  {
+    method: 'post',
+    path: '/api/billing/resume',
+    summary: 'Take back a cancellation before the period ends (member)',
+    responses: { 200: json(membershipOutput, 'Membership'), ...errors(401, 403, 409, 503) },
+  },
+  {
+    method: 'get',
+    path: '/api/billing/settings',
+    summary: 'Monthly price, trial length and past-due grace (owner)',
+    responses: { 200: json(billingSettingsOutput, 'Settings'), ...errors(401, 403) },
+  },
+  {
+    method: 'put',
+    path: '/api/billing/settings',
+    summary: 'Change price, trial or grace (owner); send the version you read',
+    request: { body: json(billingSettingsInput, 'Settings') },
+    responses: { 200: json(billingSettingsOutput, 'Saved'), ...errors(400, 401, 403, 409, 503) },
+  },
+  {
+    method: 'get',
+    path: '/api/billing/promo-codes',
+    summary: 'Promo codes with their redemptions (owner)',
+    responses: { 200: json(z.object({ promoCodes: z.array(promoOutput) }), 'Promo codes'), ...errors(401, 403) },
+  },
+  {
+    method: 'post',
+    path: '/api/billing/promo-codes',
+    summary: 'Create a percent-off-the-first-month promo code (owner)',
+    request: { body: json(promoCreateInput, 'Code') },
+    responses: { 201: json(promoOutput, 'Created'), ...errors(400, 401, 403, 409, 503) },
+  },
+  {
+    method: 'patch',
+    path: '/api/billing/promo-codes/{id}',
+    summary: 'Deactivate or reactivate a promo code (owner)',
+    request: { params: z.object({ id: z.string().uuid().describe('Promo code id') }), body: json(promoPatchInput, 'Active or not') },
+    responses: { 200: json(promoOutput, 'Updated'), ...errors(400, 401, 403, 404, 503) },
+  },
+  {
+    method: 'get',
+    path: '/api/billing/members',
+    summary: 'Members with their membership status (owner); format=csv downloads the same table',
+    request: {
+      query: z.object({
+        q: z.string().optional().describe('Search in name and e-mail'),
+        sort: z.enum(MEMBER_SORTS).optional(),
+        dir: z.enum(['asc', 'desc']).optional(),
+        format: z.enum(['json', 'csv']).optional(),
+      }),
+    },
+    responses: {
+      200: {
+        description: 'Members (JSON) or a CSV file',
+        content: { 'application/json': { schema: z.object({ members: z.array(memberRow) }) }, 'text/csv': { schema: z.string() } },
+      },
+      ...errors(401, 403),
+    },
+  },
+];

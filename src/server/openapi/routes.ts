@@ -119,6 +119,10 @@ export const apiRoutes: RouteConfig[] = [
     responses: { 200: json(recordingOutput, 'Recording'), ...errors(401, 403, 404, 409) },
   },
   {
+    method: 'post', path: '/api/recordings/{id}/cancel', summary: 'Cancel an unfinished upload (the store drops its parts)', request: { params: recordingParams },
+    responses: { 200: json(recordingOutput, 'Recording'), ...errors(401, 403, 404) },
+  },
+  {
     method: 'post', path: '/api/recordings/{id}/retry', summary: 'Process a failed recording again', request: { params: recordingParams },
     responses: { 200: json(recordingOutput, 'Recording'), ...errors(401, 403, 404, 409) },
   },

@@ -6,6 +6,7 @@ import type { ChangePasswordInput, Role, SignInInput, SignUpInput } from '../../
 import { AppError } from '../http/app-error';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import type { AppDeps } from '../app';
+import { sendFirstVerificationLink } from './email-auth';
 
 /** A studio role as the middleware puts it on Astro.locals. */
 export interface StudioAccess {
@@ -50,6 +51,7 @@ export async function signUp(deps: AppDeps, input: SignUpInput): Promise<{ userI
     if (studio) await tx.insert(memberships).values({ userId, studioId: studio.id, role: 'member' });
   });
   const session = await deps.auth.createSession(userId, {});
+  await sendFirstVerificationLink(deps, userId);
   return { userId, session };
 }
 

@@ -5,6 +5,7 @@ import { notFound } from '../http/app-error';
 import type { AppDeps } from '../app';
 import type { StudioAccess } from './accounts';
 import { recordingPrefix } from './recordings';
+import { hasEntitlement } from './entitlement';
 
 /** Files a recording's media folder may hold; anything else is not found. */
 const MEDIA_PATH =
@@ -19,13 +20,15 @@ const CONTENT_TYPES: [RegExp, string][] = [
 
 /**
  * Whether a person may fetch a recording's media: staff of its studio always; members only the
- * current recording of a published class of their studio. Anything else looks "not found".
+ * current recording of a published class of their studio, and only while their membership
+ * entitles them to watch. Anything else looks "not found".
  */
 export async function mediaKeyFor(
   deps: AppDeps,
   studio: StudioAccess | null,
   recordingId: string,
   path: string,
+  userId?: string,
 ): Promise<{ key: string; contentType: string }> {
   if (!studio || !MEDIA_PATH.test(path) || !/^[0-9a-f-]{36}$/i.test(recordingId)) throw notFound('That file');
   const [row] = await deps.db
@@ -36,6 +39,7 @@ export async function mediaKeyFor(
   if (!row) throw notFound('That file');
   const staff = studio.roles.some((r) => r !== 'member');
   if (!staff && !(row.lessonState === 'published' && row.current === recordingId)) throw notFound('That file');
+  if (!staff && !(userId && (await hasEntitlement(deps, studio.studioId, userId)))) throw notFound('That file');
   return {
     key: `${recordingPrefix(row.rec)}media/${path}`,
     contentType: CONTENT_TYPES.find(([re]) => re.test(path))?.[1] ?? 'application/octet-stream',

@@ -2,7 +2,8 @@ import { and, eq, sql } from 'drizzle-orm';
 import { lessons, lessonVersions, playEvents, playProgress, users } from '../../db/schema';
 import type { ProgressInput } from '../../lib/api/publish-schemas';
 import { isFinished, mergeSpans, workSeconds, workWatchedSeconds } from '../../lib/publishing/finish-rule';
-import { notFound } from '../http/app-error';
+import { AppError, notFound } from '../http/app-error';
+import { hasEntitlement } from './entitlement';
 import type { AppDeps } from '../app';
 import type { VersionSnapshot } from './publishing';
 
@@ -63,6 +64,9 @@ export async function progressOf(deps: AppDeps, userId: string, lessonId: string
  */
 export async function recordProgress(deps: AppDeps, studioId: string, userId: string, lessonId: string, input: ProgressInput) {
   const version = await versionOfLesson(deps, studioId, lessonId);
+  if (!(await hasEntitlement(deps, studioId, userId))) {
+    throw new AppError('forbidden', 'Your membership is not active, so this class cannot be played. Start a free trial or subscribe on your account page.');
+  }
   const { segments } = version.snapshot as VersionSnapshot;
   const clamp = (t: number) => Math.min(Math.max(0, t), version.durationSeconds);
   const reported = input.watched.map(([a, b]) => [clamp(a), clamp(b)] as [number, number]);

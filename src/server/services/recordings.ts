@@ -52,6 +52,7 @@ export function toRecordingOutput(r: RecordingRow, currentId: string | null): Re
     width: r.width,
     height: r.height,
     isCurrent: r.id === currentId,
+    canRetry: r.state === 'failed' && !!r.uploadId && r.failureReason !== CANCELLED_REASON,
     posterUrl: ready ? `/media/${r.id}/poster.jpg` : null,
     playlistUrl: ready ? `/media/${r.id}/hls/master.m3u8` : null,
     peaksUrl: ready ? `/media/${r.id}/peaks.bin` : null,
@@ -132,7 +133,9 @@ export async function signUpload(
   req: SignUploadInput,
 ): Promise<{ url: string; key: string }> {
   const rec = await recordingOf(deps, studioId, recordingId);
-  if (rec.state !== 'uploading') {
+  // An abort may arrive after the upload was cancelled on the server: signing it is harmless.
+  const abortingCancelled = req.method === 'DELETE' && rec.state === 'failed' && rec.uploadId === req.uploadId;
+  if (rec.state !== 'uploading' && !abortingCancelled) {
     throw new AppError('conflict', 'This upload has already finished or was cancelled. Start a new upload.');
   }
   const Bucket = deps.bucket;
@@ -148,7 +151,7 @@ export async function signUpload(
     throw new AppError('invalid_input', 'Recordings upload in parts: this request needs an upload id.');
   }
   if (rec.uploadId && rec.uploadId !== req.uploadId) throw notFound('That upload');
-  if (!rec.uploadId) {
+  if (!rec.uploadId && !abortingCancelled) {
     // Bind the upload id the store gave the browser; a second, different id is refused above.
     const bound = await deps.db
       .update(recordings)
@@ -217,14 +220,34 @@ export async function completeUpload(deps: MediaDeps, studioId: string, recordin
 /** Starts a failed recording's processing again from the probe. */
 export async function retryRecording(deps: MediaDeps, studioId: string, recordingId: string): Promise<RecordingOutput> {
   const rec = await recordingOf(deps, studioId, recordingId);
-  if (rec.state !== 'failed' || !rec.uploadId) {
-    throw new AppError('conflict', 'Only a recording that failed after its upload finished can be retried.');
+  if (rec.state !== 'failed' || !rec.uploadId || rec.failureReason === CANCELLED_REASON) {
+    throw new AppError('conflict', 'Only a recording that failed after its upload finished can be retried. Upload the file again instead.');
+  }
+  // The stored file must still be there and within the limit: a retry never skips those checks.
+  const head = await deps.s3.send(new HeadObjectCommand({ Bucket: deps.bucket, Key: rec.sourceKey })).catch(() => null);
+  const size = head?.ContentLength ?? 0;
+  if (size === 0 || size > deps.maxUploadBytes) {
+    throw new AppError('conflict', 'The uploaded file is missing, empty or over the size limit, so processing it again would not help. Upload the file again.');
   }
   await deps.db
     .update(recordings)
     .set({ state: 'processing', step: 'probe', progress: 0, failureReason: null, updatedAt: new Date() })
     .where(eq(recordings.id, rec.id));
   await deps.enqueue('recording.probe', rec.id);
+  const lesson = await lessonOf(deps, studioId, rec.lessonId);
+  return toRecordingOutput(await recordingOf(deps, studioId, recordingId), lesson.currentRecordingId);
+}
+
+/** Why a cancelled recording failed; the clean-up job recognises it by this reason. */
+export const CANCELLED_REASON = 'You cancelled this upload. Add the file again to upload it.';
+
+/**
+ * Marks an unfinished upload as cancelled. The browser aborts the multipart upload itself (a
+ * signed DELETE); the clean-up job aborts it later should the browser not have managed to.
+ */
+export async function cancelUpload(deps: MediaDeps, studioId: string, recordingId: string): Promise<RecordingOutput> {
+  const rec = await recordingOf(deps, studioId, recordingId);
+  if (rec.state === 'uploading') await failRecording(deps, rec.id, CANCELLED_REASON);
   const lesson = await lessonOf(deps, studioId, rec.lessonId);
   return toRecordingOutput(await recordingOf(deps, studioId, recordingId), lesson.currentRecordingId);
 }

@@ -192,6 +192,7 @@ function FailedNote({ rec, onRetry }: { rec: RecordingOutput; onRetry: Props['on
       <p className="font-semibold text-error" data-failure-reason>
         {rec.failureReason ?? 'Processing stopped without a reason. Retry, or upload the file again.'}
       </p>
+      {rec.canRetry && (
       <div className="flex flex-wrap items-center gap-3">
         <button
           type="button"
@@ -217,6 +218,7 @@ function FailedNote({ rec, onRetry }: { rec: RecordingOutput; onRetry: Props['on
           </p>
         )}
       </div>
+      )}
     </div>
   );
 }

@@ -6,6 +6,7 @@ import {
   ApiError,
   announcementFor,
   announceRecording,
+  cancelRecording,
   checkAnnouncement,
   completeRecording,
   signRecordingRequest,
@@ -185,7 +186,12 @@ export function createRecordingUppy({ lessonId, maxUploadBytes, onRecording, onP
     onProblem(null);
   });
   uppy.on('restriction-failed', (_file, err) => onProblem(err.message));
-  uppy.on('file-removed', () => onProblem(null));
+  uppy.on('file-removed', (file) => {
+    onProblem(null);
+    // A file removed before it finished was cancelled: the server marks it at once.
+    const recordingId = file.meta.recordingId;
+    if (recordingId && !file.progress.uploadComplete) void cancelRecording(recordingId).then(onRecording, () => {});
+  });
 
   return uppy;
 }

@@ -79,3 +79,6 @@ export function upsertRecording(list: RecordingOutput[] | undefined, rec: Record
   const rest = (list ?? []).filter((r) => r.id !== rec.id);
   return [rec, ...rest].sort((a, b) => b.createdAt.localeCompare(a.createdAt));
 }
+
+/** Tells the server an unfinished upload was cancelled, so it stops showing as in progress. */
+export const cancelRecording = (recordingId: string) => call<RecordingOutput>('POST', `/api/recordings/${recordingId}/cancel`);

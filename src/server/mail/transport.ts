@@ -1,0 +1,41 @@
+import nodemailer, { type Transporter } from 'nodemailer';
+import { env } from '../env';
+
+/** One message as the templates build it: both parts always, so every mail client has something to show. */
+export interface MailContent {
+  subject: string;
+  text: string;
+  html: string;
+}
+
+export interface OutgoingMail extends MailContent {
+  to: { name: string; address: string };
+  /** Shown as the sender's name, so members see their studio rather than our product. */
+  fromName: string;
+}
+
+let shared: Transporter | undefined;
+
+/** The process-wide SMTP transport, built from SMTP_URL on first use (the local mail fake in development and tests). */
+export function mailTransport(): Transporter {
+  shared ??= nodemailer.createTransport(env().SMTP_URL);
+  return shared;
+}
+
+/** MAIL_FROM's address part ("Name <a@b>" or a bare address). */
+export function fromAddress(mailFrom = env().MAIL_FROM): string {
+  const m = /<([^>]+)>/.exec(mailFrom);
+  return (m?.[1] ?? mailFrom).trim();
+}
+
+/** Sends one message; throws when the SMTP server refuses it, so jobs retry and callers can decide. */
+export async function deliver(mail: OutgoingMail): Promise<string> {
+  const info = await mailTransport().sendMail({
+    from: { name: mail.fromName, address: fromAddress() },
+    to: { name: mail.to.name, address: mail.to.address },
+    subject: mail.subject,
+    text: mail.text,
+    html: mail.html,
+  });
+  return info.messageId;
+}
