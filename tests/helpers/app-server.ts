@@ -30,7 +30,7 @@ export default async function setup() {
 }
 
 /** Where the running worker's pid is kept, so a fault test can kill it and start another. */
-export const WORKER_PID_FILE = 'test-results/worker.pid';
+export const WORKER_PID_FILE = `test-results/worker-${process.env.ROUNDMARK_TEST_PORT ?? '4399'}.pid`;
 
 /** Starts the job worker; a short stale limit lets recovery tests finish in seconds. */
 export function startWorker(): ChildProcess {
