@@ -19,4 +19,5 @@ bash docker-free-dev/build-if-stale.sh
 
 export NODE_ENV=test ROUNDMARK_TEST_PORT="${ROUNDMARK_TEST_PORT:-4399}"
 export PUBLIC_BASE_URL="http://127.0.0.1:$ROUNDMARK_TEST_PORT"
+export ROUNDMARK_MAIL_PREVIEW=1 # the owner's /studio/mail page (captured mail) exists in development and tests only
 exec npx vitest run --config tests/vitest.config.ts "$@"

@@ -15,6 +15,7 @@ npx tsx src/scripts/seed.ts
 bash docker-free-dev/build-if-stale.sh
 
 export HOST=127.0.0.1 PORT="$ROUNDMARK_APP_PORT" NODE_ENV=production
+export ROUNDMARK_MAIL_PREVIEW=1 # local only: the owner's /studio/mail page lists what the mail fake caught; production never sets it
 # The job worker runs beside the server and stops with it.
 npx tsx src/worker.ts >"$RUN/worker.log" 2>&1 &
 worker=$!

@@ -85,6 +85,7 @@ const sweeper = setInterval(
 );
 await boss.schedule('uploads.cleanup', '17 * * * *', {});
 await boss.schedule('lessons.publish-due', '* * * * *', {});
+await boss.schedule('mail.trial-reminders', '41 * * * *', {});
 
 console.log(`worker ready (${JOB_NAMES.join(', ')}), scratch ${workDir}`);
 

@@ -2,6 +2,7 @@ import { and, isNotNull, lte } from 'drizzle-orm';
 import { lessons } from '../../db/schema';
 import { AppError } from '../http/app-error';
 import { publishLesson } from '../services/publishing';
+import { queueAfterPublish } from '../services/after-publish';
 import type { JobHandler } from './job-context';
 
 /**
@@ -18,9 +19,7 @@ export const publishDue: JobHandler<'lessons.publish-due'> = async (_data, ctx) 
   const waiting: string[] = [];
   for (const l of due) {
     try {
-      const { versionId, number } = await publishLesson(ctx.deps, l.studioId, l.id, l.by, l.ack);
-      await ctx.send('version.thumbnails', { versionId }, `version.thumbnails:${versionId}`);
-      if (number === 1) await ctx.send('mail.class-published', { versionId }, `mail.class-published:${versionId}`);
+      await queueAfterPublish(ctx.boss, await publishLesson(ctx.deps, l.studioId, l.id, l.by, l.ack));
       published.push(l.id);
     } catch (err) {
       if (!(err instanceof AppError)) throw err;

@@ -4,7 +4,8 @@ import { app } from '../../../../server/app';
 import { endpoint, json, readJson } from '../../../../server/http/api';
 import { PUBLISHERS, requireRole } from '../../../../server/http/guards';
 import { AppError } from '../../../../server/http/app-error';
-import { sendJob, queue } from '../../../../server/queue';
+import { queue } from '../../../../server/queue';
+import { queueAfterPublish } from '../../../../server/services/after-publish';
 import { env } from '../../../../server/env';
 import { publishLesson, schedulePublish } from '../../../../server/services/publishing';
 
@@ -18,6 +19,6 @@ export const POST: APIRoute = endpoint(async ({ locals, params, request }) => {
     return json({ scheduledFor: input.publishAt }, 202);
   }
   const published = await publishLesson(app(), studio.studioId, params.id!, user.id, input.acknowledgeWarnings);
-  await sendJob(await queue(env().DATABASE_URL), 'version.thumbnails', { versionId: published.versionId }, `version.thumbnails:${published.versionId}`);
+  await queueAfterPublish(await queue(env().DATABASE_URL), published);
   return json(published, 201);
 });

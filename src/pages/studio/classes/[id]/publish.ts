@@ -3,7 +3,8 @@ import { app } from '../../../../server/app';
 import { AppError } from '../../../../server/http/app-error';
 import { guardPage, PUBLISHERS } from '../../../../server/http/guards';
 import { env } from '../../../../server/env';
-import { queue, sendJob } from '../../../../server/queue';
+import { queue } from '../../../../server/queue';
+import { queueAfterPublish } from '../../../../server/services/after-publish';
 import { publishLesson, schedulePublish, setLessonState } from '../../../../server/services/publishing';
 
 /** The publishing panel's form: publish, schedule (owner), unpublish or archive, then back to the class page. */
@@ -19,7 +20,7 @@ export const POST: APIRoute = async ({ locals, params, request, redirect }) => {
     switch (form.get('action')) {
       case 'publish': {
         const v = await publishLesson(app(), studio.studioId, params.id!, user.id, ack);
-        await sendJob(await queue(env().DATABASE_URL), 'version.thumbnails', { versionId: v.versionId }, `version.thumbnails:${v.versionId}`);
+        await queueAfterPublish(await queue(env().DATABASE_URL), v);
         return back('published', `Published as version ${v.number}. Members see it in the library now.`);
       }
       case 'schedule': {
