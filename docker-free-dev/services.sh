@@ -77,6 +77,7 @@ status() {
   printf '%-13s %-8s %s\n' "postgresql" "$pgstate" "postgres://127.0.0.1:$ROUNDMARK_PG_PORT (data $(readlink -f "$DATA/pg" 2>/dev/null || echo none))"
   printf '%-13s %-8s %s\n' "object store" "$s3state" "$S3_ENDPOINT bucket $S3_BUCKET (data .data/s3)"
   printf '%-13s %-8s %s\n' "mail fake" "$mailstate" "$SMTP_URL (messages in .data/mail)"
+  printf '%-13s %-8s %s\n' "payments fake" "$(port_busy "$ROUNDMARK_PAY_PORT" && echo up || echo stopped)" "$PAYMENTS_API_URL (state in .data/payments)"
 }
 
 case "${1:-up}" in
@@ -84,10 +85,11 @@ case "${1:-up}" in
     pg_up
     node_up "object store" "$ROUNDMARK_S3_PORT" docker-free-dev/object-store.mjs
     node_up "mail fake" "$ROUNDMARK_SMTP_PORT" docker-free-dev/mail-fake.mjs
+    node_up "payments fake" "$ROUNDMARK_PAY_PORT" docker-free-dev/payments-fake.mjs
     status ;;
   db) pg_up; status ;;
   status) status ;;
   down)
-    node_down "mail fake"; node_down "object store"; pg_down; status ;;
+    node_down "payments fake"; node_down "mail fake"; node_down "object store"; pg_down; status ;;
   *) fail "usage: $0 [up|db|status|down]" ;;
 esac

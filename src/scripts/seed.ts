@@ -10,6 +10,7 @@ import { createAppDeps } from '../server/app';
 import { hashPassword } from '../server/auth/passwords';
 import { env } from '../server/env';
 import * as demo from './demo/fernhill';
+import { seedBilling } from './demo/demo-billing';
 
 /**
  * Loads the demo scenario. Idempotent: it only adds what is missing and never changes or removes
@@ -87,5 +88,6 @@ if (process.env.ROUNDMARK_DEMO_MEDIA !== '0') {
   await boss.stop({ graceful: true, wait: true });
   console.log('demo recordings are being generated in the background; the class pages show their progress');
 }
+console.log(await seedBilling(deps, studio.id, userIds, new Map(demo.people.map((p) => [p.email, p.name]))));
 console.log(`demo data ready (${demo.studio.name}; ${added} classes added)`);
 await deps.pool.end();

@@ -10,8 +10,8 @@ import { storage } from '../../../server/storage';
  * URLs name only the recording, never storage keys, and each request checks who may watch.
  */
 export const GET: APIRoute = endpoint(async ({ locals, params, request }) => {
-  requireUser(locals);
-  const { key, contentType } = await mediaKeyFor(app(), locals.studio, params.id!, params.path ?? '');
+  const { user } = requireUser(locals);
+  const { key, contentType } = await mediaKeyFor(app(), locals.studio, params.id!, params.path ?? '', user.id);
   const { s3, bucket } = storage();
   return streamObject(s3, bucket, key, contentType, request.headers.get('range'));
 });

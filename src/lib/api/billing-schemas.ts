@@ -1,0 +1,114 @@
+import { z } from 'zod';
+
+/** A promo code as people type it: spaces trimmed, upper-cased, letters, digits and dashes. */
+export const promoCodeField = z
+  .string()
+  .trim()
+  .toUpperCase()
+  .pipe(
+    z
+      .string()
+      .min(3, { error: 'A code has at least 3 characters.' })
+      .max(24, { error: 'A code has at most 24 characters.' })
+      .regex(/^[A-Z0-9-]+$/, { error: 'Use only letters, digits and dashes in a code.' }),
+  );
+
+export const checkoutInput = z
+  .object({
+    /** Optional promo code; an empty field means none. */
+    promoCode: z
+      .union([z.literal(''), promoCodeField])
+      .optional()
+      .transform((v) => v || undefined),
+  })
+  .meta({ id: 'CheckoutInput' });
+export type CheckoutInput = z.infer<typeof checkoutInput>;
+
+export const checkoutOutput = z.object({ url: z.string().url().describe('The hosted payment page to send the member to') }).meta({ id: 'CheckoutOutput' });
+
+export const SUBSCRIPTION_STATUSES = ['incomplete', 'trialing', 'active', 'past_due', 'canceled', 'unpaid', 'incomplete_expired', 'paused'] as const;
+
+export const membershipOutput = z
+  .object({
+    status: z.enum([...SUBSCRIPTION_STATUSES, 'none']),
+    trialEnd: z.string().nullable(),
+    currentPeriodEnd: z.string().nullable(),
+    cancelAtPeriodEnd: z.boolean(),
+    promoCode: z.string().nullable(),
+    entitled: z.boolean(),
+  })
+  .meta({ id: 'Membership' });
+
+export const billingSettingsOutput = z
+  .object({
+    currency: z.string(),
+    monthlyPriceMinor: z.number().int().describe('Monthly price in cents'),
+    trialDays: z.number().int(),
+    pastDueGraceDays: z.number().int(),
+    version: z.string().nullable().describe('Send back with PUT; a stale one answers 409'),
+  })
+  .meta({ id: 'BillingSettings' });
+
+export const billingSettingsInput = z
+  .object({
+    monthlyPriceMinor: z
+      .number({ error: 'Enter the monthly price.' })
+      .int({ error: 'Enter the price in whole cents.' })
+      .min(100, { error: 'The monthly price is at least 1.00.' })
+      .max(100_000, { error: 'The monthly price is at most 1,000.00.' }),
+    trialDays: z.number({ error: 'Enter the trial length in days.' }).int().min(0, { error: 'Use 0 for no trial.' }).max(90, { error: 'A trial lasts at most 90 days.' }),
+    pastDueGraceDays: z.number().int().min(0).max(30, { error: 'Grace lasts at most 30 days.' }).default(3),
+    version: z.string().nullable(),
+  })
+  .meta({ id: 'BillingSettingsInput' });
+export type BillingSettingsInput = z.infer<typeof billingSettingsInput>;
+
+export const promoCreateInput = z
+  .object({
+    code: promoCodeField,
+    percentOff: z
+      .number({ error: 'Enter the percent off.' })
+      .int({ error: 'Use a whole percent.' })
+      .min(1, { error: 'The discount is at least 1 %.' })
+      .max(100, { error: 'The discount is at most 100 %.' }),
+    expiresAt: z.iso.datetime({ offset: true, error: 'Enter a date and time for the expiry, or leave it empty.' }).nullable().optional(),
+  })
+  .meta({ id: 'PromoCodeInput' });
+export type PromoCreateInput = z.infer<typeof promoCreateInput>;
+
+export const promoPatchInput = z.object({ active: z.boolean({ error: 'Say whether the code is active.' }) }).meta({ id: 'PromoCodePatch' });
+
+export const promoOutput = z
+  .object({
+    id: z.string().uuid(),
+    code: z.string(),
+    percentOff: z.number().int(),
+    expiresAt: z.string().nullable(),
+    active: z.boolean(),
+    state: z.enum(['active', 'expired', 'inactive']),
+    redemptions: z.number().int(),
+    createdAt: z.string(),
+  })
+  .meta({ id: 'PromoCode' });
+
+export const MEMBER_SORTS = ['name', 'email', 'status', 'since', 'trialEnd'] as const;
+export const membersQuery = z.object({
+  q: z.string().trim().max(100).optional().transform((v) => v || undefined),
+  sort: z.enum(MEMBER_SORTS).catch('name').default('name'),
+  dir: z.enum(['asc', 'desc']).catch('asc').default('asc'),
+  format: z.enum(['json', 'csv']).catch('json').default('json'),
+});
+export type MembersQuery = z.infer<typeof membersQuery>;
+
+export const memberRow = z
+  .object({
+    userId: z.string(),
+    name: z.string(),
+    email: z.string(),
+    status: z.enum([...SUBSCRIPTION_STATUSES, 'none']),
+    since: z.string().nullable(),
+    trialEnd: z.string().nullable(),
+    promoCode: z.string().nullable(),
+  })
+  .meta({ id: 'MemberRow' });
+export type MemberRow = z.infer<typeof memberRow>;

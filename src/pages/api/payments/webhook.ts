@@ -1,0 +1,14 @@
+import type { APIRoute } from 'astro';
+import { endpoint, json } from '../../../server/http/api';
+import { billingDeps } from '../../../server/payments/billing-deps';
+import { webhookSecret } from '../../../server/payments/stripe-client';
+import { receiveWebhook } from '../../../server/services/billing-webhooks';
+
+/**
+ * The payment provider's signed events. The raw body is verified as received (re-serialised
+ * JSON would not match the signature); a repeat of an event already applied answers 200 too.
+ */
+export const POST: APIRoute = endpoint(async ({ request }) => {
+  const result = await receiveWebhook(billingDeps(), await request.text(), request.headers.get('stripe-signature'), webhookSecret());
+  return json({ received: true, ...result });
+});

@@ -1,0 +1,103 @@
+/**
+ * Test helpers for the payments fake (docker-free-dev/payments-fake.mjs): the official SDK
+ * pointed at it, its test-only controls, paying on its hosted card page, and waiting for the
+ * app to have applied the webhooks.
+ */
+import Stripe from 'stripe';
+import { ApiClient, BASE } from './api-client';
+
+export const PAY_URL = process.env.PAYMENTS_API_URL ?? `http://127.0.0.1:${process.env.ROUNDMARK_PAY_PORT ?? '12111'}`;
+export const PAY_KEY = process.env.PAYMENTS_SECRET_KEY ?? 'sk_test_roundmark_local_only';
+export const WEBHOOK_SECRET = process.env.PAYMENTS_WEBHOOK_SECRET ?? 'whsec_roundmark_local_only';
+
+// The card numbers payment providers publish for tests: one succeeds, one is declined.
+export const CARD_OK = '4242 4242 4242 4242';
+export const CARD_DECLINED = '4000 0000 0000 0002';
+
+export function testStripe(): Stripe {
+  const u = new URL(PAY_URL);
+  return new Stripe(PAY_KEY, { host: u.hostname, port: Number(u.port), protocol: u.protocol === 'https:' ? 'https' : 'http' });
+}
+
+/** Makes sure the fake sends its webhooks to the app under test (registered like a real endpoint). */
+export async function registerWebhook(stripe = testStripe()): Promise<void> {
+  const url = `${BASE()}/api/payments/webhook`;
+  const existing = await stripe.webhookEndpoints.list({ limit: 100 });
+  if (!existing.data.some((w) => w.url === url)) await stripe.webhookEndpoints.create({ url, enabled_events: ['*'] });
+}
+
+async function control(path: string, body: Record<string, unknown>) {
+  const res = await fetch(PAY_URL + path, {
+    method: 'POST',
+    headers: { authorization: `Bearer ${PAY_KEY}`, 'content-type': 'application/json' },
+    body: JSON.stringify(body),
+  });
+  const json = await res.json();
+  if (!res.ok) throw new Error(`${path}: ${res.status} ${JSON.stringify(json)}`);
+  return json;
+}
+
+/** Moves one subscription's clock: end_trial, renew (to the period end), fail_payment, pay. */
+export const advance = (subscription: string, action: 'end_trial' | 'renew' | 'fail_payment' | 'pay') =>
+  control('/_control/advance', { subscription, action });
+/** Holds new webhooks back (hold: true) or releases them, optionally newest first. */
+export const holdWebhooks = (hold: boolean, order?: 'reverse') => control('/_control/webhooks', { hold, ...(order ? { order } : {}) });
+
+/** Submits the fake's hosted card page; answers the redirect target or the page's HTML. */
+export async function payOnPage(url: string, card: string, email = 'payer@test.example') {
+  const res = await fetch(url, {
+    method: 'POST',
+    redirect: 'manual',
+    headers: { 'content-type': 'application/x-www-form-urlencoded' },
+    body: new URLSearchParams({ email, card, expiry: '12/40', cvc: '123', name: 'Test Payer' }),
+  });
+  return { status: res.status, location: res.headers.get('location'), html: await res.text() };
+}
+
+export interface Membership {
+  status: string;
+  trialEnd: string | null;
+  currentPeriodEnd: string | null;
+  cancelAtPeriodEnd: boolean;
+  promoCode: string | null;
+  entitled: boolean;
+}
+
+export async function membership(member: ApiClient): Promise<Membership> {
+  const res = await member.get('/api/billing/membership');
+  if (res.status !== 200) throw new Error(`membership: ${res.status} ${await res.text()}`);
+  return res.json();
+}
+
+/** Polls until the member's membership matches (webhooks arrive asynchronously). */
+export async function waitForMembership(member: ApiClient, ok: (m: Membership) => boolean, what: string, ms = 20_000): Promise<Membership> {
+  const deadline = Date.now() + ms;
+  let last: Membership | undefined;
+  while (Date.now() < deadline) {
+    last = await membership(member);
+    if (ok(last)) return last;
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error(`membership never became ${what}; last seen ${JSON.stringify(last)}`);
+}
+
+/** A new member (signed up through the API) with a session. */
+export async function newMember(label: string): Promise<{ client: ApiClient; email: string }> {
+  const client = new ApiClient();
+  const email = `${label}-${Date.now()}-${Math.floor(Math.random() * 1e6)}@test.example`;
+  const res = await client.post('/api/auth/sign-up', { name: `Test ${label}`, email, password: 'a long enough password' });
+  if (res.status !== 201) throw new Error(`sign-up failed: ${res.status} ${await res.text()}`);
+  return { client, email };
+}
+
+/** Starts checkout through the app and pays with the succeeding card; answers the subscription id. */
+export async function subscribe(member: ApiClient, promoCode?: string): Promise<string> {
+  const res = await member.post('/api/billing/checkout', promoCode ? { promoCode } : {});
+  if (res.status !== 200) throw new Error(`checkout: ${res.status} ${await res.text()}`);
+  const { url } = await res.json();
+  const paid = await payOnPage(url, CARD_OK);
+  if (paid.status !== 303) throw new Error(`payment page answered ${paid.status}`);
+  const sessionId = new URL(url).pathname.split('/').pop()!;
+  const session = await testStripe().checkout.sessions.retrieve(sessionId);
+  return session.subscription as string;
+}
