@@ -56,7 +56,9 @@ node_up() {
   if port_busy "$port"; then
     fail "port $port is already taken by another program, so the $name cannot start. Stop it or change the port in docker-free-dev/local.env."
   fi
-  (cd "$ROOT" && nohup node "$script" >"$log" 2>&1 & echo $! >"$pidf")
+  # exec: the pid written is node's own, so "down" stops the service itself.
+  (cd "$ROOT" && exec nohup node "$script" >"$log" 2>&1) &
+  echo $! >"$pidf"
   if ! wait_port "$port" 20; then
     tail -20 "$log" >&2
     fail "the $name did not start on port $port (last log lines above)"

@@ -4,6 +4,7 @@ import { studios, subscriptions, users, webhookEvents } from '../../db/schema';
 import { SUBSCRIPTION_STATUSES } from '../../lib/api/billing-schemas';
 import { AppError } from '../http/app-error';
 import type { BillingDeps } from '../payments/billing-deps';
+import { sendPaymentFailed } from '../mail/messages';
 
 type Tx = Parameters<Parameters<BillingDeps['db']['transaction']>[0]>[0];
 type Status = (typeof SUBSCRIPTION_STATUSES)[number];
@@ -30,6 +31,17 @@ export async function receiveWebhook(deps: BillingDeps, payload: string, signatu
  * of order). Events for people or studios this database does not know are acknowledged and ignored.
  */
 export async function applyEvent(deps: BillingDeps, event: Stripe.Event): Promise<{ applied: boolean; reason?: string }> {
+  const result = await applyInTransaction(deps, event);
+  // E-mail after the change is committed, so a mail problem never undoes (or repeats) the change.
+  if (result.paymentFailed) {
+    await sendPaymentFailed(deps, result.paymentFailed).catch((err) => console.error('payment-failed e-mail not sent:', err));
+  }
+  return { applied: result.applied, ...(result.reason ? { reason: result.reason } : {}) };
+}
+
+type ApplyResult = { applied: boolean; reason?: string; paymentFailed?: { userId: string; studioId: string } };
+
+async function applyInTransaction(deps: BillingDeps, event: Stripe.Event): Promise<ApplyResult> {
   // Fetched before the transaction so no network call holds it open.
   let fetched: Stripe.Subscription | null = null;
   if (event.type === 'checkout.session.completed') {
@@ -55,10 +67,12 @@ export async function applyEvent(deps: BillingDeps, event: Stripe.Event): Promis
       case 'invoice.payment_failed': {
         const subId = subscriptionIdOf(event.data.object);
         if (subId) {
-          await tx
+          const [member] = await tx
             .update(subscriptions)
             .set({ pastDueSince: new Date(), updatedAt: new Date() })
-            .where(and(eq(subscriptions.providerSubscriptionId, subId), eq(subscriptions.status, 'past_due')));
+            .where(and(eq(subscriptions.providerSubscriptionId, subId), eq(subscriptions.status, 'past_due')))
+            .returning({ userId: subscriptions.userId, studioId: subscriptions.studioId });
+          if (member) return { applied: true, paymentFailed: member };
         }
         return { applied: true };
       }
