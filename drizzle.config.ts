@@ -6,5 +6,6 @@ export default defineConfig({
   schema: './src/db/schema/index.ts',
   out: './drizzle',
   casing: 'snake_case',
-  dbCredentials: { url: process.env.DATABASE_URL ?? 'postgres://roundmark@127.0.0.1:54329/roundmark' },
+  // generate needs no database; commands that do read DATABASE_URL (npm scripts set it).
+  dbCredentials: { url: process.env.DATABASE_URL ?? 'postgres://roundmark@127.0.0.1/roundmark' },
 });

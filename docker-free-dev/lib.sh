@@ -4,11 +4,15 @@ ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 DATA="$ROOT/.data"
 RUN="$DATA/run"
 mkdir -p "$DATA" "$RUN"
+PG_BIN=/usr/lib/postgresql/15/bin
+checkout_hash() { printf '%s' "$ROOT" | sha1sum | cut -c1-10; }
+# PostgreSQL runs as its own daemon and can outlive a session, so each checkout gets a port of its
+# own (54000-54899, from the checkout path): a cluster left running elsewhere never blocks this one.
+ROUNDMARK_PG_PORT=${ROUNDMARK_PG_PORT:-$((54000 + 0x$(checkout_hash | cut -c1-6) % 900))}
 set -a
 # shellcheck source=local.env
 source "$ROOT/docker-free-dev/local.env"
 set +a
-PG_BIN=/usr/lib/postgresql/15/bin
 
 say()  { printf '%s\n' "$*"; }
 fail() { printf 'roundmark: %s\n' "$*" >&2; exit 1; }
@@ -27,5 +31,4 @@ pid_alive() { [ -f "$1" ] && kill -0 "$(cat "$1")" 2>/dev/null; }
 
 # The PostgreSQL cluster lives in a folder the postgres user owns, named per checkout, because a
 # checkout may sit under a folder that user cannot traverse (CI clones into mktemp -d folders).
-checkout_hash() { printf '%s' "$ROOT" | sha1sum | cut -c1-10; }
 PG_HOME="/var/lib/postgresql/roundmark-$(checkout_hash)"

@@ -103,6 +103,6 @@ describe('payment failed', () => {
     // Signed out, the link asks to sign in first.
     const signedOut = await new ApiClient().get(pathOf(link));
     expect(signedOut.status).toBe(302);
-    expect(signedOut.headers.get('location')).toBe('/sign-in');
+    expect(signedOut.headers.get('location')).toBe('/sign-in?next=%2Faccount'); // back to the account page after signing in
   });
 });
