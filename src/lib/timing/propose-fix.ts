@@ -149,9 +149,61 @@ export function proposeResize(view: TimelineView, i: number, targetSeconds: numb
   const shiftPrev = newStart >= 0 ? rippleNeighbours(view, i, -1, newStart - start, media) : undefined;
   if (shiftPrev) candidates.push({ ...shiftPrev, changes: [...shiftPrev.changes, { segmentId: a.id, field: 'startSeconds', value: sec(newStart) }], side: 1 });
 
+  const both = growBothSides(view, i, target);
+  if (both) candidates.push(both);
+
   let best: Candidate | undefined;
   for (const c of candidates) if (!harmful(c) && (!best || better(c, best))) best = c;
   return best?.changes;
+}
+
+/**
+ * Lengthens a segment squeezed between two back-to-back neighbours when neither side alone has
+ * the room: the end takes what the next segment can give within its tolerance, the start takes
+ * the rest from the previous one. Both neighbours must stay within (or move towards) tolerance.
+ */
+function growBothSides(view: TimelineView, i: number, target: number): Candidate | undefined {
+  const segs = view.segments;
+  const a = segs[i]!;
+  const prev = segs[i - 1];
+  const next = segs[i + 1];
+  const start = ms(a.startSeconds);
+  const end = ms(a.endSeconds);
+  const need = target - (end - start);
+  if (need <= 0 || !prev || !next) return undefined;
+  const backToBack =
+    ms(prev.endSeconds) === start && view.holderBefore[i] === i - 1 && ms(next.startSeconds) === end && view.holderBefore[i + 1] === i;
+  if (!backToBack) return undefined;
+  // Room each neighbour can give while staying at least 1 ms long and within its tolerance.
+  const room = (n: typeof a) => {
+    const len = ms(n.endSeconds) - ms(n.startSeconds);
+    const exp = view.expected.get(n.id);
+    const min = exp ? Math.max(1, ms(exp.seconds) - ms(exp.tolerance)) : 1;
+    return Math.max(0, len - min);
+  };
+  const fromNext = Math.min(room(next), need);
+  const fromPrev = need - fromNext;
+  if (fromNext <= 0 || fromPrev <= 0 || fromPrev > room(prev)) return undefined;
+  const prevStartLimit = view.maxEndBefore[i - 1];
+  if (prevStartLimit !== undefined && prevStartLimit !== -Infinity && start - fromPrev < ms(prevStartLimit)) return undefined;
+  const newStart = start - fromPrev;
+  const newEnd = end + fromNext;
+  const excessBefore =
+    excessOf(view, prev.id, ms(prev.endSeconds) - ms(prev.startSeconds)) + excessOf(view, next.id, ms(next.endSeconds) - ms(next.startSeconds));
+  const excess = excessOf(view, prev.id, newStart - ms(prev.startSeconds)) + excessOf(view, next.id, ms(next.endSeconds) - newEnd);
+  return {
+    changes: [
+      { segmentId: prev.id, field: 'endSeconds', value: sec(newStart) },
+      { segmentId: a.id, field: 'startSeconds', value: sec(newStart) },
+      { segmentId: a.id, field: 'endSeconds', value: sec(newEnd) },
+      { segmentId: next.id, field: 'startSeconds', value: sec(newEnd) },
+    ],
+    excessBefore,
+    reportableGap: 0,
+    excess,
+    opensGap: 0,
+    side: 1,
+  };
 }
 
 /** How many neighbours a fix may move whole before giving up. */
