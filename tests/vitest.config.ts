@@ -14,7 +14,10 @@ export default defineConfig({
     // Serves the built app for the integration and browser projects (see the file for why).
     globalSetup: ['tests/helpers/app-server.ts'],
     projects: [
-      { resolve: { alias }, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', sequence: { groupOrder: 0 } } },
+      {
+        resolve: { alias },
+        test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', setupFiles: ['tests/unit/fast-check-setup.ts'], sequence: { groupOrder: 0 } },
+      },
       {
         resolve: { alias },
         test: {
