@@ -246,7 +246,7 @@ describe('uploading a recording on the class page', () => {
     await expect.poll(() => storedParts, { timeout: 60_000 }).toContain(1);
     // The connection drops while part 2 is on its way, and comes back a few seconds later.
     await cdp.send('Network.emulateNetworkConditions', { offline: true, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
-    await page.locator('[data-upload-problem]', { hasText: 'The connection dropped.' }).waitFor({ timeout: 15_000 });
+    await page.locator('[data-upload-problem]', { hasText: 'The connection dropped.' }).waitFor({ timeout: 45_000 });
     await page.locator('[data-recording-id] [data-step]', { hasText: 'Stopped: carries on from the last finished part' }).waitFor();
     await page.screenshot({ path: `${SHOTS}/upload-offline.png`, fullPage: true });
     await page.waitForTimeout(2_000);
