@@ -34,6 +34,8 @@ const deps = createAppDeps(benchUrl);
 const { studioId } = await generateStudioWithClasses(deps, 10_000, 'fernhill');
 await deps.db.execute(sql`insert into users (id, email, name, password_hash) values ('bench-member', 'bench@fernhill.example', 'Bench Member', ${await hashPassword('bench password 1')})`);
 await deps.db.execute(sql`insert into memberships (user_id, studio_id, role) values ('bench-member', ${studioId}::uuid, 'member')`);
+// An active membership, so the class page renders the player (and its scripts) for the size figure.
+await deps.db.execute(sql`insert into subscriptions (studio_id, user_id, status, current_period_end) values (${studioId}::uuid, 'bench-member', 'active', now() + interval '30 days')`);
 await deps.pool.end();
 
 const server = spawn('node', ['dist/server/entry.mjs'], { env: { ...process.env, DATABASE_URL: benchUrl, HOST: '127.0.0.1', PORT: String(PORT) }, stdio: 'ignore' });

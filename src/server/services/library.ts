@@ -78,8 +78,21 @@ export async function searchLibrary(deps: AppDeps, studioId: string, q: LibraryQ
   return { lessons: rows, total: total?.n ?? 0, pages: Math.max(1, Math.ceil((total?.n ?? 0) / PAGE_SIZE)) };
 }
 
-/** Values to offer as filters: coaches, equipment and focus areas in use. */
-export async function libraryFacets(deps: AppDeps, studioId: string) {
+/** Filter values change only when classes are published; recomputing them per request costs three scans. */
+const FACETS_TTL_MS = 30_000;
+const facetsCache = new Map<string, { at: number; value: Promise<Awaited<ReturnType<typeof computeFacets>>> }>();
+
+/** Values to offer as filters: coaches, equipment and focus areas in use (cached for 30 s per studio). */
+export function libraryFacets(deps: AppDeps, studioId: string) {
+  const hit = facetsCache.get(studioId);
+  if (hit && Date.now() - hit.at < FACETS_TTL_MS) return hit.value;
+  const value = computeFacets(deps, studioId);
+  facetsCache.set(studioId, { at: Date.now(), value });
+  value.catch(() => facetsCache.delete(studioId));
+  return value;
+}
+
+async function computeFacets(deps: AppDeps, studioId: string) {
   const [coaches, equipment, focus] = await Promise.all([
     deps.db
       .selectDistinct({ id: users.id, name: users.name })
