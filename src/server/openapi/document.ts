@@ -3,34 +3,9 @@ import { z } from 'zod';
 import { changePasswordInput, signInInput, signUpInput } from '../../lib/api/auth-schemas';
 import { createLessonInput, lessonOutput, updateLessonInput } from '../../lib/api/lesson-schemas';
 import { apiRoutes } from './routes';
+import { errors, json } from './responses';
 import { billingRoutes } from './routes-billing';
 import { mailRoutes } from './routes-mail';
-
-/** The error body every API route answers with on failure. */
-export const errorOutput = z
-  .object({
-    error: z.object({
-      code: z.string().describe('Machine-readable reason, e.g. invalid_input, conflict'),
-      message: z.string().describe('What happened and what to do next, in plain language'),
-      fields: z.record(z.string(), z.string()).optional().describe('Message per invalid field'),
-    }),
-  })
-  .meta({ id: 'Error' });
-
-const json = (schema: z.ZodType, description: string) => ({ description, content: { 'application/json': { schema } } });
-const errors = (...codes: number[]) =>
-  Object.fromEntries(codes.map((c) => [String(c), json(errorOutput, ERROR_TEXT[c] ?? 'Error')]));
-const ERROR_TEXT: Record<number, string> = {
-  400: 'Invalid input; `fields` names each problem',
-  401: 'Not signed in',
-  403: 'Signed in, but the role does not allow this',
-  404: 'Not found (also for another studio’s data)',
-  409: 'Stale version: someone saved first',
-  413: 'Too large',
-  415: 'Unsupported file type',
-  429: 'Too many attempts; see Retry-After',
-  503: 'A dependency is down',
-};
 
 const lessonId = z.object({ id: z.string().uuid().describe('Class id') });
 

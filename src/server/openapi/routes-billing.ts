@@ -1,5 +1,6 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
+import { errors, json } from './responses';
 import {
   billingSettingsInput,
   billingSettingsOutput,
@@ -13,9 +14,6 @@ import {
   promoPatchInput,
 } from '../../lib/api/billing-schemas';
 
-const errorRef = z.object({ error: z.object({ code: z.string(), message: z.string() }).passthrough() });
-const json = (schema: z.ZodType, description: string) => ({ description, content: { 'application/json': { schema } } });
-const errors = (...codes: number[]) => Object.fromEntries(codes.map((c) => [String(c), json(errorRef, `Error ${c}`)]));
 
 /** API routes of the billing feature, described from their zod schemas. */
 export const billingRoutes: RouteConfig[] = [

@@ -1,5 +1,6 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
+import { errors, json } from './responses';
 import {
   createInvitationInput,
   forgotPasswordInput,
@@ -9,11 +10,6 @@ import {
   resetPasswordInput,
 } from '../../lib/api/mail-schemas';
 
-const errorRef = z.object({
-  error: z.object({ code: z.string(), message: z.string(), fields: z.record(z.string(), z.string()).optional() }),
-});
-const json = (schema: z.ZodType, description: string) => ({ description, content: { 'application/json': { schema } } });
-const errors = (...codes: number[]) => Object.fromEntries(codes.map((c) => [String(c), json(errorRef, `Error ${c}`)]));
 
 /** API routes of the mail feature, described from their zod schemas. */
 export const mailRoutes: RouteConfig[] = [

@@ -1,5 +1,6 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
+import { errors, json } from './responses';
 import { planSchema } from '../../lib/plan/plan-schema';
 import { timelinePutSchema, segmentSchema, cueSchema } from '../../lib/timeline/timeline-schema';
 import { timelineExportQuery, timelineImportQuery } from '../../lib/api/timeline-file-schemas';
@@ -8,9 +9,6 @@ import { FINDING_CODES } from '../../lib/timing/finding-types';
 import { createRecordingInput, recordingOutput, signUploadInput } from '../../lib/api/recording-schemas';
 import { progressInput, publishInput } from '../../lib/api/publish-schemas';
 
-const errorRef = z.object({ error: z.object({ code: z.string(), message: z.string() }).passthrough() });
-const json = (schema: z.ZodType, description: string) => ({ description, content: { 'application/json': { schema } } });
-const errors = (...codes: number[]) => Object.fromEntries(codes.map((c) => [String(c), json(errorRef, `Error ${c}`)]));
 const params = z.object({ id: z.string().uuid().describe('Class id') });
 
 const plannedSegment = z.object({
