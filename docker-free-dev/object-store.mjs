@@ -1,7 +1,9 @@
 // Local S3-compatible object store for development and tests: s3rver 3.7.1 plus the two
 // multipart operations it lacks (ListParts and AbortMultipartUpload answer 405 in s3rver).
 // Resumable and cancellable browser uploads need both, so they are added here as one Koa
-// middleware placed just before s3rver's router. Everything else is s3rver unchanged.
+// middleware placed just before s3rver's router. Completing an upload keeps the stored parts
+// and reads across them (./object-store-parts.mjs) instead of copying them into one file, as S3
+// does not copy either. Everything else is s3rver unchanged.
 //
 //   node docker-free-dev/object-store.mjs
 //   env: ROUNDMARK_S3_PORT (4569), ROUNDMARK_S3_DIR (.data/s3 under the repo root),
@@ -23,6 +25,8 @@ const corsMiddleware = require('s3rver/lib/middleware/cors');
 const authenticationMiddleware = require('s3rver/lib/middleware/authentication');
 const bucketController = require('s3rver/lib/controllers/bucket');
 const objectController = require('s3rver/lib/controllers/object');
+
+import { PartsAwareStore } from './object-store-parts.mjs';
 
 const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const host = '127.0.0.1';
@@ -196,6 +200,7 @@ const store = new S3rver({
   vhostBuckets: false,
   configureBuckets: [{ name: bucket, configs: [corsXml] }],
 });
+store.store = store.context.store = new PartsAwareStore(directory);
 
 // s3rver registers its router last; the add-on goes right before it so it sees requests after
 // s3rver's logging, XML encoding and host handling.

@@ -10,6 +10,7 @@ import {
   DeleteObjectCommand,
   GetObjectCommand,
   HeadBucketCommand,
+  HeadObjectCommand,
   ListPartsCommand,
   PutObjectCommand,
   S3Client,
@@ -162,6 +163,62 @@ describe('object store: multipart upload with ListParts', () => {
     expect(md5(got)).toBe(md5(expected));
 
     await expect(s3.send(new ListPartsCommand({ Bucket, ...upload }))).rejects.toMatchObject(noSuchUpload);
+  });
+
+  it("gives the assembled object S3's multipart ETag and length", async () => {
+    const head = await s3.send(new HeadObjectCommand({ Bucket, Key: upload.Key }));
+    // S3's multipart ETag: md5 of the concatenated binary part md5s, a dash, the part count
+    // (AWS S3 user guide, "Checking object integrity": multipart ETags are not the object's md5).
+    const partMd5s = Buffer.concat(parts.map((p) => createHash('md5').update(p).digest()));
+    expect(head.ETag).toBe(quoted(`${md5(partMd5s)}-3`));
+    expect(head.ContentLength).toBe(parts.reduce((n, p) => n + p.length, 0));
+  });
+
+  it('serves byte ranges that cross part boundaries (RFC 9110 §14)', async () => {
+    const whole = Buffer.concat(parts);
+    const ranges: [number, number][] = [
+      [0, 0],
+      [5 * MiB - 10, 5 * MiB + 9], // end of part 1, start of part 2
+      [5 * MiB - 1, 10 * MiB], // last byte of part 1, all of part 2, first byte of part 3
+      [whole.length - 50, whole.length - 1],
+    ];
+    for (const [start, end] of ranges) {
+      const out = await s3.send(new GetObjectCommand({ Bucket, Key: upload.Key, Range: `bytes=${start}-${end}` }));
+      expect(out.$metadata.httpStatusCode).toBe(206);
+      expect(out.ContentRange).toBe(`bytes ${start}-${end}/${whole.length}`);
+      const got = Buffer.from(await out.Body!.transformToByteArray());
+      expect(got.equals(whole.subarray(start, end + 1))).toBe(true);
+    }
+  });
+
+  it('replaces an assembled object with a plain put, and deletes it', async () => {
+    const body = randomBytes(1000);
+    await s3.send(new PutObjectCommand({ Bucket, Key: upload.Key, Body: body }));
+    expect((await readObject(upload.Key)).equals(body)).toBe(true);
+    await s3.send(new DeleteObjectCommand({ Bucket, Key: upload.Key }));
+    await expect(readObject(upload.Key)).rejects.toMatchObject({ name: 'NoSuchKey' });
+  });
+});
+
+describe('object store: completing checks the parts named', () => {
+  it('refuses a part whose ETag does not match, or that was never uploaded, and keeps the upload', async () => {
+    const upload = await startUpload('checked.mp4');
+    const body = randomBytes(64 * 1024);
+    const part = await s3.send(new UploadPartCommand({ Bucket, ...upload, PartNumber: 1, Body: body }));
+    const complete = (Parts: { PartNumber: number; ETag: string }[]) =>
+      s3.send(new CompleteMultipartUploadCommand({ Bucket, ...upload, MultipartUpload: { Parts } }));
+
+    const invalidPart = { name: 'InvalidPart', $metadata: { httpStatusCode: 400 } };
+    await expect(complete([{ PartNumber: 1, ETag: quoted(md5(randomBytes(8))) }])).rejects.toMatchObject(invalidPart);
+    await expect(complete([{ PartNumber: 1, ETag: part.ETag! }, { PartNumber: 2, ETag: part.ETag! }])).rejects.toMatchObject(
+      invalidPart,
+    );
+    // Nothing was lost: the stored part is still listed and the upload completes with it.
+    const listed = await s3.send(new ListPartsCommand({ Bucket, ...upload }));
+    expect(listed.Parts?.map((p) => p.PartNumber)).toEqual([1]);
+    await complete([{ PartNumber: 1, ETag: part.ETag! }]);
+    createdKeys.push(upload.Key);
+    expect((await readObject(upload.Key)).equals(body)).toBe(true);
   });
 });
 
