@@ -167,6 +167,15 @@ function multipartAddOn() {
   const cors = corsMiddleware();
   const authenticate = authenticationMiddleware();
   return async function multipartAddOn(ctx, next) {
+    // HeadBucket: s3rver answers it as a bucket listing (walking every stored file, which takes
+    // longer the more media is stored); S3 only checks that the bucket exists.
+    const bucketOnly = /^\/([^/]+)\/?$/.exec(ctx.path);
+    if (ctx.method === 'HEAD' && bucketOnly && Object.keys(ctx.query).length === 0) {
+      ctx.params = { bucket: decodeURIComponent(bucketOnly[1]) };
+      return cors(ctx, () => authenticate(ctx, () => bucketController.bucketExists(ctx, async () => {
+        ctx.status = 200;
+      })));
+    }
     const match = /^\/([^/]+)\/(.+)$/.exec(ctx.path);
     const subresources = SUBRESOURCES.filter((name) => name in ctx.query);
     if (!match || subresources.length !== 1 || subresources[0] !== 'uploadId') return next();

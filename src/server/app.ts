@@ -3,6 +3,7 @@ import type pg from 'pg';
 import { createDb, type Db } from './db';
 import { createLucia, type Auth } from './auth/lucia';
 import { env } from './env';
+import { LibraryCache } from './library-cache';
 
 /** The side-effecting parts one process shares; services receive what they need from it. */
 export interface AppDeps {
@@ -11,6 +12,8 @@ export interface AppDeps {
   auth: Auth;
   limits: SignInLimits;
   studioSlug: string;
+  /** Shared library pages and filter values; only the web server's own deps have one. */
+  libraryCache?: LibraryCache;
 }
 
 export interface SignInLimits {
@@ -52,6 +55,9 @@ let shared: AppDeps | undefined;
 
 /** The process-wide dependencies, built on first use from the environment. */
 export function app(): AppDeps {
-  shared ??= createAppDeps(env().DATABASE_URL, env().PUBLIC_BASE_URL.startsWith('https://'));
+  if (!shared) {
+    shared = createAppDeps(env().DATABASE_URL, env().PUBLIC_BASE_URL.startsWith('https://'));
+    shared.libraryCache = new LibraryCache({ connectionString: env().DATABASE_URL });
+  }
   return shared;
 }

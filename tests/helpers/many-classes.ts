@@ -52,7 +52,7 @@ export async function generateStudioWithClasses(deps: AppDeps, n: number, slug =
            'WEBVTT', 600, now() - (row_number() over ()) * interval '1 minute' from r`);
   // A separate statement: rows inserted inside a WITH are not visible to the same statement's UPDATE.
   await deps.db.execute(sql`
-    update lessons set published_version_id = v.id, current_recording_id = v.recording_id
+    update lessons set published_version_id = v.id, current_recording_id = v.recording_id, published_at = v.published_at
     from lesson_versions v where v.lesson_id = lessons.id and lessons.studio_id = ${studioId}::uuid`);
   return { studioId, coachA, coachB };
 }

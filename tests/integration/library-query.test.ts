@@ -1,4 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { sql } from 'drizzle-orm';
 import { createAppDeps } from '../../src/server/app';
 import { searchLibrary } from '../../src/server/services/library';
 import { libraryQuery, PAGE_SIZE } from '../../src/lib/api/library-schemas';
@@ -59,6 +60,17 @@ describe('library queries on 10,000 classes', () => {
       for (const l of res.lessons) seen.add(l.id);
     }
     expect(seen.size).toBe(total);
+  });
+
+  it('newest first follows the dates of the published versions, page after page', async () => {
+    // Expected order read from the versions themselves, not from the listing's own columns.
+    const expected = await deps.db.execute<{ id: string }>(sql`
+      select l.id from lessons l join lesson_versions v on v.id = l.published_version_id
+      where l.studio_id = ${studioId}::uuid and l.impact = 'moderate'
+      order by v.published_at desc, l.id limit ${PAGE_SIZE * 2}`);
+    const first = await searchLibrary(deps, studioId, query({ impact: 'moderate', sort: 'newest' }));
+    const second = await searchLibrary(deps, studioId, query({ impact: 'moderate', sort: 'newest', page: 2 }));
+    expect([...first.lessons, ...second.lessons].map((l) => l.id)).toEqual(expected.rows.map((r) => r.id));
   });
 
   it('sorts by length', async () => {

@@ -60,6 +60,12 @@ export const lessons = pgTable(
     searchDocument: text().notNull().default(''),
     /** Length of the published version in seconds (library length filters). */
     publishedSeconds: real(),
+    /** When the version members see was published (library "newest"; copied so the listing needs no join). */
+    publishedAt: timestamp({ withTimezone: true }),
+    /** Length the library filters and sorts by: the published media, else the advertised minutes. */
+    listedMinutes: doublePrecision().generatedAlwaysAs(
+      sql`coalesce(published_seconds / 60.0, advertised_minutes::double precision)`,
+    ),
     version: integer().notNull().default(1),
     createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
@@ -68,6 +74,12 @@ export const lessons = pgTable(
     uniqueIndex('lessons_studio_slug_idx').on(t.studioId, t.slug),
     index('lessons_studio_state_idx').on(t.studioId, t.state),
     index('lessons_search_idx').using('gin', sql`to_tsvector('english', ${t.searchDocument})`),
+    // The library listing: walks a studio's published classes newest first and stops after a
+    // page. The migration adds INCLUDE (impact, difficulty, coach_id, listed_minutes) so the
+    // count under common filters is an index-only scan (drizzle's builder has no INCLUDE).
+    index('lessons_library_idx')
+      .on(t.studioId, t.publishedAt.desc(), t.id)
+      .where(sql`state = 'published' and published_version_id is not null`),
   ],
 );
 

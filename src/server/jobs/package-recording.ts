@@ -6,6 +6,7 @@ import { buildPackageArgs, buildPosterArgs, chooseLadder } from '../../lib/media
 import { encodePeaks, peaksMaxDb, silentPeaks, DEFAULT_PEAKS_RATE } from '../../lib/media/peaks';
 import { SILENT_AUDIO_DB, WARNINGS } from '../../lib/media/probe-verdict';
 import { computeFilePeaks, runFfmpeg } from '../media/ffmpeg-runner';
+import { libraryChanged } from '../services/library';
 import { recordingPrefix } from '../services/recordings';
 import type { JobHandler } from './job-context';
 import { cleanScratch, ensureSource, progressReporter, recordingDir, uploadFolder } from './recording-files';
@@ -84,6 +85,7 @@ export const packageRecording: JobHandler<'recording.package'> = async ({ record
         ),
       );
   });
+  await libraryChanged(ctx.deps, rec.studioId); // a published class's card shows the new poster
   await cleanScratch(dir);
   return { outcome: 'done', detail: `${ladder.length} renditions` };
 };

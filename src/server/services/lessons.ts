@@ -3,6 +3,7 @@ import { lessons, memberships, users } from '../../db/schema';
 import type { CreateLessonInput, LessonOutput, UpdateLessonInput } from '../../lib/api/lesson-schemas';
 import { AppError, notFound } from '../http/app-error';
 import type { AppDeps } from '../app';
+import { libraryChanged } from './library';
 
 type LessonRow = typeof lessons.$inferSelect;
 
@@ -125,6 +126,8 @@ export async function updateLesson(
       { currentVersion: current.version },
     );
   }
+  // Cards show the class's details, so the library of a published class changes too.
+  if (current.state === 'published') await libraryChanged(deps, studioId);
   return getLesson(deps, studioId, id);
 }
 

@@ -1,7 +1,8 @@
 import { and, asc, count, desc, eq, isNotNull, isNull, sql, type SQL } from 'drizzle-orm';
-import { lessons, lessonVersions, playProgress, users } from '../../db/schema';
+import { lessons, playProgress, users } from '../../db/schema';
 import { LENGTH_RANGES, PAGE_SIZE, type LibraryQuery } from '../../lib/api/library-schemas';
 import type { AppDeps } from '../app';
+import { notifyLibraryChanged } from '../library-cache';
 
 const cardColumns = {
   id: lessons.id,
@@ -33,13 +34,28 @@ export async function publishedLessons(deps: AppDeps, studioId: string, limit = 
     .limit(limit);
 }
 
+/** Tells every process that a studio's library changed, so shared pages are recomputed. */
+export async function libraryChanged(deps: AppDeps, studioId: string) {
+  deps.libraryCache?.forget(studioId);
+  await notifyLibraryChanged(deps.pool, studioId);
+}
+
+/**
+ * One page of the library (see querySearchLibrary). Every member asking for the same filters
+ * gets the same page, so the web server shares it (src/server/library-cache.ts).
+ */
+export function searchLibrary(deps: AppDeps, studioId: string, q: LibraryQuery) {
+  const load = () => querySearchLibrary(deps, studioId, q);
+  return deps.libraryCache ? deps.libraryCache.get(studioId, `listing:${JSON.stringify(q)}`, load) : load();
+}
+
 /**
  * One page of the library, filtered and sorted on the server. Filters combine with AND across
  * kinds and OR within a kind (low OR moderate impact). Sorting ends on the id so pages are stable.
  */
-export async function searchLibrary(deps: AppDeps, studioId: string, q: LibraryQuery) {
+async function querySearchLibrary(deps: AppDeps, studioId: string, q: LibraryQuery) {
   const where: (SQL | undefined)[] = [published(studioId)];
-  const minutes = sql`coalesce(${lessons.publishedSeconds} / 60.0, ${lessons.advertisedMinutes})`;
+  const minutes = lessons.listedMinutes;
   if (q.length.length) {
     where.push(sql`(${sql.join(q.length.map((r) => sql`(${minutes} >= ${LENGTH_RANGES[r][0]} and ${minutes} < ${LENGTH_RANGES[r][1]})`), sql` or `)})`);
   }
@@ -61,14 +77,13 @@ export async function searchLibrary(deps: AppDeps, studioId: string, q: LibraryQ
     shortest: [asc(minutes), asc(lessons.id)],
     longest: [desc(minutes), asc(lessons.id)],
     title: [asc(lessons.title), asc(lessons.id)],
-    newest: [desc(lessonVersions.publishedAt), asc(lessons.id)],
+    newest: [desc(lessons.publishedAt), asc(lessons.id)],
   }[q.sort];
   const [rows, [total]] = await Promise.all([
     deps.db
       .select(cardColumns)
       .from(lessons)
       .innerJoin(users, eq(users.id, lessons.coachId))
-      .innerJoin(lessonVersions, eq(lessonVersions.id, lessons.publishedVersionId))
       .where(condition)
       .orderBy(...order)
       .limit(PAGE_SIZE)
@@ -78,18 +93,10 @@ export async function searchLibrary(deps: AppDeps, studioId: string, q: LibraryQ
   return { lessons: rows, total: total?.n ?? 0, pages: Math.max(1, Math.ceil((total?.n ?? 0) / PAGE_SIZE)) };
 }
 
-/** Filter values change only when classes are published; recomputing them per request costs three scans. */
-const FACETS_TTL_MS = 30_000;
-const facetsCache = new Map<string, { at: number; value: Promise<Awaited<ReturnType<typeof computeFacets>>> }>();
-
-/** Values to offer as filters: coaches, equipment and focus areas in use (cached for 30 s per studio). */
+/** Values to offer as filters: coaches, equipment and focus areas in use (shared like pages). */
 export function libraryFacets(deps: AppDeps, studioId: string) {
-  const hit = facetsCache.get(studioId);
-  if (hit && Date.now() - hit.at < FACETS_TTL_MS) return hit.value;
-  const value = computeFacets(deps, studioId);
-  facetsCache.set(studioId, { at: Date.now(), value });
-  value.catch(() => facetsCache.delete(studioId));
-  return value;
+  const load = () => computeFacets(deps, studioId);
+  return deps.libraryCache ? deps.libraryCache.get(studioId, 'facets', load) : load();
 }
 
 async function computeFacets(deps: AppDeps, studioId: string) {

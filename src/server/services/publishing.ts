@@ -7,6 +7,7 @@ import type { Segment, Cue } from '../../lib/timeline/timeline-schema';
 import type { Plan } from '../../lib/plan/plan-schema';
 import { AppError, notFound } from '../http/app-error';
 import type { AppDeps } from '../app';
+import { libraryChanged } from './library';
 import { parseStoredPlan } from './lesson-plans';
 import { getTimeline } from './timelines';
 
@@ -114,7 +115,7 @@ export async function publishLesson(
       warningMessages: warnings.map((w) => w.message),
     },
   };
-  return deps.db.transaction(async (tx) => {
+  const published = await deps.db.transaction(async (tx) => {
     // Lock the class row so two publishes cannot take the same version number.
     await tx.execute(sql`select 1 from ${lessons} where ${lessons.id} = ${lessonId} for update`);
     const [{ last } = { last: 0 }] = await tx
@@ -134,13 +135,14 @@ export async function publishLesson(
         warningsAcknowledged: warnings.length > 0 && acknowledgeWarnings,
         publishedBy: actorId,
       })
-      .returning({ id: lessonVersions.id });
+      .returning({ id: lessonVersions.id, publishedAt: lessonVersions.publishedAt });
     await tx
       .update(lessons)
       .set({
         state: 'published',
         publishedVersionId: version!.id,
         publishedSeconds: recording.durationSeconds!,
+        publishedAt: version!.publishedAt,
         searchDocument: [l.title, l.description, ...names, ...l.focus, ...l.equipment].join(' \n'),
         publishAt: null,
         publishScheduledBy: null,
@@ -149,6 +151,8 @@ export async function publishLesson(
       .where(eq(lessons.id, lessonId));
     return { versionId: version!.id, number };
   });
+  await libraryChanged(deps, studioId);
+  return published;
 }
 
 /** Schedules a publish; the worker publishes once due (the check runs again then). */
@@ -170,6 +174,7 @@ export async function setLessonState(deps: AppDeps, studioId: string, lessonId: 
     .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)))
     .returning({ id: lessons.id });
   if (!updated.length) throw notFound('That class');
+  await libraryChanged(deps, studioId);
 }
 
 /** Published versions of a class, newest first. */
