@@ -79,6 +79,15 @@ afterAll(async () => {
   }
 });
 
+describe('object store: buckets', () => {
+  it('answers HeadBucket for the bucket, and NotFound for one that does not exist', async () => {
+    expect((await s3.send(new HeadBucketCommand({ Bucket }))).$metadata.httpStatusCode).toBe(200);
+    await expect(s3.send(new HeadBucketCommand({ Bucket: `missing-${randomUUID()}` }))).rejects.toMatchObject({
+      $metadata: { httpStatusCode: 404 },
+    });
+  });
+});
+
 describe('object store: plain objects', () => {
   it('gives back exactly what was put, with the md5 as ETag', async () => {
     const Key = `${prefix}/round-trip.bin`;
