@@ -15,7 +15,8 @@ export function createLucia(db: Db, secure: boolean) {
       name: secure ? '__Host-rm_session' : 'rm_session',
       attributes: { secure, sameSite: 'lax', path: '/' },
     },
-    getUserAttributes: (attrs) => ({ email: attrs.email, name: attrs.name }),
+    // The session check already reads the user row, so pages need no second query for these.
+    getUserAttributes: (attrs) => ({ email: attrs.email, name: attrs.name, emailVerified: attrs.emailVerifiedAt != null }),
   });
 }
 
@@ -24,6 +25,6 @@ export type Auth = ReturnType<typeof createLucia>;
 declare module 'lucia' {
   interface Register {
     Lucia: Auth;
-    DatabaseUserAttributes: { email: string; name: string };
+    DatabaseUserAttributes: { email: string; name: string; emailVerifiedAt: Date | null };
   }
 }
