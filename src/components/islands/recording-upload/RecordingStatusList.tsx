@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useState, useSyncExternalStore } from 'react';
 import type { RecordingOutput } from '../../../lib/api/recording-schemas';
 import { formatClock } from '../../../lib/time/format-time';
 import {
@@ -46,7 +46,10 @@ export default function RecordingStatusList({ recordings, uploadingHere, onRetry
 }
 
 function RecordingItem({ rec, uploadingHere, onRetry }: { rec: RecordingOutput } & Omit<Props, 'recordings'>) {
-  const here = uploadingHere?.recordingId === rec.id ? uploadingHere : null;
+  const online = useOnline();
+  const mine = uploadingHere?.recordingId === rec.id ? uploadingHere : null;
+  // Offline, the widget holds the upload until the connection is back (see recording-uppy.ts).
+  const here = mine?.phase === 'sending' && !online ? { ...mine, phase: 'stopped' as const } : mine;
   const kind = statusKind(rec, here ? rec.id : null);
   const look = STATUS_LOOKS[kind];
   const percent = clampPercent(kind === 'uploading' ? (here?.percent ?? rec.progress) : rec.progress);
@@ -140,6 +143,20 @@ function StatusBadge({ look }: { look: StatusLook }) {
       {look.label}
     </span>
   );
+}
+
+const onOnlineChange = (onChange: () => void) => {
+  window.addEventListener('online', onChange);
+  window.addEventListener('offline', onChange);
+  return () => {
+    window.removeEventListener('online', onChange);
+    window.removeEventListener('offline', onChange);
+  };
+};
+
+/** Whether the browser says it is online, following its online and offline events. */
+function useOnline(): boolean {
+  return useSyncExternalStore(onOnlineChange, () => navigator.onLine, () => true);
 }
 
 const UPLOAD_PHASES: Record<UploadingHere['phase'], string> = {

@@ -30,6 +30,9 @@ export interface RecordingUppyOptions {
 /** Automatic retries after a dropped connection; each resumes from the parts the store lists. */
 const AUTO_RETRY_DELAYS_MS = [2_000, 5_000, 15_000, 30_000];
 
+const CONNECTION_DROPPED =
+  'The connection dropped. The upload carries on from the last finished part as soon as it is back; keep this page open.';
+
 /**
  * Browsers report MKV as '' and some report M4V as 'video/x-m4v'. The server takes an accepted
  * extension with an unknown type as application/octet-stream, so announce it that way and send
@@ -156,8 +159,8 @@ export function createRecordingUppy({ lessonId, maxUploadBytes, onRecording, onP
     }
   });
 
-  // A dropped connection fails the part in flight; retry with a growing pause. The retry lists the
-  // parts the store already has (a signed GET) and sends only the rest.
+  // A request that fails on a dropped connection fails the upload; retry with a growing pause. The
+  // retry lists the parts the store already has (a signed GET) and sends only the rest.
   const attempts = new Map<string, number>();
   uppy.on('upload-error', (file, err) => {
     if (!file) return;
@@ -171,15 +174,38 @@ export function createRecordingUppy({ lessonId, maxUploadBytes, onRecording, onP
       );
       return;
     }
-    onProblem('The connection dropped. The upload carries on from the last finished part as soon as it is back; keep this page open.');
+    onProblem(CONNECTION_DROPPED);
     attempts.set(file.id, n + 1);
     setTimeout(() => {
       const current = uppy.getFile(file.id);
       if (current?.error && navigator.onLine !== false) void uppy.retryUpload(file.id).catch(() => {});
     }, AUTO_RETRY_DELAYS_MS[n]);
   });
+
+  // A request the uploader starts while the browser says it is offline does not fail: it waits,
+  // silently, for the `online` event (so a part that finishes just after the drop left the coach
+  // with no word). So when the browser goes offline, hold the upload ourselves with the uploader's
+  // own pause (it aborts the part in flight and keeps the multipart upload) and say so; when it is
+  // back, start it again, which lists the parts the store has and sends only the rest. Uppy's pause
+  // state is left alone: the coach did not pause, and a coach's pause stays theirs.
+  const sendingFiles = () =>
+    uppy.getFiles().filter((f) => f.progress.uploadStarted && !f.progress.uploadComplete && !f.isPaused && !f.error);
+  uppy.on('is-offline', () => {
+    const held = sendingFiles();
+    for (const f of held) uppy.emit('upload-pause', f, true);
+    if (held.length > 0) onProblem(CONNECTION_DROPPED);
+  });
   uppy.on('back-online', () => {
+    for (const f of sendingFiles()) uppy.emit('upload-pause', f, false);
     if (uppy.getFiles().some((f) => f.error)) void uppy.retryAll().catch(() => {});
+  });
+  // A resume pressed while offline waits for the connection in the same way.
+  const noteIfOffline = () => {
+    if (navigator.onLine === false) onProblem(CONNECTION_DROPPED);
+  };
+  uppy.on('resume-all', noteIfOffline);
+  uppy.on('upload-pause', (_file, isPaused) => {
+    if (!isPaused) noteIfOffline();
   });
   uppy.on('upload-success', (file) => {
     if (file) attempts.delete(file.id);
