@@ -70,6 +70,7 @@ try {
   // reads nothing from the database (the sign-in form).
   const staticFile = await load('/favicon.svg');
   const plainPage = await load('/sign-in');
+  const sessionOnly = await load('/sign-in', { cookie }); // signed in: the session check, then a redirect
   const line = (name: string, r: autocannon.Result) =>
     `  ${name}: p50 ${r.latency.p50} ms, p99 ${r.latency.p99} ms, ${Math.round(r.requests.average)} req/s, ${r.non2xx} non-2xx`;
   console.log('library with 10,000 classes, 50 connections, 10 s each:');
@@ -77,7 +78,8 @@ try {
   console.log(line(`GET ${libraryPath}`, library));
   console.log(line('the same with a new search each request (nothing shared)', unshared));
   console.log(line('context: GET /favicon.svg (static file)', staticFile));
-  console.log(line('context: GET /sign-in (page without data)', plainPage));
+  console.log(line('context: GET /sign-in signed out (a page without data)', plainPage));
+  console.log(line('context: GET /sign-in signed in (session check and a redirect, no page)', sessionOnly));
   console.log(`  p99 ratio library/health: ${(library.latency.p99 / Math.max(1, health.latency.p99)).toFixed(2)}; target p99 < 50 ms`);
 
   console.log('JavaScript shipped (gzip):');
