@@ -70,9 +70,11 @@ async function signedMultipart(): Promise<number> {
   const numbers = Array.from({ length: Math.ceil(SIZE / PART) }, (_, i) => i + 1);
   await Promise.all(
     Array.from({ length: IN_FLIGHT }, async () => {
+      // One buffer per request in flight, reused (as the browser slices the file instead of copying it).
+      const part = new Uint8Array(PART);
       for (let n = numbers.shift(); n; n = numbers.shift()) {
         const len = Math.min(PART, SIZE - (n - 1) * PART);
-        const buf = new Uint8Array(len);
+        const buf = part.subarray(0, len);
         await fh.read(buf, 0, len, (n - 1) * PART);
         const url = await getSignedUrl(s3, new UploadPartCommand({ Bucket, Key, UploadId, PartNumber: n }));
         const res = await request(url, 'PUT', buf);
