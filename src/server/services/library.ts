@@ -45,8 +45,12 @@ export async function libraryChanged(deps: AppDeps, studioId: string) {
  * gets the same page, so the web server shares it (src/server/library-cache.ts).
  */
 export function searchLibrary(deps: AppDeps, studioId: string, q: LibraryQuery) {
-  const load = () => querySearchLibrary(deps, studioId, q);
-  return deps.libraryCache ? deps.libraryCache.get(studioId, `listing:${JSON.stringify(q)}`, load) : load();
+  return shared(deps, studioId, `listing:${JSON.stringify(q)}`, () => querySearchLibrary(deps, studioId, q));
+}
+
+/** Through the web server's shared cache when these deps have one (tests' own deps do not). */
+function shared<T>(deps: AppDeps, studioId: string, key: string, load: () => Promise<T>): Promise<T> {
+  return deps.libraryCache ? deps.libraryCache.get(studioId, key, load) : load();
 }
 
 /**
@@ -95,8 +99,7 @@ async function querySearchLibrary(deps: AppDeps, studioId: string, q: LibraryQue
 
 /** Values to offer as filters: coaches, equipment and focus areas in use (shared like pages). */
 export function libraryFacets(deps: AppDeps, studioId: string) {
-  const load = () => computeFacets(deps, studioId);
-  return deps.libraryCache ? deps.libraryCache.get(studioId, 'facets', load) : load();
+  return shared(deps, studioId, 'facets', () => computeFacets(deps, studioId));
 }
 
 async function computeFacets(deps: AppDeps, studioId: string) {
