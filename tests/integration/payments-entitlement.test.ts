@@ -32,18 +32,22 @@ async function access(c: ApiClient) {
   const html = await (await c.get(`/classes/${cls.slug}`)).text();
   const media = await c.get(`/media/${cls.recordingId}/hls/master.m3u8`);
   await media.arrayBuffer();
+  const poster = await c.get(`/media/${cls.recordingId}/poster.jpg`);
+  await poster.arrayBuffer();
   const progress = await c.post(`/api/lessons/${cls.lessonId}/progress`, { positionSeconds: 1, watched: [[0, 1]], event: 'progress' });
   const body = await progress.json();
   return {
     player: html.includes(`/media/${cls.recordingId}/hls/master.m3u8`),
     offer: html.includes('data-testid="membership-offer"'),
     media: media.status,
+    poster: poster.status,
     progress: progress.status,
     progressMessage: body.error?.message as string | undefined,
   };
 }
-const WATCHING = { player: true, offer: false, media: 200, progress: 200 };
-const LOCKED = { player: false, offer: true, media: 404, progress: 403 };
+// The poster shows in the library to every member, watching or not (browsing is free).
+const WATCHING = { player: true, offer: false, media: 200, poster: 200, progress: 200 };
+const LOCKED = { player: false, offer: true, media: 404, poster: 200, progress: 403 };
 
 describe('who may watch', () => {
   it('locks a member without a membership out of player, media and progress', async () => {

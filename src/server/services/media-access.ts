@@ -18,10 +18,14 @@ const CONTENT_TYPES: [RegExp, string][] = [
   [/\.bin$/, 'application/octet-stream'],
 ];
 
+/** Still pictures that show what a class is (library cards, chapter list): browsing, not watching. */
+const PREVIEW_PATH = /^(poster\.jpg|chapters\/[0-9a-f-]{36}\/\d{1,4}\.jpg)$/;
+
 /**
  * Whether a person may fetch a recording's media: staff of its studio always; members only the
- * current recording of a published class of their studio, and only while their membership
- * entitles them to watch. Anything else looks "not found".
+ * current recording of a published class of their studio, and the video itself only while their
+ * membership entitles them to watch (its pictures also without, so they can browse). Anything
+ * else looks "not found".
  */
 export async function mediaKeyFor(
   deps: AppDeps,
@@ -39,7 +43,9 @@ export async function mediaKeyFor(
   if (!row) throw notFound('That file');
   const staff = studio.roles.some((r) => r !== 'member');
   if (!staff && !(row.lessonState === 'published' && row.current === recordingId)) throw notFound('That file');
-  if (!staff && !(userId && (await hasEntitlement(deps, studio.studioId, userId)))) throw notFound('That file');
+  if (!staff && !PREVIEW_PATH.test(path) && !(userId && (await hasEntitlement(deps, studio.studioId, userId)))) {
+    throw notFound('That file');
+  }
   return {
     key: `${recordingPrefix(row.rec)}media/${path}`,
     contentType: CONTENT_TYPES.find(([re]) => re.test(path))?.[1] ?? 'application/octet-stream',
