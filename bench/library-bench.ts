@@ -10,8 +10,8 @@ import { gzipSync } from 'node:zlib';
 import autocannon from 'autocannon';
 import pg from 'pg';
 import { sql } from 'drizzle-orm';
-import { createAppDeps } from '../src/server/app';
-import { hashPassword } from '../src/server/auth/passwords';
+import { createAppDeps } from '~/server/app';
+import { hashPassword } from '~/server/auth/passwords';
 import { generateStudioWithClasses } from '../tests/helpers/many-classes';
 
 const PORT = Number(process.env.ROUNDMARK_BENCH_PORT ?? 4391);

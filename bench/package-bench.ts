@@ -10,9 +10,9 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import { loadavg, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { promisify } from 'node:util';
-import { buildPackageArgs } from '../src/lib/media/hls-ladder';
-import { probeVerdict } from '../src/lib/media/probe-verdict';
-import { probeFile, runFfmpeg } from '../src/server/media/ffmpeg-runner';
+import { buildPackageArgs } from '~/lib/media/hls-ladder';
+import { probeVerdict } from '~/lib/media/probe-verdict';
+import { probeFile, runFfmpeg } from '~/server/media/ffmpeg-runner';
 
 const run = promisify(execFile);
 const seconds = process.env.BENCH_QUICK === '1' ? 30 : 300;

@@ -4,10 +4,10 @@
  * segments and cues in the same run (targets: median < 5 ms, ratio < 10).
  * Run: npx tsx bench/timing-check-bench.ts
  */
-import { expandPlan } from '../src/lib/plan/expand-plan';
-import { planSchema } from '../src/lib/plan/plan-schema';
-import type { Cue, Segment, Timeline } from '../src/lib/timeline/timeline-schema';
-import { checkTiming } from '../src/lib/timing/timing-check';
+import { expandPlan } from '~/lib/plan/expand-plan';
+import { planSchema } from '~/lib/plan/plan-schema';
+import type { Cue, Segment, Timeline } from '~/lib/timeline/timeline-schema';
+import { checkTiming } from '~/lib/timing/timing-check';
 
 // 600 s warm-up, 60 s talk, 9 stations × (6 s work + 3 s rest) × 111 rounds with 8 s round
 // breaks, 600 s cool-down: 2,000 segments, 10,798 s (just under 3 hours).

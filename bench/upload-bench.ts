@@ -16,7 +16,7 @@ import {
   UploadPartCommand,
 } from '@aws-sdk/client-s3';
 import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
-import { createS3, storageConfigFromEnv } from '../src/server/storage';
+import { createS3, storageConfigFromEnv } from '~/server/storage';
 
 const SIZE = Number(process.env.BENCH_UPLOAD_BYTES ?? 1024 ** 3);
 const PART = 16 * 1024 * 1024;

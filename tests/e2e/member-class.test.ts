@@ -7,8 +7,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
 import { BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
-import { sendJob, startQueue } from '../../src/server/queue';
-import { formatClock } from '../../src/lib/time/format-time';
+import { sendJob, startQueue } from '~/server/queue';
+import { formatClock } from '~/lib/time/format-time';
 
 let browser: Browser;
 

@@ -5,8 +5,8 @@ import { expect } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { ApiClient, BASE } from './api-client';
 import { waitForMessage, type StoredMail } from './mail-box';
-import { studios } from '../../src/db/schema';
-import type { AppDeps } from '../../src/server/app';
+import { studios } from '~/db/schema';
+import type { AppDeps } from '~/server/app';
 
 export const PASSWORD = 'a long enough password';
 

@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import type { AppDeps } from '../../src/server/app';
+import type { AppDeps } from '~/server/app';
 
 /**
  * Generates `n` published classes in a new studio with plain SQL (one fake ready recording and

@@ -1,10 +1,10 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { eq, sql } from 'drizzle-orm';
 import { ApiClient, DEMO, signedIn } from '../helpers/api-client';
-import { createAppDeps, SIGN_IN_LIMITS } from '../../src/server/app';
-import { sessions, users } from '../../src/db/schema';
-import { signIn } from '../../src/server/services/accounts';
-import { AppError } from '../../src/server/http/app-error';
+import { createAppDeps, SIGN_IN_LIMITS } from '~/server/app';
+import { sessions, users } from '~/db/schema';
+import { signIn } from '~/server/services/accounts';
+import { AppError } from '~/server/http/app-error';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);
 afterAll(() => deps.pool.end());

@@ -3,8 +3,8 @@
 import { randomUUID } from 'node:crypto';
 import { afterAll, describe, expect, it } from 'vitest';
 import { sql } from 'drizzle-orm';
-import { createAppDeps } from '../../src/server/app';
-import { LibraryCache, notifyLibraryChanged } from '../../src/server/library-cache';
+import { createAppDeps } from '~/server/app';
+import { LibraryCache, notifyLibraryChanged } from '~/server/library-cache';
 import { DEMO, signedIn } from '../helpers/api-client';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);

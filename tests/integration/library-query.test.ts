@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sql } from 'drizzle-orm';
-import { createAppDeps } from '../../src/server/app';
-import { searchLibrary } from '../../src/server/services/library';
-import { libraryQuery, PAGE_SIZE } from '../../src/lib/api/library-schemas';
+import { createAppDeps } from '~/server/app';
+import { searchLibrary } from '~/server/services/library';
+import { libraryQuery, PAGE_SIZE } from '~/lib/api/library-schemas';
 import { generateStudioWithClasses } from '../helpers/many-classes';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);

@@ -7,10 +7,10 @@ import type PgBoss from 'pg-boss';
 import { ApiClient } from '../helpers/api-client';
 import { listMessages, waitForMessage } from '../helpers/mail-box';
 import { expectWellFormed, onlyAppLink, pathOf, signUpMember, studioName } from '../helpers/mail-flow';
-import { createAppDeps } from '../../src/server/app';
-import { billingSettings, sentNotices, studios, subscriptions } from '../../src/db/schema';
-import { sendJob, startQueue } from '../../src/server/queue';
-import { sendPaymentFailed } from '../../src/server/mail/messages';
+import { createAppDeps } from '~/server/app';
+import { billingSettings, sentNotices, studios, subscriptions } from '~/db/schema';
+import { sendJob, startQueue } from '~/server/queue';
+import { sendPaymentFailed } from '~/server/mail/messages';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);
 let studio: { id: string; name: string };

@@ -8,8 +8,8 @@ import { DEMO, signedIn, type ApiClient } from '../helpers/api-client';
 import { listMessages, waitForMessage } from '../helpers/mail-box';
 import { expectWellFormed, onlyAppLink, pathOf, postForm, signUpMember, studioName, verifiedMember } from '../helpers/mail-flow';
 import { createSmallClass } from '../helpers/published-class';
-import { createAppDeps } from '../../src/server/app';
-import { sendJob, startQueue } from '../../src/server/queue';
+import { createAppDeps } from '~/server/app';
+import { sendJob, startQueue } from '~/server/queue';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);
 let dir: string;

@@ -6,9 +6,9 @@ import { and, eq } from 'drizzle-orm';
 import { ApiClient } from '../helpers/api-client';
 import { waitForMessage } from '../helpers/mail-box';
 import { expectWellFormed, freshEmail, onlyAppLink, PASSWORD, pathOf, postForm, signUpMember, studioName } from '../helpers/mail-flow';
-import { createAppDeps } from '../../src/server/app';
-import { emailTokens, sessions } from '../../src/db/schema';
-import { hashToken } from '../../src/server/mail/tokens';
+import { createAppDeps } from '~/server/app';
+import { emailTokens, sessions } from '~/db/schema';
+import { hashToken } from '~/server/mail/tokens';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);
 let studio: string;

@@ -5,8 +5,8 @@ import { eq } from 'drizzle-orm';
 import { ApiClient } from '../helpers/api-client';
 import { waitForMessage } from '../helpers/mail-box';
 import { expectWellFormed, onlyAppLink, pathOf, signUpMember, studioName } from '../helpers/mail-flow';
-import { createAppDeps } from '../../src/server/app';
-import { emailTokens, users } from '../../src/db/schema';
+import { createAppDeps } from '~/server/app';
+import { emailTokens, users } from '~/db/schema';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);
 let studio: string;

@@ -6,8 +6,8 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { createDb } from '../../src/server/db';
-import { webhookEvents } from '../../src/db/schema';
+import { createDb } from '~/server/db';
+import { webhookEvents } from '~/db/schema';
 import type { ApiClient } from '../helpers/api-client';
 import { advance, holdWebhooks, membership, newMember, registerWebhook, subscribe, testStripe, waitForMembership, WEBHOOK_SECRET } from '../helpers/payments';
 

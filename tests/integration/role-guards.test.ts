@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { ApiClient, DEMO, signedIn } from '../helpers/api-client';
-import { createAppDeps } from '../../src/server/app';
-import { lessons, studios, users } from '../../src/db/schema';
+import { createAppDeps } from '~/server/app';
+import { lessons, studios, users } from '~/db/schema';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);
 type Who = keyof typeof DEMO | 'visitor';

@@ -12,11 +12,11 @@ import { ListObjectsV2Command } from '@aws-sdk/client-s3';
 import { ApiClient, DEMO, signedIn } from '../helpers/api-client';
 import { makeClip, ffmpeg } from '../helpers/media-files';
 import { SignedUpload, uploadWhole, waitForRecording } from '../helpers/upload-flow';
-import { createAppDeps } from '../../src/server/app';
-import { createS3 } from '../../src/server/storage';
-import { memberships, recordings, studios, users } from '../../src/db/schema';
-import { decodePeaks } from '../../src/lib/media/peaks';
-import { REASONS } from '../../src/lib/media/probe-verdict';
+import { createAppDeps } from '~/server/app';
+import { createS3 } from '~/server/storage';
+import { memberships, recordings, studios, users } from '~/db/schema';
+import { decodePeaks } from '~/lib/media/peaks';
+import { REASONS } from '~/lib/media/probe-verdict';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);
 const s3 = createS3({

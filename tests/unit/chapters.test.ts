@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { WebVTTParser } from 'webvtt-parser';
-import { buildChapters, chaptersToVtt } from '../../src/lib/publishing/chapters';
-import { isFinished, mergeSpans, workWatchedSeconds } from '../../src/lib/publishing/finish-rule';
-import type { Segment } from '../../src/lib/timeline/timeline-schema';
+import { buildChapters, chaptersToVtt } from '~/lib/publishing/chapters';
+import { isFinished, mergeSpans, workWatchedSeconds } from '~/lib/publishing/finish-rule';
+import type { Segment } from '~/lib/timeline/timeline-schema';
 
 const seg = (id: string, kind: Segment['kind'], start: number, end: number, extra: Partial<Segment> = {}): Segment => ({
   id, kind, startSeconds: start, endSeconds: end, ...extra,

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { classInsights, median } from '../../src/lib/publishing/insights';
-import type { Chapter } from '../../src/lib/publishing/chapters';
+import { classInsights, median } from '~/lib/publishing/insights';
+import type { Chapter } from '~/lib/publishing/chapters';
 
 const chapters: Chapter[] = [
   { index: 0, title: 'Warm-up', kind: 'warmup', startSeconds: 0, endSeconds: 60 },

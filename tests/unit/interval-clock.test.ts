@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { clockAt, clockTimeline } from '../../src/lib/publishing/interval-clock';
-import { expandPlan } from '../../src/lib/plan/expand-plan';
-import { planSchema } from '../../src/lib/plan/plan-schema';
-import type { Segment } from '../../src/lib/timeline/timeline-schema';
+import { clockAt, clockTimeline } from '~/lib/publishing/interval-clock';
+import { expandPlan } from '~/lib/plan/expand-plan';
+import { planSchema } from '~/lib/plan/plan-schema';
+import type { Segment } from '~/lib/timeline/timeline-schema';
 
 // A common strength circuit: 6 stations × (45 s work + 15 s rest) × 3 rounds (common practice, no source).
 const plan = planSchema.parse({

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { escapeHtml, renderMessage } from '../../src/server/mail/templates/layout';
-import { invitationMessage } from '../../src/server/mail/templates/team-messages';
-import { trialEndingMessage } from '../../src/server/mail/templates/member-messages';
+import { escapeHtml, renderMessage } from '~/server/mail/templates/layout';
+import { invitationMessage } from '~/server/mail/templates/team-messages';
+import { trialEndingMessage } from '~/server/mail/templates/member-messages';
 
 describe('mail templates', () => {
   it('escapes names and links in the HTML part but keeps them as typed in the text part', () => {

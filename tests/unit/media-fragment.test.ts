@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { parseTemporalFragment, temporalFragment } from '../../src/lib/publishing/media-fragment';
+import { parseTemporalFragment, temporalFragment } from '~/lib/publishing/media-fragment';
 
 // Cases from the W3C Media Fragments URI 1.0 test cases (temporal dimension), as listed in
 // shared/check-values.md: t=3 is 3 s to the end; t=,7 is 0–7 s; t=, is a syntax error;

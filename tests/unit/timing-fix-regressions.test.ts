@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { planSchema } from '../../src/lib/plan/plan-schema';
-import { checkTiming } from '../../src/lib/timing/timing-check';
-import { applyAllFixes } from '../../src/lib/timing/apply-fix';
-import type { Segment } from '../../src/lib/timeline/timeline-schema';
+import { planSchema } from '~/lib/plan/plan-schema';
+import { checkTiming } from '~/lib/timing/timing-check';
+import { applyAllFixes } from '~/lib/timing/apply-fix';
+import type { Segment } from '~/lib/timeline/timeline-schema';
 
 // Found by the fast-check property "applying every suggested fix converges": a work interval
 // squeezed between two short rests, where neither side alone has room to make it 10 s.

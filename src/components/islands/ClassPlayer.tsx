@@ -3,11 +3,11 @@ import { ChapterList } from './class-player/ChapterList';
 import { IntervalClock } from './class-player/IntervalClock';
 import type { PlayerProps } from './class-player/types';
 import { useProgress } from './class-player/use-progress';
-import { clockAt, clockTimeline } from '../../lib/publishing/interval-clock';
-import { parseTemporalFragment } from '../../lib/publishing/media-fragment';
-import type { Chapter } from '../../lib/publishing/chapters';
-import { formatClock } from '../../lib/time/format-time';
-import { CAUTION_FOOTNOTE, GENERAL_CAUTION } from '../../lib/publishing/member-words';
+import { clockAt, clockTimeline } from '~/lib/publishing/interval-clock';
+import { parseTemporalFragment } from '~/lib/publishing/media-fragment';
+import type { Chapter } from '~/lib/publishing/chapters';
+import { formatClock } from '~/lib/time/format-time';
+import { CAUTION_FOOTNOTE, GENERAL_CAUTION } from '~/lib/publishing/member-words';
 
 /** Index of the chapter playing at `t`. */
 function chapterIndexAt(chapters: Chapter[], t: number): number {

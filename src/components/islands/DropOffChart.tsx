@@ -1,6 +1,6 @@
 import { useEffect, useRef } from 'react';
 import { BarController, BarElement, CategoryScale, Chart, Legend, LinearScale, Tooltip } from 'chart.js';
-import type { ChapterInsight } from '../../lib/publishing/insights';
+import type { ChapterInsight } from '~/lib/publishing/insights';
 
 Chart.register(BarController, BarElement, CategoryScale, LinearScale, Legend, Tooltip);
 

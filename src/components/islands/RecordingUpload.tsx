@@ -4,7 +4,7 @@ import Dashboard from '@uppy/react/dashboard';
 import '@uppy/core/css/style.min.css';
 import '@uppy/dashboard/css/style.min.css';
 import './recording-upload/recording-upload.css';
-import type { RecordingOutput } from '../../lib/api/recording-schemas';
+import type { RecordingOutput } from '~/lib/api/recording-schemas';
 import { createRecordingUppy, type RecordingUppy } from './recording-upload/recording-uppy';
 import { recordingsKey, retryRecording, upsertRecording, useLessonRecordings } from './recording-upload/recordings-api';
 import { formatSize, needsPolling } from './recording-upload/recording-labels';

@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { emailPreferencesInput } from '../../lib/api/mail-schemas';
-import { app } from '../../server/app';
-import { parseFields } from '../../server/http/form';
-import { setEmailPreferences } from '../../server/services/email-preferences';
+import { emailPreferencesInput } from '~/lib/api/mail-schemas';
+import { app } from '~/server/app';
+import { parseFields } from '~/server/http/form';
+import { setEmailPreferences } from '~/server/services/email-preferences';
 
 /** The account page's e-mail choices form: saves, then back to the account page. */
 export const POST: APIRoute = async ({ locals, request, redirect }) => {

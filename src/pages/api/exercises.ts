@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { createExerciseInput, updateExerciseInput } from '../../lib/api/exercise-schemas';
-import { app } from '../../server/app';
-import { endpoint, json, readJson } from '../../server/http/api';
-import { requireRole, STAFF } from '../../server/http/guards';
-import { createExercise, listExercises, updateExercise } from '../../server/services/exercises';
+import { createExerciseInput, updateExerciseInput } from '~/lib/api/exercise-schemas';
+import { app } from '~/server/app';
+import { endpoint, json, readJson } from '~/server/http/api';
+import { requireRole, STAFF } from '~/server/http/guards';
+import { createExercise, listExercises, updateExercise } from '~/server/services/exercises';
 
 export const GET: APIRoute = endpoint(async ({ locals }) => {
   const { studio } = requireRole(locals, STAFF);

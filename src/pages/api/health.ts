@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
 import { sql } from 'drizzle-orm';
-import { app } from '../../server/app';
-import { json } from '../../server/http/api';
-import { storage, storageReachable } from '../../server/storage';
+import { app } from '~/server/app';
+import { json } from '~/server/http/api';
+import { storage, storageReachable } from '~/server/storage';
 
 /** Reports whether the database and the object store answer; 503 when either does not. */
 export const GET: APIRoute = async () => {

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { endpoint, json } from '../../server/http/api';
-import { requireUser } from '../../server/http/guards';
+import { endpoint, json } from '~/server/http/api';
+import { requireUser } from '~/server/http/guards';
 
 export const GET: APIRoute = endpoint(async ({ locals }) => {
   const { user } = requireUser(locals);

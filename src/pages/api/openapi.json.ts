@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { json } from '../../server/http/api';
-import { openApiDocument } from '../../server/openapi/document';
+import { json } from '~/server/http/api';
+import { openApiDocument } from '~/server/openapi/document';
 
 let cached: unknown;
 

@@ -1,9 +1,9 @@
 import { and, eq } from 'drizzle-orm';
 import type Stripe from 'stripe';
-import { billingSettings, promoCodes, subscriptions } from '../../db/schema';
-import type { AppDeps } from '../../server/app';
-import { stripe } from '../../server/payments/stripe-client';
-import { createPromoCode, ensurePrice } from '../../server/services/billing';
+import { billingSettings, promoCodes, subscriptions } from '~/db/schema';
+import type { AppDeps } from '~/server/app';
+import { stripe } from '~/server/payments/stripe-client';
+import { createPromoCode, ensurePrice } from '~/server/services/billing';
 
 /** Demo memberships (invented): Sam active, Lee on trial with the welcome code, Noor cancelled. */
 export const DEMO_MEMBERSHIPS = [

@@ -1,5 +1,5 @@
-import type { ExpectedSchedule } from '../../lib/plan/expand-plan';
-import type { Cue, Segment, Timeline } from '../../lib/timeline/timeline-schema';
+import type { ExpectedSchedule } from '~/lib/plan/expand-plan';
+import type { Cue, Segment, Timeline } from '~/lib/timeline/timeline-schema';
 
 /** Seconds of coach talk before the first planned part and after the last in demo recordings. */
 export const DEMO_INTRO_SECONDS = 15;

@@ -1,6 +1,6 @@
 import { Lucia, TimeSpan } from 'lucia';
 import { DrizzlePostgreSQLAdapter } from '@lucia-auth/adapter-drizzle';
-import { sessions, users } from '../../db/schema';
+import { sessions, users } from '~/db/schema';
 import type { Db } from '../db';
 
 // All of lucia lives in this module (its authors stopped developing it in 2025), so a

@@ -1,4 +1,4 @@
-import type { Role } from '../../lib/api/auth-schemas';
+import type { Role } from '~/lib/api/auth-schemas';
 import type { StudioAccess } from '../services/accounts';
 import { AppError } from './app-error';
 

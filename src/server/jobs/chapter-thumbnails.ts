@@ -1,11 +1,11 @@
 import { mkdir } from 'node:fs/promises';
 import { join } from 'node:path';
 import { eq } from 'drizzle-orm';
-import { lessonVersions, recordings } from '../../db/schema';
+import { lessonVersions, recordings } from '~/db/schema';
 import type { VersionSnapshot } from '../services/publishing';
 import { recordingPrefix } from '../services/recordings';
 import { runFfmpeg } from '../media/ffmpeg-runner';
-import { buildChapterThumbnailArgs } from '../../lib/media/chapter-thumbnail-args';
+import { buildChapterThumbnailArgs } from '~/lib/media/chapter-thumbnail-args';
 import type { JobHandler } from './job-context';
 import { cleanScratch, ensureSource, uploadFolder } from './recording-files';
 

@@ -1,6 +1,6 @@
 import { AbortMultipartUploadCommand } from '@aws-sdk/client-s3';
 import { and, eq, isNotNull, lt, ne } from 'drizzle-orm';
-import { recordings } from '../../db/schema';
+import { recordings } from '~/db/schema';
 import { CANCELLED_REASON, failRecording } from '../services/recordings';
 import type { JobHandler } from './job-context';
 

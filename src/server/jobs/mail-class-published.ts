@@ -1,5 +1,5 @@
 import { and, eq, isNotNull } from 'drizzle-orm';
-import { emailPreferences, memberships, users } from '../../db/schema';
+import { emailPreferences, memberships, users } from '~/db/schema';
 import type { AppDeps } from '../app';
 import { publishedClass, sendClassPublished } from '../mail/messages';
 import type { JobHandler } from './job-context';

@@ -1,5 +1,5 @@
 import { and, eq, gt, lte } from 'drizzle-orm';
-import { subscriptions } from '../../db/schema';
+import { subscriptions } from '~/db/schema';
 import type { AppDeps } from '../app';
 import { sendTrialEnding } from '../mail/messages';
 import type { JobHandler } from './job-context';

@@ -1,10 +1,10 @@
 import { mkdir, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { and, eq, isNull, lt, or, sql } from 'drizzle-orm';
-import { lessons, recordings } from '../../db/schema';
-import { buildPackageArgs, buildPosterArgs, chooseLadder } from '../../lib/media/hls-ladder';
-import { encodePeaks, peaksMaxDb, silentPeaks, DEFAULT_PEAKS_RATE } from '../../lib/media/peaks';
-import { SILENT_AUDIO_DB, WARNINGS } from '../../lib/media/probe-verdict';
+import { lessons, recordings } from '~/db/schema';
+import { buildPackageArgs, buildPosterArgs, chooseLadder } from '~/lib/media/hls-ladder';
+import { encodePeaks, peaksMaxDb, silentPeaks, DEFAULT_PEAKS_RATE } from '~/lib/media/peaks';
+import { SILENT_AUDIO_DB, WARNINGS } from '~/lib/media/probe-verdict';
 import { computeFilePeaks, runFfmpeg } from '../media/ffmpeg-runner';
 import { libraryChanged } from '../services/library';
 import { recordingPrefix } from '../services/recordings';

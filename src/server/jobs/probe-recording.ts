@@ -1,7 +1,7 @@
 import { join } from 'node:path';
 import { eq } from 'drizzle-orm';
-import { recordings } from '../../db/schema';
-import { probeVerdict } from '../../lib/media/probe-verdict';
+import { recordings } from '~/db/schema';
+import { probeVerdict } from '~/lib/media/probe-verdict';
 import { probeFile } from '../media/ffmpeg-runner';
 import { failRecording } from '../services/recordings';
 import type { JobHandler } from './job-context';

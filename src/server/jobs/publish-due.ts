@@ -1,5 +1,5 @@
 import { and, isNotNull, lte } from 'drizzle-orm';
-import { lessons } from '../../db/schema';
+import { lessons } from '~/db/schema';
 import { AppError } from '../http/app-error';
 import { publishLesson } from '../services/publishing';
 import { queueAfterPublish } from '../services/after-publish';

@@ -5,7 +5,7 @@ import { pipeline } from 'node:stream/promises';
 import type { Readable } from 'node:stream';
 import { GetObjectCommand, PutObjectCommand, type S3Client } from '@aws-sdk/client-s3';
 import { eq } from 'drizzle-orm';
-import { recordings } from '../../db/schema';
+import { recordings } from '~/db/schema';
 import type { AppDeps } from '../app';
 
 /** Local scratch folder of one recording inside the worker's work dir. */

@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { sentNotices } from '../../db/schema';
+import { sentNotices } from '~/db/schema';
 import type { AppDeps } from '../app';
 
 /**

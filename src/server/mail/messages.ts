@@ -1,5 +1,5 @@
 import { and, eq } from 'drizzle-orm';
-import { billingSettings, invitations, lessonVersions, lessons, studios, subscriptions, users } from '../../db/schema';
+import { billingSettings, invitations, lessonVersions, lessons, studios, subscriptions, users } from '~/db/schema';
 import type { AppDeps } from '../app';
 import { env } from '../env';
 import { deliver } from './transport';

@@ -9,15 +9,15 @@
  */
 import { spawn } from 'node:child_process';
 import { open, stat, writeFile } from 'node:fs/promises';
-import { buildPeaksArgs, PEAKS_PCM_SAMPLE_RATE } from '../../lib/media/hls-ladder';
-import { createPeaksAccumulator, encodePeaks, type Peaks } from '../../lib/media/peaks';
+import { buildPeaksArgs, PEAKS_PCM_SAMPLE_RATE } from '~/lib/media/hls-ladder';
+import { createPeaksAccumulator, encodePeaks, type Peaks } from '~/lib/media/peaks';
 import {
   parseFfprobeJson,
   sniffContainer,
   type ProbeSummary,
   type UnreadableProbe,
-} from '../../lib/media/probe-verdict';
-import { createProgressParser, type FfmpegProgress } from '../../lib/media/progress';
+} from '~/lib/media/probe-verdict';
+import { createProgressParser, type FfmpegProgress } from '~/lib/media/progress';
 
 /** Program paths; the same variable names fluent-ffmpeg reads, so existing setups keep working. */
 export const FFMPEG_PATH = process.env.FFMPEG_PATH ?? 'ffmpeg';

@@ -1,7 +1,7 @@
 import { OpenAPIRegistry, OpenApiGeneratorV31, type RouteConfig } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
-import { changePasswordInput, signInInput, signUpInput } from '../../lib/api/auth-schemas';
-import { createLessonInput, lessonOutput, updateLessonInput } from '../../lib/api/lesson-schemas';
+import { changePasswordInput, signInInput, signUpInput } from '~/lib/api/auth-schemas';
+import { createLessonInput, lessonOutput, updateLessonInput } from '~/lib/api/lesson-schemas';
 import { apiRoutes } from './routes';
 import { errors, json } from './responses';
 import { billingRoutes } from './routes-billing';

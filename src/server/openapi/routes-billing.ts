@@ -12,7 +12,7 @@ import {
   promoCreateInput,
   promoOutput,
   promoPatchInput,
-} from '../../lib/api/billing-schemas';
+} from '~/lib/api/billing-schemas';
 
 
 /** API routes of the billing feature, described from their zod schemas. */

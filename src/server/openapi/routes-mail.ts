@@ -8,7 +8,7 @@ import {
   invitationOutput,
   resendVerificationOutput,
   resetPasswordInput,
-} from '../../lib/api/mail-schemas';
+} from '~/lib/api/mail-schemas';
 
 
 /** API routes of the mail feature, described from their zod schemas. */

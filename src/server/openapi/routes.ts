@@ -1,13 +1,13 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
 import { errors, json } from './responses';
-import { planSchema } from '../../lib/plan/plan-schema';
-import { timelinePutSchema, segmentSchema, cueSchema } from '../../lib/timeline/timeline-schema';
-import { timelineExportQuery, timelineImportQuery } from '../../lib/api/timeline-file-schemas';
-import { createExerciseInput, exerciseOutput, updateExerciseInput } from '../../lib/api/exercise-schemas';
-import { FINDING_CODES } from '../../lib/timing/finding-types';
-import { createRecordingInput, recordingOutput, signUploadInput } from '../../lib/api/recording-schemas';
-import { progressInput, publishInput } from '../../lib/api/publish-schemas';
+import { planSchema } from '~/lib/plan/plan-schema';
+import { timelinePutSchema, segmentSchema, cueSchema } from '~/lib/timeline/timeline-schema';
+import { timelineExportQuery, timelineImportQuery } from '~/lib/api/timeline-file-schemas';
+import { createExerciseInput, exerciseOutput, updateExerciseInput } from '~/lib/api/exercise-schemas';
+import { FINDING_CODES } from '~/lib/timing/finding-types';
+import { createRecordingInput, recordingOutput, signUploadInput } from '~/lib/api/recording-schemas';
+import { progressInput, publishInput } from '~/lib/api/publish-schemas';
 
 const params = z.object({ id: z.string().uuid().describe('Class id') });
 

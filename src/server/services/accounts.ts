@@ -1,8 +1,8 @@
 import { and, eq, ne, sql } from 'drizzle-orm';
 import { generateIdFromEntropySize, type Session } from 'lucia';
 import type { RateLimiterRes } from 'rate-limiter-flexible';
-import { memberships, sessions, studios, users } from '../../db/schema';
-import type { ChangePasswordInput, Role, SignInInput, SignUpInput } from '../../lib/api/auth-schemas';
+import { memberships, sessions, studios, users } from '~/db/schema';
+import type { ChangePasswordInput, Role, SignInInput, SignUpInput } from '~/lib/api/auth-schemas';
 import { AppError } from '../http/app-error';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import type { AppDeps } from '../app';

@@ -1,6 +1,6 @@
 import { and, asc, desc, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
-import { memberships, subscriptions, users } from '../../db/schema';
-import type { MemberRow, MembersQuery } from '../../lib/api/billing-schemas';
+import { memberships, subscriptions, users } from '~/db/schema';
+import type { MemberRow, MembersQuery } from '~/lib/api/billing-schemas';
 import type { AppDeps } from '../app';
 
 /**

@@ -1,8 +1,8 @@
 import { and, count, eq, isNotNull, sql } from 'drizzle-orm';
 import Stripe from 'stripe';
-import { billingSettings, promoCodes, studios, subscriptions } from '../../db/schema';
-import type { BillingSettingsInput, CheckoutInput, PromoCreateInput } from '../../lib/api/billing-schemas';
-import { formatDay } from '../../lib/billing/membership-words';
+import { billingSettings, promoCodes, studios, subscriptions } from '~/db/schema';
+import type { BillingSettingsInput, CheckoutInput, PromoCreateInput } from '~/lib/api/billing-schemas';
+import { formatDay } from '~/lib/billing/membership-words';
 import { AppError, notFound } from '../http/app-error';
 import type { AppDeps } from '../app';
 import type { BillingDeps } from '../payments/billing-deps';

@@ -1,6 +1,6 @@
 import { and, count, eq, gt, isNull, sql } from 'drizzle-orm';
-import { emailTokens, users } from '../../db/schema';
-import type { ForgotPasswordInput, ResetPasswordInput } from '../../lib/api/mail-schemas';
+import { emailTokens, users } from '~/db/schema';
+import type { ForgotPasswordInput, ResetPasswordInput } from '~/lib/api/mail-schemas';
 import type { AppDeps } from '../app';
 import { hashPassword } from '../auth/passwords';
 import { AppError } from '../http/app-error';

@@ -1,6 +1,6 @@
 import { and, eq } from 'drizzle-orm';
-import { emailPreferences } from '../../db/schema';
-import type { EmailPreferencesInput } from '../../lib/api/mail-schemas';
+import { emailPreferences } from '~/db/schema';
+import type { EmailPreferencesInput } from '~/lib/api/mail-schemas';
 import type { AppDeps } from '../app';
 
 /** A person's optional e-mails from a studio; nothing optional is sent until they opt in. */

@@ -1,5 +1,5 @@
 import { and, eq, inArray } from 'drizzle-orm';
-import { billingSettings, memberships, subscriptions } from '../../db/schema';
+import { billingSettings, memberships, subscriptions } from '~/db/schema';
 import type { AppDeps } from '../app';
 
 const STAFF_ROLES = ['owner', 'coach', 'editor'] as const;

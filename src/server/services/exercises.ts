@@ -1,6 +1,6 @@
 import { and, eq, inArray, sql } from 'drizzle-orm';
-import { exercises } from '../../db/schema';
-import type { CreateExerciseInput, ExerciseOutput, UpdateExerciseInput } from '../../lib/api/exercise-schemas';
+import { exercises } from '~/db/schema';
+import type { CreateExerciseInput, ExerciseOutput, UpdateExerciseInput } from '~/lib/api/exercise-schemas';
 import { AppError, notFound } from '../http/app-error';
 import type { AppDeps } from '../app';
 

@@ -1,7 +1,7 @@
 import { and, desc, eq, gt, inArray, isNull, sql } from 'drizzle-orm';
 import { generateIdFromEntropySize, type Session } from 'lucia';
-import { invitations, memberships, studios, users } from '../../db/schema';
-import type { AcceptAsNewAccountInput, CreateInvitationInput } from '../../lib/api/mail-schemas';
+import { invitations, memberships, studios, users } from '~/db/schema';
+import type { AcceptAsNewAccountInput, CreateInvitationInput } from '~/lib/api/mail-schemas';
 import type { AppDeps } from '../app';
 import { hashPassword } from '../auth/passwords';
 import { AppError, notFound } from '../http/app-error';

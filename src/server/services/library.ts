@@ -1,6 +1,6 @@
 import { and, asc, count, desc, eq, isNotNull, isNull, sql, type SQL } from 'drizzle-orm';
-import { lessons, playProgress, users } from '../../db/schema';
-import { LENGTH_RANGES, PAGE_SIZE, type LibraryQuery } from '../../lib/api/library-schemas';
+import { lessons, playProgress, users } from '~/db/schema';
+import { LENGTH_RANGES, PAGE_SIZE, type LibraryQuery } from '~/lib/api/library-schemas';
 import type { AppDeps } from '../app';
 import { notifyLibraryChanged } from '../library-cache';
 

@@ -1,6 +1,6 @@
 import { and, eq } from 'drizzle-orm';
 import { GetObjectCommand, type S3Client } from '@aws-sdk/client-s3';
-import { lessons, recordings } from '../../db/schema';
+import { lessons, recordings } from '~/db/schema';
 import { notFound } from '../http/app-error';
 import type { AppDeps } from '../app';
 import type { StudioAccess } from './accounts';

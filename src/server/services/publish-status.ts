@@ -1,6 +1,6 @@
 import { and, eq } from 'drizzle-orm';
-import { lessons, recordings } from '../../db/schema';
-import { checkTiming } from '../../lib/timing/timing-check';
+import { lessons, recordings } from '~/db/schema';
+import { checkTiming } from '~/lib/timing/timing-check';
 import type { AppDeps } from '../app';
 import { parseStoredPlan } from './lesson-plans';
 import { listVersions } from './publishing';

@@ -1,10 +1,10 @@
 import { and, desc, eq, inArray, max, sql } from 'drizzle-orm';
-import { exercises, lessons, lessonVersions, recordings, users } from '../../db/schema';
-import { buildChapters, chaptersToVtt, type Chapter } from '../../lib/publishing/chapters';
-import { checkTiming } from '../../lib/timing/timing-check';
-import type { Finding } from '../../lib/timing/finding-types';
-import type { Segment, Cue } from '../../lib/timeline/timeline-schema';
-import type { Plan } from '../../lib/plan/plan-schema';
+import { exercises, lessons, lessonVersions, recordings, users } from '~/db/schema';
+import { buildChapters, chaptersToVtt, type Chapter } from '~/lib/publishing/chapters';
+import { checkTiming } from '~/lib/timing/timing-check';
+import type { Finding } from '~/lib/timing/finding-types';
+import type { Segment, Cue } from '~/lib/timeline/timeline-schema';
+import type { Plan } from '~/lib/plan/plan-schema';
 import { AppError, notFound } from '../http/app-error';
 import type { AppDeps } from '../app';
 import { libraryChanged } from './library';

@@ -9,8 +9,8 @@ import {
   type S3Client,
 } from '@aws-sdk/client-s3';
 import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
-import { lessons, recordings } from '../../db/schema';
-import { fileExtension, type CreateRecordingInput, type RecordingOutput, type SignUploadInput } from '../../lib/api/recording-schemas';
+import { lessons, recordings } from '~/db/schema';
+import { fileExtension, type CreateRecordingInput, type RecordingOutput, type SignUploadInput } from '~/lib/api/recording-schemas';
 import { AppError, notFound } from '../http/app-error';
 import type { AppDeps } from '../app';
 

@@ -1,5 +1,5 @@
 import { and, count, eq } from 'drizzle-orm';
-import { lessons, memberships, users } from '../../db/schema';
+import { lessons, memberships, users } from '~/db/schema';
 import type { AppDeps } from '../app';
 
 /** What the owner sees first: classes by state and the studio's people by role. */

@@ -1,8 +1,8 @@
 import { and, eq, sql } from 'drizzle-orm';
-import { cues, lessons, segments } from '../../db/schema';
-import type { Timeline } from '../../lib/timeline/timeline-schema';
-import { checkTiming } from '../../lib/timing/timing-check';
-import type { CheckResult } from '../../lib/timing/finding-types';
+import { cues, lessons, segments } from '~/db/schema';
+import type { Timeline } from '~/lib/timeline/timeline-schema';
+import { checkTiming } from '~/lib/timing/timing-check';
+import type { CheckResult } from '~/lib/timing/finding-types';
 import { AppError, notFound } from '../http/app-error';
 import type { AppDeps } from '../app';
 import { parseStoredPlan } from './lesson-plans';

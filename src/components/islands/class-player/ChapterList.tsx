@@ -1,5 +1,5 @@
-import type { Chapter } from '../../../lib/publishing/chapters';
-import { formatClock } from '../../../lib/time/format-time';
+import type { Chapter } from '~/lib/publishing/chapters';
+import { formatClock } from '~/lib/time/format-time';
 import type { ExerciseNote } from './types';
 
 const KIND_SWATCH: Record<string, string> = {

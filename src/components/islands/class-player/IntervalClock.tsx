@@ -1,5 +1,5 @@
-import type { ClockState } from '../../../lib/publishing/interval-clock';
-import { formatClock } from '../../../lib/time/format-time';
+import type { ClockState } from '~/lib/publishing/interval-clock';
+import { formatClock } from '~/lib/time/format-time';
 import type { ExerciseNote } from './types';
 
 const KIND_RING: Record<string, string> = {

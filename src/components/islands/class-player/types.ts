@@ -1,5 +1,5 @@
-import type { Chapter } from '../../../lib/publishing/chapters';
-import type { Segment } from '../../../lib/timeline/timeline-schema';
+import type { Chapter } from '~/lib/publishing/chapters';
+import type { Segment } from '~/lib/timeline/timeline-schema';
 
 /** Per-exercise notes the studio wrote, shown when that exercise is on. */
 export interface ExerciseNote {

@@ -1,6 +1,6 @@
 import { useState, useSyncExternalStore } from 'react';
-import type { RecordingOutput } from '../../../lib/api/recording-schemas';
-import { formatClock } from '../../../lib/time/format-time';
+import type { RecordingOutput } from '~/lib/api/recording-schemas';
+import { formatClock } from '~/lib/time/format-time';
 import {
   clampPercent,
   formatDuration,

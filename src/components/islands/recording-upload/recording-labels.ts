@@ -1,5 +1,5 @@
-import type { RecordingOutput } from '../../../lib/api/recording-schemas';
-import { formatClock } from '../../../lib/time/format-time';
+import type { RecordingOutput } from '~/lib/api/recording-schemas';
+import { formatClock } from '~/lib/time/format-time';
 
 /**
  * How a recording's state reads on the class page. `stalled` is not a server state: it is an

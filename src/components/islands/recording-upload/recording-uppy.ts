@@ -1,7 +1,7 @@
 import Uppy, { RestrictionError, type UppyFile } from '@uppy/core';
 import GoldenRetriever from '@uppy/golden-retriever';
 import AwsS3, { type AwsBody } from '@uppy/aws-s3';
-import { ACCEPTED_EXTENSIONS, ACCEPTED_TYPES, fileExtension, type RecordingOutput } from '../../../lib/api/recording-schemas';
+import { ACCEPTED_EXTENSIONS, ACCEPTED_TYPES, fileExtension, type RecordingOutput } from '~/lib/api/recording-schemas';
 import {
   ApiError,
   announcementFor,

@@ -5,7 +5,7 @@ import {
   type CreateRecordingInput,
   type RecordingOutput,
   type SignUploadInput,
-} from '../../../lib/api/recording-schemas';
+} from '~/lib/api/recording-schemas';
 
 export { ApiError } from '../api-client';
 

@@ -1,6 +1,6 @@
 import { memo } from 'react';
-import type { CheckResult } from '../../../lib/timing/finding-types';
-import { formatLength } from '../../../lib/time/format-time';
+import type { CheckResult } from '~/lib/timing/finding-types';
+import { formatLength } from '~/lib/time/format-time';
 
 const BLOCK_WORDS = { warmup: 'Warm-up', circuit: 'Circuit', intervals: 'Intervals', cooldown: 'Cool-down', talk: 'Talk' } as const;
 

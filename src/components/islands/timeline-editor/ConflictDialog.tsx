@@ -1,5 +1,5 @@
 import { useEffect, useRef } from 'react';
-import type { TimelineDifference } from '../../../lib/editor/timeline-diff';
+import type { TimelineDifference } from '~/lib/editor/timeline-diff';
 
 export interface ConflictDialogProps {
   differences: TimelineDifference[];

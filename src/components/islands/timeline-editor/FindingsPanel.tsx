@@ -1,6 +1,6 @@
 import { memo } from 'react';
-import type { CheckResult, Finding, Severity } from '../../../lib/timing/finding-types';
-import { formatEditorTime } from '../../../lib/time/format-time';
+import type { CheckResult, Finding, Severity } from '~/lib/timing/finding-types';
+import { formatEditorTime } from '~/lib/time/format-time';
 
 const SEVERITY: Record<Severity, { word: string; icon: string; className: string }> = {
   error: { word: 'Error', icon: '✕', className: 'bg-error text-chalk' },

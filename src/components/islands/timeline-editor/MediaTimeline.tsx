@@ -3,11 +3,11 @@ import Hls from 'hls.js';
 import WaveSurfer from 'wavesurfer.js';
 import RegionsPlugin, { type Region } from 'wavesurfer.js/dist/plugins/regions.esm.js';
 import TimelinePlugin from 'wavesurfer.js/dist/plugins/timeline.esm.js';
-import type { Peaks } from '../../../lib/media/peaks';
-import type { Segment, Timeline } from '../../../lib/timeline/timeline-schema';
-import type { Edge, Selection } from '../../../lib/editor/editor-state';
-import { KIND_COLOURS, SEGMENT_KIND_PATTERNS, SEGMENT_KIND_TAGS, withAlpha } from '../../../lib/editor/segment-style';
-import { formatClock } from '../../../lib/time/format-time';
+import type { Peaks } from '~/lib/media/peaks';
+import type { Segment, Timeline } from '~/lib/timeline/timeline-schema';
+import type { Edge, Selection } from '~/lib/editor/editor-state';
+import { KIND_COLOURS, SEGMENT_KIND_PATTERNS, SEGMENT_KIND_TAGS, withAlpha } from '~/lib/editor/segment-style';
+import { formatClock } from '~/lib/time/format-time';
 import type { PlayheadStore } from './playhead-store';
 
 export interface MediaTimelineHandle {

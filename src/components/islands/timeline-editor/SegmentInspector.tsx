@@ -1,8 +1,8 @@
 import { useEffect, useState, type RefObject } from 'react';
-import { CUE_KINDS, type Cue, type CueKind, type Segment, type SegmentKind } from '../../../lib/timeline/timeline-schema';
-import type { Edge, Selection } from '../../../lib/editor/editor-state';
-import { CUE_KIND_LABELS, KIND_COLOURS, SEGMENT_KIND_LABELS, SEGMENT_KIND_ORDER } from '../../../lib/editor/segment-style';
-import { formatEditorTime, formatLength } from '../../../lib/time/format-time';
+import { CUE_KINDS, type Cue, type CueKind, type Segment, type SegmentKind } from '~/lib/timeline/timeline-schema';
+import type { Edge, Selection } from '~/lib/editor/editor-state';
+import { CUE_KIND_LABELS, KIND_COLOURS, SEGMENT_KIND_LABELS, SEGMENT_KIND_ORDER } from '~/lib/editor/segment-style';
+import { formatEditorTime, formatLength } from '~/lib/time/format-time';
 
 export interface SegmentInspectorProps {
   selection: Selection;

@@ -1,9 +1,9 @@
 import { memo } from 'react';
-import type { Cue, Segment } from '../../../lib/timeline/timeline-schema';
-import type { Selection } from '../../../lib/editor/editor-state';
-import { CUE_KIND_LABELS, KIND_COLOURS, SEGMENT_KIND_PATTERNS } from '../../../lib/editor/segment-style';
-import { describeSegment } from '../../../lib/editor/timeline-diff';
-import { formatEditorTime } from '../../../lib/time/format-time';
+import type { Cue, Segment } from '~/lib/timeline/timeline-schema';
+import type { Selection } from '~/lib/editor/editor-state';
+import { CUE_KIND_LABELS, KIND_COLOURS, SEGMENT_KIND_PATTERNS } from '~/lib/editor/segment-style';
+import { describeSegment } from '~/lib/editor/timeline-diff';
+import { formatEditorTime } from '~/lib/time/format-time';
 
 interface RowProps {
   segment: Segment;

@@ -1,4 +1,4 @@
-import { SHORTCUTS } from '../../../lib/editor/shortcuts';
+import { SHORTCUTS } from '~/lib/editor/shortcuts';
 
 /** The keyboard help panel, generated from the same table the key handler uses. */
 export default function ShortcutHelp({ onClose }: { onClose(): void }) {

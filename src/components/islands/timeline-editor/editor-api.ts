@@ -1,7 +1,7 @@
 /** The timeline editor's calls to our API (same origin, session cookie) and to the media proxy. */
-import { planSchema, type Plan } from '../../../lib/plan/plan-schema';
-import { timelineContentSchema, type Timeline } from '../../../lib/timeline/timeline-schema';
-import { decodePeaks, type Peaks } from '../../../lib/media/peaks';
+import { planSchema, type Plan } from '~/lib/plan/plan-schema';
+import { timelineContentSchema, type Timeline } from '~/lib/timeline/timeline-schema';
+import { decodePeaks, type Peaks } from '~/lib/media/peaks';
 import { apiCall, ApiError } from '../api-client';
 
 /** Calls our API; the messages remind that the marks stay on this device. */

@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { changePasswordInput } from '../../../lib/api/auth-schemas';
-import { app } from '../../../server/app';
-import { endpoint, readJson } from '../../../server/http/api';
-import { requireUser } from '../../../server/http/guards';
-import { changePassword } from '../../../server/services/accounts';
+import { changePasswordInput } from '~/lib/api/auth-schemas';
+import { app } from '~/server/app';
+import { endpoint, readJson } from '~/server/http/api';
+import { requireUser } from '~/server/http/guards';
+import { changePassword } from '~/server/services/accounts';
 
 export const POST: APIRoute = endpoint(async ({ locals, request }) => {
   const { user, session } = requireUser(locals);

@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { forgotPasswordInput } from '../../../lib/api/mail-schemas';
-import { app } from '../../../server/app';
-import { endpoint, json, readJson } from '../../../server/http/api';
-import { FORGOT_PASSWORD_ANSWER, requestPasswordReset } from '../../../server/services/email-auth';
+import { forgotPasswordInput } from '~/lib/api/mail-schemas';
+import { app } from '~/server/app';
+import { endpoint, json, readJson } from '~/server/http/api';
+import { FORGOT_PASSWORD_ANSWER, requestPasswordReset } from '~/server/services/email-auth';
 
 /** Sends a reset link if the address has an account; the answer is the same either way. */
 export const POST: APIRoute = endpoint(async ({ request }) => {

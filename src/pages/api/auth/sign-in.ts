@@ -1,10 +1,10 @@
 import type { APIRoute } from 'astro';
-import { signInInput } from '../../../lib/api/auth-schemas';
-import { app } from '../../../server/app';
-import { endpoint, json, readJson } from '../../../server/http/api';
-import { setSessionCookie } from '../../../server/http/session-cookie';
-import { homePath } from '../../../server/http/guards';
-import { signIn, studioAccess } from '../../../server/services/accounts';
+import { signInInput } from '~/lib/api/auth-schemas';
+import { app } from '~/server/app';
+import { endpoint, json, readJson } from '~/server/http/api';
+import { setSessionCookie } from '~/server/http/session-cookie';
+import { homePath } from '~/server/http/guards';
+import { signIn, studioAccess } from '~/server/services/accounts';
 
 export const POST: APIRoute = endpoint(async ({ request, cookies, clientAddress }) => {
   const input = await readJson(request, signInInput);

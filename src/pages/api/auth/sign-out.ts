@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { app } from '../../../server/app';
-import { endpoint, json } from '../../../server/http/api';
-import { clearSessionCookie } from '../../../server/http/session-cookie';
-import { requireUser } from '../../../server/http/guards';
-import { signOut, signOutEverywhere } from '../../../server/services/accounts';
+import { app } from '~/server/app';
+import { endpoint, json } from '~/server/http/api';
+import { clearSessionCookie } from '~/server/http/session-cookie';
+import { requireUser } from '~/server/http/guards';
+import { signOut, signOutEverywhere } from '~/server/services/accounts';
 
 /** Ends this session, or every session of the user with `?everywhere=1`. */
 export const POST: APIRoute = endpoint(async ({ locals, cookies, url }) => {

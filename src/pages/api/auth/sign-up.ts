@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { signUpInput } from '../../../lib/api/auth-schemas';
-import { app } from '../../../server/app';
-import { endpoint, json, readJson } from '../../../server/http/api';
-import { setSessionCookie } from '../../../server/http/session-cookie';
-import { signUp } from '../../../server/services/accounts';
+import { signUpInput } from '~/lib/api/auth-schemas';
+import { app } from '~/server/app';
+import { endpoint, json, readJson } from '~/server/http/api';
+import { setSessionCookie } from '~/server/http/session-cookie';
+import { signUp } from '~/server/services/accounts';
 
 export const POST: APIRoute = endpoint(async ({ request, cookies }) => {
   const input = await readJson(request, signUpInput);

@@ -1,10 +1,10 @@
 import type { APIRoute } from 'astro';
-import { membersQuery } from '../../../lib/api/billing-schemas';
-import { membersCsv } from '../../../lib/billing/members-csv';
-import { app } from '../../../server/app';
-import { endpoint, json, parseWith } from '../../../server/http/api';
-import { requireRole } from '../../../server/http/guards';
-import { listMembers } from '../../../server/services/billing-members';
+import { membersQuery } from '~/lib/api/billing-schemas';
+import { membersCsv } from '~/lib/billing/members-csv';
+import { app } from '~/server/app';
+import { endpoint, json, parseWith } from '~/server/http/api';
+import { requireRole } from '~/server/http/guards';
+import { listMembers } from '~/server/services/billing-members';
 
 /** The members table (owner); `?format=csv` downloads it. */
 export const GET: APIRoute = endpoint(async ({ locals, url }) => {

@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { app } from '../../../server/app';
-import { endpoint, json } from '../../../server/http/api';
-import { requireRole } from '../../../server/http/guards';
-import { membershipOf } from '../../../server/services/billing';
+import { app } from '~/server/app';
+import { endpoint, json } from '~/server/http/api';
+import { requireRole } from '~/server/http/guards';
+import { membershipOf } from '~/server/services/billing';
 
 /** The signed-in member's own membership. */
 export const GET: APIRoute = endpoint(async ({ locals }) => {

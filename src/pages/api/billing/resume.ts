@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { endpoint, json } from '../../../server/http/api';
-import { requireRole } from '../../../server/http/guards';
-import { billingDeps } from '../../../server/payments/billing-deps';
-import { setCancelAtPeriodEnd } from '../../../server/services/billing';
+import { endpoint, json } from '~/server/http/api';
+import { requireRole } from '~/server/http/guards';
+import { billingDeps } from '~/server/payments/billing-deps';
+import { setCancelAtPeriodEnd } from '~/server/services/billing';
 
 /** Takes back a cancellation before the period ends. */
 export const POST: APIRoute = endpoint(async ({ locals }) => {

@@ -1,10 +1,10 @@
 import type { APIRoute } from 'astro';
-import { invitationParams } from '../../../lib/api/mail-schemas';
-import { app } from '../../../server/app';
-import { endpoint } from '../../../server/http/api';
-import { notFound } from '../../../server/http/app-error';
-import { requireRole } from '../../../server/http/guards';
-import { revokeInvitation } from '../../../server/services/invitations';
+import { invitationParams } from '~/lib/api/mail-schemas';
+import { app } from '~/server/app';
+import { endpoint } from '~/server/http/api';
+import { notFound } from '~/server/http/app-error';
+import { requireRole } from '~/server/http/guards';
+import { revokeInvitation } from '~/server/services/invitations';
 
 /** Withdraws a pending invitation (owner); its link stops working. */
 export const DELETE: APIRoute = endpoint(async ({ locals, params }) => {

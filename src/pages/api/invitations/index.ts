@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { createInvitationInput } from '../../../lib/api/mail-schemas';
-import { app } from '../../../server/app';
-import { endpoint, json, readJson } from '../../../server/http/api';
-import { requireRole } from '../../../server/http/guards';
-import { inviteStaff, teamOverview } from '../../../server/services/invitations';
+import { createInvitationInput } from '~/lib/api/mail-schemas';
+import { app } from '~/server/app';
+import { endpoint, json, readJson } from '~/server/http/api';
+import { requireRole } from '~/server/http/guards';
+import { inviteStaff, teamOverview } from '~/server/services/invitations';
 
 const view = (i: { id: string; email: string; role: string; expiresAt: Date; createdAt: Date }) => ({
   id: i.id,

@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { updateLessonInput } from '../../../lib/api/lesson-schemas';
-import { app } from '../../../server/app';
-import { endpoint, json, readJson } from '../../../server/http/api';
-import { PUBLISHERS, requireRole, STAFF } from '../../../server/http/guards';
-import { deleteLesson, getLesson, updateLesson } from '../../../server/services/lessons';
+import { updateLessonInput } from '~/lib/api/lesson-schemas';
+import { app } from '~/server/app';
+import { endpoint, json, readJson } from '~/server/http/api';
+import { PUBLISHERS, requireRole, STAFF } from '~/server/http/guards';
+import { deleteLesson, getLesson, updateLesson } from '~/server/services/lessons';
 
 export const GET: APIRoute = endpoint(async ({ locals, params }) => {
   const { studio } = requireRole(locals, STAFF);

@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { createLessonInput } from '../../../lib/api/lesson-schemas';
-import { app } from '../../../server/app';
-import { endpoint, json, readJson } from '../../../server/http/api';
-import { requireRole, STAFF } from '../../../server/http/guards';
-import { createLesson, listLessons } from '../../../server/services/lessons';
+import { createLessonInput } from '~/lib/api/lesson-schemas';
+import { app } from '~/server/app';
+import { endpoint, json, readJson } from '~/server/http/api';
+import { requireRole, STAFF } from '~/server/http/guards';
+import { createLesson, listLessons } from '~/server/services/lessons';
 
 export const GET: APIRoute = endpoint(async ({ locals }) => {
   const { studio } = requireRole(locals, STAFF);

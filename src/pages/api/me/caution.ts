@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { app } from '../../../server/app';
-import { endpoint, json } from '../../../server/http/api';
-import { requireUser } from '../../../server/http/guards';
-import { acknowledgeCaution } from '../../../server/services/member-classes';
+import { app } from '~/server/app';
+import { endpoint, json } from '~/server/http/api';
+import { requireUser } from '~/server/http/guards';
+import { acknowledgeCaution } from '~/server/services/member-classes';
 
 /** Records that the member read the general exercise caution before their first play. */
 export const POST: APIRoute = endpoint(async ({ locals }) => {

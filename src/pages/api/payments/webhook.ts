@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { endpoint, json } from '../../../server/http/api';
-import { billingDeps } from '../../../server/payments/billing-deps';
-import { webhookSecret } from '../../../server/payments/stripe-client';
-import { receiveWebhook } from '../../../server/services/billing-webhooks';
+import { endpoint, json } from '~/server/http/api';
+import { billingDeps } from '~/server/payments/billing-deps';
+import { webhookSecret } from '~/server/payments/stripe-client';
+import { receiveWebhook } from '~/server/services/billing-webhooks';
 
 /**
  * The payment provider's signed events. The raw body is verified as received (re-serialised

@@ -1,12 +1,12 @@
 import type { APIRoute } from 'astro';
 import { eq } from 'drizzle-orm';
-import { lessonVersions } from '../../../db/schema';
-import { app } from '../../../server/app';
-import { endpoint } from '../../../server/http/api';
-import { requireUser } from '../../../server/http/guards';
-import { AppError } from '../../../server/http/app-error';
-import { publishedClass } from '../../../server/services/member-classes';
-import { hasEntitlement } from '../../../server/services/entitlement';
+import { lessonVersions } from '~/db/schema';
+import { app } from '~/server/app';
+import { endpoint } from '~/server/http/api';
+import { requireUser } from '~/server/http/guards';
+import { AppError } from '~/server/http/app-error';
+import { publishedClass } from '~/server/services/member-classes';
+import { hasEntitlement } from '~/server/services/entitlement';
 
 /** The published version's WebVTT chapters file, for the player's <track kind="chapters">. */
 export const GET: APIRoute = endpoint(async ({ locals, params }) => {

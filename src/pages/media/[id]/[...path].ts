@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { app } from '../../../server/app';
-import { endpoint } from '../../../server/http/api';
-import { requireUser } from '../../../server/http/guards';
-import { mediaKeyFor, streamObject } from '../../../server/services/media-access';
-import { storage } from '../../../server/storage';
+import { app } from '~/server/app';
+import { endpoint } from '~/server/http/api';
+import { requireUser } from '~/server/http/guards';
+import { mediaKeyFor, streamObject } from '~/server/services/media-access';
+import { storage } from '~/server/storage';
 
 /**
  * Recording media (HLS playlists and segments, poster, peaks) through an authenticated proxy:

@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { app } from '../../../../server/app';
-import { endpoint, json } from '../../../../server/http/api';
-import { requireUser } from '../../../../server/http/guards';
-import { sendVerificationLink } from '../../../../server/services/email-auth';
+import { app } from '~/server/app';
+import { endpoint, json } from '~/server/http/api';
+import { requireUser } from '~/server/http/guards';
+import { sendVerificationLink } from '~/server/services/email-auth';
 
 /** Sends a new "confirm your address" link to the signed-in person (no body). */
 export const POST: APIRoute = endpoint(async ({ locals }) => {

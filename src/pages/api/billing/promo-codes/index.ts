@@ -1,10 +1,10 @@
 import type { APIRoute } from 'astro';
-import { promoCreateInput } from '../../../../lib/api/billing-schemas';
-import { app } from '../../../../server/app';
-import { endpoint, json, readJson } from '../../../../server/http/api';
-import { requireRole } from '../../../../server/http/guards';
-import { billingDeps } from '../../../../server/payments/billing-deps';
-import { createPromoCode, listPromoCodes } from '../../../../server/services/billing';
+import { promoCreateInput } from '~/lib/api/billing-schemas';
+import { app } from '~/server/app';
+import { endpoint, json, readJson } from '~/server/http/api';
+import { requireRole } from '~/server/http/guards';
+import { billingDeps } from '~/server/payments/billing-deps';
+import { createPromoCode, listPromoCodes } from '~/server/services/billing';
 
 export const GET: APIRoute = endpoint(async ({ locals }) => {
   const { studio } = requireRole(locals, ['owner']);

@@ -1,10 +1,10 @@
 import type { APIRoute } from 'astro';
-import { planSchema } from '../../../../lib/plan/plan-schema';
-import { app } from '../../../../server/app';
-import { endpoint, json, readJson } from '../../../../server/http/api';
-import { requireRole, STAFF } from '../../../../server/http/guards';
-import { getLesson } from '../../../../server/services/lessons';
-import { getPlan, putPlan } from '../../../../server/services/lesson-plans';
+import { planSchema } from '~/lib/plan/plan-schema';
+import { app } from '~/server/app';
+import { endpoint, json, readJson } from '~/server/http/api';
+import { requireRole, STAFF } from '~/server/http/guards';
+import { getLesson } from '~/server/services/lessons';
+import { getPlan, putPlan } from '~/server/services/lesson-plans';
 
 export const GET: APIRoute = endpoint(async ({ locals, params }) => {
   const { studio } = requireRole(locals, STAFF);

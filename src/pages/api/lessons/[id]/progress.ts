@@ -1,10 +1,10 @@
 import type { APIRoute } from 'astro';
-import { progressInput } from '../../../../lib/api/publish-schemas';
-import { app } from '../../../../server/app';
-import { AppError } from '../../../../server/http/app-error';
-import { endpoint, json, parseWith } from '../../../../server/http/api';
-import { requireUser } from '../../../../server/http/guards';
-import { progressOf, recordProgress } from '../../../../server/services/member-classes';
+import { progressInput } from '~/lib/api/publish-schemas';
+import { app } from '~/server/app';
+import { AppError } from '~/server/http/app-error';
+import { endpoint, json, parseWith } from '~/server/http/api';
+import { requireUser } from '~/server/http/guards';
+import { progressOf, recordProgress } from '~/server/services/member-classes';
 
 export const GET: APIRoute = endpoint(async ({ locals, params }) => {
   const { user } = requireUser(locals);

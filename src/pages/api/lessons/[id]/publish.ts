@@ -1,13 +1,13 @@
 import type { APIRoute } from 'astro';
-import { publishInput } from '../../../../lib/api/publish-schemas';
-import { app } from '../../../../server/app';
-import { endpoint, json, readJson } from '../../../../server/http/api';
-import { PUBLISHERS, requireRole } from '../../../../server/http/guards';
-import { AppError } from '../../../../server/http/app-error';
-import { queue } from '../../../../server/queue';
-import { queueAfterPublish } from '../../../../server/services/after-publish';
-import { env } from '../../../../server/env';
-import { publishLesson, schedulePublish } from '../../../../server/services/publishing';
+import { publishInput } from '~/lib/api/publish-schemas';
+import { app } from '~/server/app';
+import { endpoint, json, readJson } from '~/server/http/api';
+import { PUBLISHERS, requireRole } from '~/server/http/guards';
+import { AppError } from '~/server/http/app-error';
+import { queue } from '~/server/queue';
+import { queueAfterPublish } from '~/server/services/after-publish';
+import { env } from '~/server/env';
+import { publishLesson, schedulePublish } from '~/server/services/publishing';
 
 /** Publishes now (coach, owner) or at a set time (owner only). Editors prepare but do not publish. */
 export const POST: APIRoute = endpoint(async ({ locals, params, request }) => {

@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { createRecordingInput } from '../../../../lib/api/recording-schemas';
-import { endpoint, json, readJson } from '../../../../server/http/api';
-import { requireRole, STAFF } from '../../../../server/http/guards';
-import { mediaDeps } from '../../../../server/media-deps';
-import { createRecording, listRecordings } from '../../../../server/services/recordings';
+import { createRecordingInput } from '~/lib/api/recording-schemas';
+import { endpoint, json, readJson } from '~/server/http/api';
+import { requireRole, STAFF } from '~/server/http/guards';
+import { mediaDeps } from '~/server/media-deps';
+import { createRecording, listRecordings } from '~/server/services/recordings';
 
 export const GET: APIRoute = endpoint(async ({ locals, params }) => {
   const { studio } = requireRole(locals, STAFF);

@@ -1,10 +1,10 @@
 import type { APIRoute } from 'astro';
-import { timelinePutSchema } from '../../../../lib/timeline/timeline-schema';
-import { app } from '../../../../server/app';
-import { endpoint, json, readJson } from '../../../../server/http/api';
-import { requireRole, STAFF } from '../../../../server/http/guards';
-import { getLesson } from '../../../../server/services/lessons';
-import { getTimeline, putTimeline } from '../../../../server/services/timelines';
+import { timelinePutSchema } from '~/lib/timeline/timeline-schema';
+import { app } from '~/server/app';
+import { endpoint, json, readJson } from '~/server/http/api';
+import { requireRole, STAFF } from '~/server/http/guards';
+import { getLesson } from '~/server/services/lessons';
+import { getTimeline, putTimeline } from '~/server/services/timelines';
 
 export const GET: APIRoute = endpoint(async ({ locals, params }) => {
   const { studio } = requireRole(locals, STAFF);

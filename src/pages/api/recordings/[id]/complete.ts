@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { endpoint, json } from '../../../../server/http/api';
-import { requireRole, STAFF } from '../../../../server/http/guards';
-import { mediaDeps } from '../../../../server/media-deps';
-import { completeUpload } from '../../../../server/services/recordings';
+import { endpoint, json } from '~/server/http/api';
+import { requireRole, STAFF } from '~/server/http/guards';
+import { mediaDeps } from '~/server/media-deps';
+import { completeUpload } from '~/server/services/recordings';
 
 /** The browser reports the store finished the upload; the server checks it and starts processing. */
 export const POST: APIRoute = endpoint(async ({ locals, params }) => {

@@ -1,10 +1,10 @@
 import type { APIRoute } from 'astro';
 import { eq } from 'drizzle-orm';
-import { lessons } from '../../../../db/schema';
-import { endpoint, json } from '../../../../server/http/api';
-import { requireRole, STAFF } from '../../../../server/http/guards';
-import { mediaDeps } from '../../../../server/media-deps';
-import { recordingOf, toRecordingOutput } from '../../../../server/services/recordings';
+import { lessons } from '~/db/schema';
+import { endpoint, json } from '~/server/http/api';
+import { requireRole, STAFF } from '~/server/http/guards';
+import { mediaDeps } from '~/server/media-deps';
+import { recordingOf, toRecordingOutput } from '~/server/services/recordings';
 
 /** State, step and progress of one recording (the class page polls this). */
 export const GET: APIRoute = endpoint(async ({ locals, params }) => {

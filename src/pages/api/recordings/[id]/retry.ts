@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { endpoint, json } from '../../../../server/http/api';
-import { requireRole, STAFF } from '../../../../server/http/guards';
-import { mediaDeps } from '../../../../server/media-deps';
-import { retryRecording } from '../../../../server/services/recordings';
+import { endpoint, json } from '~/server/http/api';
+import { requireRole, STAFF } from '~/server/http/guards';
+import { mediaDeps } from '~/server/media-deps';
+import { retryRecording } from '~/server/services/recordings';
 
 export const POST: APIRoute = endpoint(async ({ locals, params }) => {
   const { studio } = requireRole(locals, STAFF);

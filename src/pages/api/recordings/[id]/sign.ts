@@ -1,9 +1,9 @@
 import type { APIRoute } from 'astro';
-import { signUploadInput } from '../../../../lib/api/recording-schemas';
-import { endpoint, json, readJson } from '../../../../server/http/api';
-import { requireRole, STAFF } from '../../../../server/http/guards';
-import { mediaDeps } from '../../../../server/media-deps';
-import { signUpload } from '../../../../server/services/recordings';
+import { signUploadInput } from '~/lib/api/recording-schemas';
+import { endpoint, json, readJson } from '~/server/http/api';
+import { requireRole, STAFF } from '~/server/http/guards';
+import { mediaDeps } from '~/server/media-deps';
+import { signUpload } from '~/server/services/recordings';
 
 /** Presigns one S3 request of the browser's multipart upload. */
 export const POST: APIRoute = endpoint(async ({ locals, params, request }) => {

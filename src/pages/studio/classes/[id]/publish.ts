@@ -1,11 +1,11 @@
 import type { APIRoute } from 'astro';
-import { app } from '../../../../server/app';
-import { AppError } from '../../../../server/http/app-error';
-import { guardPage, PUBLISHERS } from '../../../../server/http/guards';
-import { env } from '../../../../server/env';
-import { queue } from '../../../../server/queue';
-import { queueAfterPublish } from '../../../../server/services/after-publish';
-import { publishLesson, schedulePublish, setLessonState } from '../../../../server/services/publishing';
+import { app } from '~/server/app';
+import { AppError } from '~/server/http/app-error';
+import { guardPage, PUBLISHERS } from '~/server/http/guards';
+import { env } from '~/server/env';
+import { queue } from '~/server/queue';
+import { queueAfterPublish } from '~/server/services/after-publish';
+import { publishLesson, schedulePublish, setLessonState } from '~/server/services/publishing';
 
 /** The publishing panel's form: publish, schedule (owner), unpublish or archive, then back to the class page. */
 export const POST: APIRoute = async ({ locals, params, request, redirect }) => {

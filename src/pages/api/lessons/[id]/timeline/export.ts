@@ -1,13 +1,13 @@
 import type { APIRoute } from 'astro';
-import { timelineExportQuery } from '../../../../../lib/api/timeline-file-schemas';
-import { timelineToCsv } from '../../../../../lib/timeline/timeline-csv';
-import { timelineToWebVtt } from '../../../../../lib/timeline/timeline-webvtt';
-import { app } from '../../../../../server/app';
-import { AppError } from '../../../../../server/http/app-error';
-import { endpoint, parseWith } from '../../../../../server/http/api';
-import { requireRole, STAFF } from '../../../../../server/http/guards';
-import { getLesson } from '../../../../../server/services/lessons';
-import { getTimeline } from '../../../../../server/services/timelines';
+import { timelineExportQuery } from '~/lib/api/timeline-file-schemas';
+import { timelineToCsv } from '~/lib/timeline/timeline-csv';
+import { timelineToWebVtt } from '~/lib/timeline/timeline-webvtt';
+import { app } from '~/server/app';
+import { AppError } from '~/server/http/app-error';
+import { endpoint, parseWith } from '~/server/http/api';
+import { requireRole, STAFF } from '~/server/http/guards';
+import { getLesson } from '~/server/services/lessons';
+import { getTimeline } from '~/server/services/timelines';
 
 export const GET: APIRoute = endpoint(async ({ locals, params, url }) => {
   const { studio } = requireRole(locals, STAFF);

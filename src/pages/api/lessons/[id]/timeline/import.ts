@@ -1,13 +1,13 @@
 import type { APIRoute } from 'astro';
-import { MAX_TIMELINE_FILE_BYTES, timelineImportQuery } from '../../../../../lib/api/timeline-file-schemas';
-import { timelineFromCsv } from '../../../../../lib/timeline/timeline-csv';
-import { timelineFromWebVtt } from '../../../../../lib/timeline/timeline-webvtt';
-import { app } from '../../../../../server/app';
-import { AppError } from '../../../../../server/http/app-error';
-import { endpoint, json, parseWith } from '../../../../../server/http/api';
-import { requireRole, STAFF } from '../../../../../server/http/guards';
-import { getLesson } from '../../../../../server/services/lessons';
-import { putTimeline } from '../../../../../server/services/timelines';
+import { MAX_TIMELINE_FILE_BYTES, timelineImportQuery } from '~/lib/api/timeline-file-schemas';
+import { timelineFromCsv } from '~/lib/timeline/timeline-csv';
+import { timelineFromWebVtt } from '~/lib/timeline/timeline-webvtt';
+import { app } from '~/server/app';
+import { AppError } from '~/server/http/app-error';
+import { endpoint, json, parseWith } from '~/server/http/api';
+import { requireRole, STAFF } from '~/server/http/guards';
+import { getLesson } from '~/server/services/lessons';
+import { putTimeline } from '~/server/services/timelines';
 
 /** Replaces the timeline with a CSV or WebVTT chapters file; a bad file imports nothing. */
 export const POST: APIRoute = endpoint(async ({ locals, params, request, url }) => {
