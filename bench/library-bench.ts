@@ -38,7 +38,7 @@ await deps.db.execute(sql`insert into memberships (user_id, studio_id, role) val
 await deps.db.execute(sql`insert into subscriptions (studio_id, user_id, status, current_period_end) values (${studioId}::uuid, 'bench-member', 'active', now() + interval '30 days')`);
 await deps.pool.end();
 
-const server = spawn('node', ['dist/server/entry.mjs'], { env: { ...process.env, DATABASE_URL: benchUrl, HOST: '127.0.0.1', PORT: String(PORT) }, stdio: 'ignore' });
+const server = spawn('node', ['--import', 'tsx', 'src/serve.ts'], { env: { ...process.env, DATABASE_URL: benchUrl, HOST: '127.0.0.1', PORT: String(PORT) }, stdio: 'ignore' });
 try {
   for (let i = 0; i < 100; i++) {
     if (await fetch(`${base}/api/health`).then((r) => r.ok).catch(() => false)) break;

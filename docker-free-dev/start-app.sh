@@ -22,4 +22,4 @@ worker=$!
 trap 'kill $worker 2>/dev/null; wait $worker 2>/dev/null' EXIT INT TERM
 say "Roundmark is starting on $PUBLIC_BASE_URL (demo accounts in README.md); the job worker logs to .data/run/worker.log."
 say "Ctrl+C stops the app and the worker; 'npm run services -- down' stops the services."
-node dist/server/entry.mjs
+node --import tsx src/serve.ts

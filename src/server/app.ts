@@ -19,6 +19,12 @@ export interface AppDeps {
 export interface SignInLimits {
   perAccount: RateLimiterPostgres;
   perAddress: RateLimiterPostgres;
+  /** Sign-ups per e-mail address typed and per client address (every attempt counts). */
+  signUpPerAccount: RateLimiterPostgres;
+  signUpPerAddress: RateLimiterPostgres;
+  /** Password-reset requests per e-mail address typed and per client address (every attempt counts). */
+  resetPerAccount: RateLimiterPostgres;
+  resetPerAddress: RateLimiterPostgres;
 }
 
 // Failed sign-ins allowed before a pause: 5 per account and 30 per address in 15 minutes.
@@ -28,11 +34,26 @@ export const SIGN_IN_LIMITS = {
   address: { points: 30, duration: 15 * 60 },
 };
 
+// Requests that send mail or create accounts, counted whether they succeed or not, so the forms
+// cannot flood an inbox or fill the database. Common practice, no source.
+export const SIGN_UP_LIMITS = {
+  account: { points: 3, duration: 60 * 60 },
+  address: { points: 10, duration: 60 * 60 },
+};
+export const RESET_LIMITS = {
+  account: { points: 5, duration: 15 * 60 },
+  address: { points: 20, duration: 15 * 60 },
+};
+
 function signInLimits(pool: pg.Pool): SignInLimits {
   const common = { storeClient: pool, tableName: 'rate_limits', tableCreated: true, clearExpiredByTimeout: false };
   return {
     perAccount: new RateLimiterPostgres({ ...common, keyPrefix: 'signin-account', ...SIGN_IN_LIMITS.account }),
     perAddress: new RateLimiterPostgres({ ...common, keyPrefix: 'signin-address', ...SIGN_IN_LIMITS.address }),
+    signUpPerAccount: new RateLimiterPostgres({ ...common, keyPrefix: 'signup-account', ...SIGN_UP_LIMITS.account }),
+    signUpPerAddress: new RateLimiterPostgres({ ...common, keyPrefix: 'signup-address', ...SIGN_UP_LIMITS.address }),
+    resetPerAccount: new RateLimiterPostgres({ ...common, keyPrefix: 'reset-account', ...RESET_LIMITS.account }),
+    resetPerAddress: new RateLimiterPostgres({ ...common, keyPrefix: 'reset-address', ...RESET_LIMITS.address }),
   };
 }
 

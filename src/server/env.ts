@@ -31,6 +31,16 @@ const envSchema = z.object({
   PAYMENTS_API_URL: z.string().url().optional(),
   PAYMENTS_SECRET_KEY: z.string().min(1).optional(),
   PAYMENTS_WEBHOOK_SECRET: z.string().min(1).optional(),
+  /**
+   * Reverse proxies whose X-Forwarded-For hops are believed, comma-separated: addresses, CIDR
+   * ranges, or proxy-addr's names (loopback, linklocal, uniquelocal). Empty: the socket's address
+   * is the client's, and X-Forwarded-For is ignored.
+   */
+  TRUSTED_PROXIES: z
+    .string()
+    .default('')
+    .transform((v) => v.split(',').map((s) => s.trim()).filter(Boolean))
+    .pipe(z.array(z.string().regex(/^(loopback|linklocal|uniquelocal|[0-9a-fA-F:.]+(\/\d{1,3})?)$/, 'use addresses, CIDR ranges, loopback, linklocal or uniquelocal'))),
 })
   // Payment keys are required in production; elsewhere they fall back to the local fake's values
   // (docker-free-dev/local.env), so a forgotten key can never reach production silently.

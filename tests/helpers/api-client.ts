@@ -2,8 +2,18 @@
 export const BASE = () => process.env.TEST_BASE_URL ?? `http://127.0.0.1:${process.env.ROUNDMARK_TEST_PORT ?? '4399'}`;
 export const DEMO_PASSWORD = 'fernhill-demo-2026'; // demo data, printed in the README
 
+/**
+ * A made-up client address from 198.18.0.0/15 (RFC 2544's benchmarking range). The test app
+ * trusts loopback as its reverse proxy (tests/helpers/app-server.ts), so each client arrives
+ * "from" its own address and per-address rate limits keep tests apart, as real people would be.
+ */
+export const randomClientAddress = () =>
+  `198.${18 + Math.floor(Math.random() * 2)}.${Math.floor(Math.random() * 256)}.${1 + Math.floor(Math.random() * 254)}`;
+
 export class ApiClient {
   cookie = '';
+  /** Sent as X-Forwarded-For, as the proxy in front of the app would add it. */
+  address = randomClientAddress();
 
   async request(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Response> {
     const isText = typeof body === 'string';
@@ -12,6 +22,7 @@ export class ApiClient {
       redirect: 'manual',
       headers: {
         origin: BASE(),
+        'x-forwarded-for': this.address,
         ...(body !== undefined ? { 'content-type': isText ? 'text/plain' : 'application/json' } : {}),
         ...(this.cookie ? { cookie: this.cookie } : {}),
         ...headers,

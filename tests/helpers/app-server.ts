@@ -15,8 +15,10 @@ export default async function setup() {
   if (await healthy(base)) return; // already served by someone else (a second vitest run)
   mkdirSync('test-results', { recursive: true });
   const children: ChildProcess[] = [
-    spawn('node', [`${dist}/server/entry.mjs`], {
-      env: { ...process.env, HOST: '127.0.0.1', PORT: port },
+    // The production entry; the tests play the reverse proxy on loopback, so each test client can
+    // send its own X-Forwarded-For address (see api-client.ts) and rate limits keep apart.
+    spawn('node', ['--import', 'tsx', 'src/serve.ts'], {
+      env: { ...process.env, HOST: '127.0.0.1', PORT: port, ROUNDMARK_DIST: dist, TRUSTED_PROXIES: process.env.TRUSTED_PROXIES ?? 'loopback' },
       stdio: ['ignore', openSync('test-results/app.log', 'a'), openSync('test-results/app.log', 'a')],
     }),
     startWorker(),

@@ -49,7 +49,7 @@ describe('captured mail page', () => {
       base = `http://127.0.0.1:${port}`;
       const env: NodeJS.ProcessEnv = { ...process.env, HOST: '127.0.0.1', PORT: String(port), NODE_ENV: 'production' };
       delete env.ROUNDMARK_MAIL_PREVIEW;
-      const child = spawn('node', ['dist/server/entry.mjs'], { env, stdio: 'ignore' });
+      const child = spawn('node', ['--import', 'tsx', 'src/serve.ts'], { env, stdio: 'ignore' });
       stop = () => child.kill('SIGTERM');
       for (let i = 0; i < 150; i++) {
         if (await fetch(`${base}/api/health`).then((r) => r.ok, () => false)) return;

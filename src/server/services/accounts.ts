@@ -4,6 +4,7 @@ import type { RateLimiterRes } from 'rate-limiter-flexible';
 import { memberships, sessions, studios, users } from '~/db/schema';
 import type { ChangePasswordInput, Role, SignInInput, SignUpInput } from '~/lib/api/auth-schemas';
 import { AppError } from '../http/app-error';
+import { consumeEach, pleaseWait } from '../http/rate-limit';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import type { AppDeps } from '../app';
 import { sendFirstVerificationLink } from './email-auth';
@@ -36,7 +37,14 @@ function tooManyTries(res: RateLimiterRes): AppError {
 }
 
 /** Creates an account and makes it a member of the app's studio. */
-export async function signUp(deps: AppDeps, input: SignUpInput): Promise<{ userId: string; session: Session }> {
+export async function signUp(deps: AppDeps, input: SignUpInput, address: string): Promise<{ userId: string; session: Session }> {
+  await consumeEach(
+    [
+      [deps.limits.signUpPerAddress, address],
+      [deps.limits.signUpPerAccount, input.email],
+    ],
+    pleaseWait('sign-ups'),
+  );
   const existing = await deps.db.query.users.findFirst({ where: sql`lower(${users.email}) = ${input.email}` });
   if (existing) {
     throw new AppError('conflict', 'An account with this e-mail already exists. Sign in instead.', {

@@ -4,6 +4,7 @@ import type { ForgotPasswordInput, ResetPasswordInput } from '~/lib/api/mail-sch
 import type { AppDeps } from '../app';
 import { hashPassword } from '../auth/passwords';
 import { AppError } from '../http/app-error';
+import { consumeEach, pleaseWait } from '../http/rate-limit';
 import { sendPasswordReset, sendVerifyEmail } from '../mail/messages';
 import { hashToken, newToken, TOKEN_LIFETIME } from '../mail/tokens';
 
@@ -119,7 +120,14 @@ export const FORGOT_PASSWORD_ANSWER =
  * Starts a password reset. Answers the same, and about as fast, whether or not the address has
  * an account: the message is sent after the answer, and failures are only logged.
  */
-export async function requestPasswordReset(deps: AppDeps, input: ForgotPasswordInput): Promise<void> {
+export async function requestPasswordReset(deps: AppDeps, input: ForgotPasswordInput, address: string): Promise<void> {
+  await consumeEach(
+    [
+      [deps.limits.resetPerAddress, address],
+      [deps.limits.resetPerAccount, input.email],
+    ],
+    pleaseWait('password-reset requests'),
+  );
   const user = await deps.db.query.users.findFirst({ where: sql`lower(${users.email}) = ${input.email}` });
   if (!user) return;
   if ((await recentTokens(deps, user.id, 'reset-password', 15)) >= MAX_RESET_LINKS_PER_15_MIN) return;

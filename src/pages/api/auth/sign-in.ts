@@ -4,12 +4,14 @@ import { app } from '~/server/app';
 import { endpoint, json, readJson } from '~/server/http/api';
 import { setSessionCookie } from '~/server/http/session-cookie';
 import { homePath } from '~/server/http/guards';
+import { requestAddress } from '~/server/http/client-address';
 import { signIn, studioAccess } from '~/server/services/accounts';
 
-export const POST: APIRoute = endpoint(async ({ request, cookies, clientAddress }) => {
+export const POST: APIRoute = endpoint(async (ctx) => {
+  const { request, cookies } = ctx;
   const input = await readJson(request, signInInput);
   const deps = app();
-  const session = await signIn(deps, input, clientAddress);
+  const session = await signIn(deps, input, requestAddress(ctx));
   setSessionCookie(cookies, deps.auth, session);
   const studios = await studioAccess(deps, session.userId);
   return json({ userId: session.userId, home: homePath({ studio: studios[0] ?? null }) });

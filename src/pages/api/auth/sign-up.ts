@@ -3,12 +3,14 @@ import { signUpInput } from '~/lib/api/auth-schemas';
 import { app } from '~/server/app';
 import { endpoint, json, readJson } from '~/server/http/api';
 import { setSessionCookie } from '~/server/http/session-cookie';
+import { requestAddress } from '~/server/http/client-address';
 import { signUp } from '~/server/services/accounts';
 
-export const POST: APIRoute = endpoint(async ({ request, cookies }) => {
+export const POST: APIRoute = endpoint(async (ctx) => {
+  const { request, cookies } = ctx;
   const input = await readJson(request, signUpInput);
   const deps = app();
-  const { userId, session } = await signUp(deps, input);
+  const { userId, session } = await signUp(deps, input, requestAddress(ctx));
   setSessionCookie(cookies, deps.auth, session);
   return json({ userId, home: '/library' }, 201);
 });
