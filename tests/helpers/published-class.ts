@@ -23,8 +23,8 @@ export const smallTimeline = (shift = 0) => ({
   cues: [{ id: 'c1', atSeconds: 1, kind: 'form', text: 'Drive through the heel.' }],
 });
 
-export async function createSmallClass(coach: ApiClient, dir: string, title: string) {
-  const lesson = await (await coach.post('/api/lessons', { title, advertisedMinutes: 1, impact: 'low' })).json();
+export async function createSmallClass(coach: ApiClient, dir: string, title: string, details: Record<string, unknown> = {}) {
+  const lesson = await (await coach.post('/api/lessons', { title, advertisedMinutes: 1, impact: 'low', ...details })).json();
   await coach.put(`/api/lessons/${lesson.id}/plan`, SMALL_PLAN);
   await coach.put(`/api/lessons/${lesson.id}/timeline`, { version: 0, ...smallTimeline() });
   const clip = join(dir, `${lesson.id}.mp4`);

@@ -5,6 +5,7 @@ import type { PlayerProps } from './class-player/types';
 import { useProgress } from './class-player/use-progress';
 import { clockAt, clockTimeline } from '~/lib/publishing/interval-clock';
 import { parseTemporalFragment } from '~/lib/publishing/media-fragment';
+import { startPosition, worthResuming, type NavigationKind } from '~/lib/publishing/start-position';
 import type { Chapter } from '~/lib/publishing/chapters';
 import { formatClock } from '~/lib/time/format-time';
 import { CAUTION_FOOTNOTE, GENERAL_CAUTION } from '~/lib/publishing/member-words';
@@ -25,7 +26,8 @@ export default function ClassPlayer(props: PlayerProps) {
   const [time, setTime] = useState(0);
   const [clockShown, setClockShown] = useState(true);
   const [cautionOk, setCautionOk] = useState(props.cautionAcknowledged);
-  const [resumeOffer, setResumeOffer] = useState(props.resumeAt > 10 && props.resumeAt < props.durationSeconds - 10 && !props.finished);
+  // The server cannot see the URL fragment; the effect below settles the offer with the rule in start-position.ts.
+  const [resumeOffer, setResumeOffer] = useState(worthResuming(props.resumeAt, props.durationSeconds, props.finished));
   const [error, setError] = useState('');
   const timeline = useMemo(() => clockTimeline(props.segments), [props.segments]);
   const notes = useMemo(() => new Map(props.exercises.map((e) => [e.name.toLowerCase(), e])), [props.exercises]);
@@ -56,13 +58,21 @@ export default function ClassPlayer(props: PlayerProps) {
         destroy = () => hls.destroy();
       });
     }
-    // A W3C Media Fragments link (#t=…) opens the class at that time.
-    const fragment = parseTemporalFragment(window.location.hash);
-    if (fragment) {
-      v.currentTime = fragment.start;
-      setTime(fragment.start);
-      setResumeOffer(false);
+    // A W3C Media Fragments link (#t=…) opens the class at that time when the member followed it;
+    // on a reload it is the player's own leftover and the saved position wins (start-position.ts).
+    const navigation = (performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming | undefined)?.type ?? 'navigate';
+    const start = startPosition({
+      fragmentStart: parseTemporalFragment(window.location.hash)?.start ?? null,
+      navigation: navigation as NavigationKind,
+      savedSeconds: props.resumeAt,
+      durationSeconds: props.durationSeconds,
+      finished: props.finished,
+    });
+    if (start.seekTo !== null) {
+      v.currentTime = start.seekTo;
+      setTime(start.seekTo);
     }
+    setResumeOffer(start.offerResumeAt !== null);
     return () => destroy();
   }, [props.playlistUrl]);
 
@@ -175,7 +185,10 @@ export default function ClassPlayer(props: PlayerProps) {
         <div className="mt-3 flex flex-wrap items-center gap-3">
           {resumeOffer && cautionOk && (
             <p className="flex items-center gap-2 rounded-[10px] bg-tide/10 p-2" data-testid="resume-offer">
-              You stopped at <span className="font-bold tabular">{formatClock(props.resumeAt)}</span>.
+              {/* One element, so the flex gap does not put a space before the full stop. */}
+              <span>
+                You stopped at <span className="font-bold tabular">{formatClock(props.resumeAt)}</span>.
+              </span>
               <button type="button" className="rounded-[10px] bg-tide-deep px-3 py-1 font-semibold text-white" onClick={() => { seek(props.resumeAt); void video.current?.play().catch(() => {}); }}>
                 Resume
               </button>

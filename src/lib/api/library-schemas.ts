@@ -30,15 +30,55 @@ export const libraryQuery = z
   .meta({ id: 'LibraryQuery' });
 export type LibraryQuery = z.infer<typeof libraryQuery>;
 
-/** Reads the query from URL search params (repeated keys become lists). */
-export function parseLibraryQuery(params: URLSearchParams): LibraryQuery {
-  const raw: Record<string, string | string[]> = {};
-  for (const key of new Set(params.keys())) {
-    const all = params.getAll(key).filter((v) => v !== '');
-    raw[key] = all.length === 1 ? all[0]! : all;
+const LIST_FILTERS = ['length', 'impact', 'difficulty', 'equipment', 'focus', 'coach'] as const;
+export type LibraryFilterName = (typeof LIST_FILTERS)[number];
+
+/** A library query read from a URL, with a message for each filter that held a value we do not know. */
+export interface ReadLibraryQuery {
+  query: LibraryQuery;
+  /** Keyed by the form field (`q`, `length`, …); shown next to that field. */
+  problems: Partial<Record<'q' | LibraryFilterName, string>>;
+}
+
+/**
+ * Reads the query from URL search params (repeated keys become lists).
+ * An empty value means "not set" (the filter form always sends `q=`). A value we cannot use
+ * is dropped on its own, with a message for its filter; the other filters still apply, so a
+ * typo in one never silently resets the rest.
+ */
+export function readLibraryQuery(params: URLSearchParams): ReadLibraryQuery {
+  const shape = libraryQuery.shape;
+  const problems: ReadLibraryQuery['problems'] = {};
+  const values = (key: string) => params.getAll(key).map((v) => v.trim()).filter((v) => v !== '');
+
+  const q = values('q')[0];
+  let text: string | undefined;
+  if (q !== undefined) {
+    const parsed = shape.q.safeParse(q);
+    if (parsed.success) text = parsed.data;
+    else problems.q = 'Search words are limited to 100 characters. Shorten them and search again.';
   }
-  const parsed = libraryQuery.safeParse(raw);
-  return parsed.success ? parsed.data : libraryQuery.parse({});
+  const lists = {} as Record<LibraryFilterName, string[]>;
+  for (const key of LIST_FILTERS) {
+    const all = [...new Set(values(key))];
+    const ok = all.filter((v) => shape[key].safeParse([v]).success).slice(0, 10);
+    const bad = all.filter((v) => !shape[key].safeParse([v]).success);
+    lists[key] = ok;
+    if (bad.length) problems[key] = `We do not know ${bad.map((v) => `“${v.slice(0, 40)}”`).join(', ')} here, so it is left out. Pick from the list.`;
+    else if (all.length > 10) problems[key] = 'Pick at most 10 here; only the first 10 are used.';
+  }
+  const query = libraryQuery.parse({
+    ...lists,
+    ...(text !== undefined ? { q: text } : {}),
+    sort: values('sort')[0],
+    page: values('page')[0],
+  });
+  return { query, problems };
+}
+
+/** Reads the query from URL search params, dropping values it cannot use (see `readLibraryQuery`). */
+export function parseLibraryQuery(params: URLSearchParams): LibraryQuery {
+  return readLibraryQuery(params).query;
 }
 
 /** The URL for a query (used by filter links and pagination). */
@@ -46,7 +86,7 @@ export function libraryHref(query: LibraryQuery, change: Partial<LibraryQuery> =
   const q = { ...query, ...change };
   const params = new URLSearchParams();
   if (q.q) params.set('q', q.q);
-  for (const key of ['length', 'impact', 'difficulty', 'equipment', 'focus', 'coach'] as const) for (const v of q[key]) params.append(key, v);
+  for (const key of LIST_FILTERS) for (const v of q[key]) params.append(key, v);
   if (q.sort !== 'newest') params.set('sort', q.sort);
   if (q.page > 1) params.set('page', String(q.page));
   const s = params.toString();

@@ -71,11 +71,21 @@ export async function recordProgress(deps: AppDeps, studioId: string, userId: st
   const clamp = (t: number) => Math.min(Math.max(0, t), version.durationSeconds);
   const reported = input.watched.map(([a, b]) => [clamp(a), clamp(b)] as [number, number]);
   return deps.db.transaction(async (tx) => {
-    const [existing] = await tx
+    // Two first reports can race (a chapter jump and a pause on first play): a plain
+    // "select, then insert" let both insert and one failed on the unique key. Creating the row
+    // with ON CONFLICT DO NOTHING first makes the second wait for the first to commit; the row
+    // lock below then serialises the merge, so every report's spans are kept.
+    const inserted = await tx
+      .insert(playProgress)
+      .values({ userId, lessonId, versionId: version.id })
+      .onConflictDoNothing({ target: [playProgress.userId, playProgress.lessonId] })
+      .returning({ userId: playProgress.userId });
+    const [row] = await tx
       .select()
       .from(playProgress)
       .where(and(eq(playProgress.userId, userId), eq(playProgress.lessonId, lessonId)))
       .for('update');
+    const existing = inserted.length > 0 ? undefined : row;
     // A new published version starts the watched spans afresh (times may have moved).
     const earlier = existing && existing.versionId === version.id ? (existing.watchedSpans as [number, number][]) : [];
     const spans = mergeSpans([...earlier, ...reported]);
@@ -89,11 +99,7 @@ export async function recordProgress(deps: AppDeps, studioId: string, userId: st
       updatedAt: new Date(),
       ...(justFinished ? { finishedAt: new Date() } : {}),
     };
-    if (existing) {
-      await tx.update(playProgress).set(values).where(and(eq(playProgress.userId, userId), eq(playProgress.lessonId, lessonId)));
-    } else {
-      await tx.insert(playProgress).values({ userId, lessonId, ...values });
-    }
+    await tx.update(playProgress).set(values).where(and(eq(playProgress.userId, userId), eq(playProgress.lessonId, lessonId)));
     await tx.insert(playEvents).values({
       userId,
       lessonId,
