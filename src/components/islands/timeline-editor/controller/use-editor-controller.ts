@@ -1,0 +1,165 @@
+/**
+ * The timeline editor's controller: the marks (reducer with undo), the timing check run on
+ * every change, snapping, saving, and the command runner the keys and the toolbar share.
+ * Components only render what it returns.
+ */
+import { useCallback, useMemo, useReducer, useRef, useState } from 'react';
+import type { Plan } from '~/lib/plan/plan-schema';
+import type { Peaks } from '~/lib/media/peaks';
+import { findOnsets } from '~/lib/media/onsets';
+import { checkTiming } from '~/lib/timing/timing-check';
+import { fixChanges } from '~/lib/timing/apply-fix';
+import type { Finding } from '~/lib/timing/finding-types';
+import { editorReducer, initialEditorState, type Edge, type Selection } from '~/lib/editor/editor-state';
+import { edgeTargets, planAnchor, plannedBoundaries, snapTime } from '~/lib/editor/snapping';
+import type { ShortcutCommand } from '~/lib/editor/shortcuts';
+import type { EditorData } from '../editor-api';
+import { createPlayheadStore } from '../playhead-store';
+import type { MediaTimelineHandle } from '../MediaTimeline';
+import { runCommand, ZOOM_LEVELS, type CommandArgs, type CommandContext } from './editor-commands';
+import { useEditorKeys } from './use-editor-keys';
+import { useTimelineSave } from './use-timeline-save';
+
+/** The media length the editor works over: the recording's, else the class's, else the marks'. */
+function mediaSecondsOf(data: EditorData): number {
+  const fromRecording = data.recording?.durationSeconds;
+  if (fromRecording && fromRecording > 0) return fromRecording;
+  if (data.lesson.mediaSeconds && data.lesson.mediaSeconds > 0) return data.lesson.mediaSeconds;
+  const lastEnd = Math.max(0, ...data.timeline.segments.map((s) => s.endSeconds), ...data.timeline.cues.map((c) => c.atSeconds));
+  return lastEnd > 0 ? lastEnd + 60 : data.lesson.advertisedMinutes * 60;
+}
+
+/** Exercise names offered while typing: the plan's and those already marked. */
+function exerciseNames(plan: Plan | null, segments: readonly { exercise?: string }[]): string[] {
+  const names = new Set<string>();
+  for (const b of plan?.blocks ?? []) {
+    if (b.kind === 'circuit') b.stations.forEach((s) => names.add(s.exercise));
+    if (b.kind === 'intervals') names.add(b.exercise);
+  }
+  for (const s of segments) if (s.exercise) names.add(s.exercise);
+  return [...names].sort();
+}
+
+export function useEditorController(lessonId: string, data: EditorData, peaks: Peaks | null) {
+  const plan: Plan | null = data.plan;
+  const mediaSeconds = useMemo(() => mediaSecondsOf(data), [data]);
+  const [state, dispatch] = useReducer(editorReducer, undefined, () => initialEditorState(data.timeline, mediaSeconds));
+  const stateRef = useRef(state);
+  stateRef.current = state;
+  const [playhead] = useState(createPlayheadStore);
+  const media = useRef<MediaTimelineHandle>(null);
+  const rootRef = useRef<HTMLDivElement>(null);
+  const exerciseInput = useRef<HTMLInputElement>(null);
+  const [snapOn, setSnapOn] = useState(true);
+  const [zoomIndex, setZoomIndex] = useState(0);
+  const [helpOpen, setHelpOpen] = useState(false);
+  const [mediaError, setMediaError] = useState<string | null>(null);
+  const [ready, setReady] = useState(false);
+  const saving = useTimelineSave(lessonId, data, state.timeline, dispatch);
+
+  const check = useMemo(
+    () => (plan ? checkTiming(plan, state.timeline, { mediaSeconds, advertisedMinutes: data.lesson.advertisedMinutes }) : null),
+    [plan, state.timeline, mediaSeconds, data.lesson.advertisedMinutes],
+  );
+  const onsets = useMemo(() => (peaks ? findOnsets(peaks) : []), [peaks]);
+  const planned = useMemo(() => (plan ? plannedBoundaries(plan, planAnchor(plan, state.timeline)) : []), [plan, state.timeline]);
+  const exercises = useMemo(() => exerciseNames(plan, state.timeline.segments), [plan, state.timeline.segments]);
+
+  // About 10 pixels on screen, whatever the zoom.
+  const snapDistance = () => Math.min(2, Math.max(0.05, (media.current?.secondsPerPixel() ?? 0.05) * 10));
+  const snapPoint = (t: number, bypass: boolean) => snapTime(t, { onsets, planned }, { enabled: snapOn, bypass, maxDistance: snapDistance() }).time;
+
+  const seek = (t: number) => media.current?.seek(t);
+
+  const context: CommandContext = {
+    state: () => stateRef.current,
+    dispatch,
+    playhead,
+    media,
+    plan,
+    hasRecording: data.recording !== null,
+    snapPoint,
+    setSnapOn,
+    setZoomIndex,
+    setHelpOpen,
+    focusExercise: () => setTimeout(() => exerciseInput.current?.focus(), 0),
+    save: () => void saving.save(),
+  };
+  const run = (command: ShortcutCommand, args?: CommandArgs) => runCommand(context, command, args);
+  const runRef = useRef(run);
+  runRef.current = run;
+  useEditorKeys(rootRef, runRef);
+
+  const onEdgeDragged = useCallback(
+    (segmentId: string, edge: Edge, to: number, bypass: boolean) => {
+      const targets = edgeTargets(plan, stateRef.current.timeline, segmentId, edge, onsets, planned);
+      const snapped = snapTime(to, targets, { enabled: snapOn, bypass, maxDistance: snapDistance() });
+      dispatch({ type: 'move-edge', segmentId, edge, to: snapped.time });
+    },
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [plan, onsets, planned, snapOn],
+  );
+  const onCueDragged = useCallback(
+    (cueId: string, to: number, bypass: boolean) => dispatch({ type: 'move-cue', cueId, to: snapPoint(to, bypass) }),
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [onsets, planned, snapOn],
+  );
+  const onShowFinding = useCallback((f: Finding) => {
+    seek(f.atSeconds);
+    const change = fixChanges(f.fix)[0];
+    const id = change?.segmentId ?? f.segmentIds[0];
+    if (id) dispatch({ type: 'select', selection: { type: 'segment', id, edge: change ? (change.field === 'startSeconds' ? 'start' : 'end') : null } });
+    else if (f.cueIds?.[0]) dispatch({ type: 'select', selection: { type: 'cue', id: f.cueIds[0] } });
+  }, []);
+  const onApplyFix = useCallback((f: Finding) => dispatch({ type: 'apply-fix', finding: f }), []);
+  const onApplyAll = useCallback(() => {
+    if (check) dispatch({ type: 'apply-fixes', findings: check.findings });
+  }, [check]);
+  const onSelect = useCallback((selection: Selection) => dispatch({ type: 'select', selection }), []);
+  const onPickSegment = useCallback((id: string) => {
+    const seg = stateRef.current.timeline.segments.find((s) => s.id === id);
+    dispatch({ type: 'select', selection: { type: 'segment', id, edge: null } });
+    if (seg) seek(seg.startSeconds);
+  }, []);
+  const onPickCue = useCallback((id: string) => {
+    const cue = stateRef.current.timeline.cues.find((c) => c.id === id);
+    dispatch({ type: 'select', selection: { type: 'cue', id } });
+    if (cue) seek(cue.atSeconds);
+  }, []);
+  const onZoomStep = useCallback((d: 1 | -1) => setZoomIndex((i) => Math.max(0, Math.min(ZOOM_LEVELS.length - 1, i + d))), []);
+
+  const sel = state.selection;
+  const selectedSegment = sel?.type === 'segment' ? state.timeline.segments.find((s) => s.id === sel.id) : undefined;
+  const selectedCue = sel?.type === 'cue' ? state.timeline.cues.find((c) => c.id === sel.id) : undefined;
+
+  return {
+    data,
+    plan,
+    mediaSeconds,
+    state,
+    dispatch,
+    playhead,
+    media,
+    rootRef,
+    exerciseInput,
+    check,
+    exercises,
+    snapOn,
+    setSnapOn,
+    zoomIndex,
+    helpOpen,
+    setHelpOpen,
+    mediaError,
+    setMediaError,
+    ready,
+    setReady,
+    saving,
+    run,
+    seek,
+    selectedSegment,
+    selectedCue,
+    handlers: { onEdgeDragged, onCueDragged, onShowFinding, onApplyFix, onApplyAll, onSelect, onPickSegment, onPickCue, onZoomStep },
+  };
+}
+
+export type EditorController = ReturnType<typeof useEditorController>;
