@@ -4,6 +4,7 @@ import { createDb, type Db } from './db';
 import { createLucia, type Auth } from './auth/lucia';
 import { env } from './env';
 import { LibraryCache } from './library-cache';
+import { queue, sendJob, type JobName, type JobPayloads } from './queue';
 
 /** The side-effecting parts one process shares; services receive what they need from it. */
 export interface AppDeps {
@@ -12,8 +13,19 @@ export interface AppDeps {
   auth: Auth;
   limits: SignInLimits;
   studioSlug: string;
+  /** Queues follow-up work for the worker; use cases send their own jobs through it. */
+  jobs: JobSender;
   /** Shared library pages and filter values; only the web server's own deps have one. */
   libraryCache?: LibraryCache;
+}
+
+export type JobSender = <N extends JobName>(name: N, data: JobPayloads[N], key?: string) => Promise<void>;
+
+/** Sends through the process-wide queue, started on the first job (most requests send none). */
+function queueSender(databaseUrl: string): JobSender {
+  return async (name, data, key) => {
+    await sendJob(await queue(databaseUrl), name, data, key);
+  };
 }
 
 export interface SignInLimits {
@@ -68,6 +80,7 @@ export function createAppDeps(databaseUrl: string, secureCookies = false): AppDe
     pool,
     auth: createLucia(db, secureCookies),
     limits: signInLimits(pool),
+    jobs: queueSender(databaseUrl),
     studioSlug: process.env.STUDIO_SLUG ?? 'fernhill',
   };
 }

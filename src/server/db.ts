@@ -10,3 +10,7 @@ export function createDb(url: string) {
   const db = drizzle(pool, { schema, casing: 'snake_case' });
   return { pool, db };
 }
+
+/** A transaction handed out by `db.transaction`; reads that must see one snapshot take either. */
+export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
+export type DbOrTx = Db | Tx;

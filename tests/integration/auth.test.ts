@@ -4,7 +4,7 @@ import { ApiClient, DEMO, signedIn } from '../helpers/api-client';
 import { createAppDeps, SIGN_IN_LIMITS } from '~/server/app';
 import { sessions, users } from '~/db/schema';
 import { signIn } from '~/server/services/accounts';
-import { AppError } from '~/server/http/app-error';
+import { AppError } from '~/server/errors';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);
 afterAll(() => deps.pool.end());

@@ -18,3 +18,25 @@ export const progressInput = z
   })
   .meta({ id: 'ProgressInput' });
 export type ProgressInput = z.infer<typeof progressInput>;
+
+/** The publishing panel's form: which button was pressed, and its fields as the browser posts them. */
+export const publishFormInput = z.object({
+  lessonId: z.string().min(1),
+  intent: z.enum(['publish', 'schedule', 'unpublish', 'archive'], { error: 'Choose what to do.' }),
+  acknowledgeWarnings: z
+    .string()
+    .optional()
+    .transform((v) => v === 'true'),
+  /** `datetime-local` value, in the coach's own time zone. */
+  publishAt: z.string().optional(),
+  /** The browser's `Date#getTimezoneOffset()` in minutes, so the server can read the local time. */
+  timezoneOffset: z.coerce.number().int().min(-900).max(900).default(0),
+});
+export type PublishFormInput = z.infer<typeof publishFormInput>;
+
+/** A `datetime-local` value ("2026-03-01T07:30") entered at a UTC offset, as an instant; null when unreadable. */
+export function localTimeToInstant(local: string | undefined, timezoneOffsetMinutes: number): Date | null {
+  if (!local || !/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/.test(local)) return null;
+  const at = new Date(Date.parse(`${local}:00Z`) + timezoneOffsetMinutes * 60_000);
+  return Number.isNaN(at.getTime()) ? null : at;
+}

@@ -1,5 +1,6 @@
 import type { z } from 'zod';
-import { AppError } from './app-error';
+import { AppError } from '../errors';
+import { statusOf } from './error-status';
 
 /** A JSON response. */
 export function json(data: unknown, status = 200, headers: HeadersInit = {}): Response {
@@ -47,7 +48,7 @@ export function errorResponse(err: unknown): Response {
   if (err instanceof AppError) {
     return json(
       { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}), ...err.extra } },
-      err.status,
+      statusOf(err.code),
       err.code === 'rate_limited' && typeof err.extra?.retryAfterSeconds === 'number'
         ? { 'retry-after': String(err.extra.retryAfterSeconds) }
         : {},

@@ -1,5 +1,5 @@
 import type { z } from 'zod';
-import { AppError } from './app-error';
+import { AppError } from '../errors';
 import { fieldErrors } from './api';
 
 export type FormResult<T> = { ok: true; data: T } | { ok: false; message: string; fields: Record<string, string> };

@@ -1,15 +1,10 @@
-import type { Role } from '~/lib/api/auth-schemas';
+import { can, refusalFor, type Action, type Actor } from '~/lib/policy';
 import type { StudioAccess } from '../services/accounts';
-import { AppError } from './app-error';
+import { AppError } from '../errors';
 
 type Locals = App.Locals;
 export type SignedIn = { user: NonNullable<Locals['user']>; session: NonNullable<Locals['session']> };
 export type InStudio = SignedIn & { studio: StudioAccess };
-
-/** Staff roles: people who prepare classes. */
-export const STAFF: Role[] = ['owner', 'coach', 'editor'];
-/** Roles that may publish, price and invite. */
-export const PUBLISHERS: Role[] = ['owner', 'coach'];
 
 /** 401 unless signed in. */
 export function requireUser(locals: Locals): SignedIn {
@@ -17,20 +12,25 @@ export function requireUser(locals: Locals): SignedIn {
   return { user: locals.user, session: locals.session };
 }
 
-/** 401 when signed out, 403 when the user holds none of the allowed roles in their studio. */
-export function requireRole(locals: Locals, allowed: readonly Role[]): InStudio {
+/** The signed-in person acting in their studio, for a use case to check; 401 signed out, 403 with no studio. */
+export function requireActor(locals: Locals): Actor {
+  const { user } = requireUser(locals);
+  if (!locals.studio) throw new AppError('forbidden', 'Your account does not belong to this studio.');
+  return actorOf(user.id, locals.studio);
+}
+
+export const actorOf = (userId: string, studio: StudioAccess): Actor => ({ userId, studioId: studio.studioId, roles: studio.roles });
+
+/** For reads: 401 signed out, 403 unless the policy table allows the action. Writes check inside their use case. */
+export function requireCan(locals: Locals, action: Action): InStudio {
   const signedIn = requireUser(locals);
   const studio = locals.studio;
-  if (!studio || !studio.roles.some((r) => allowed.includes(r))) {
-    throw new AppError('forbidden', 'Your role in this studio does not allow this.');
-  }
+  if (!studio || !can(studio, action)) throw new AppError('forbidden', refusalFor(action));
   return { ...signedIn, studio };
 }
 
-/** Whether locals carry any of the roles (for showing or hiding UI). */
-export function hasRole(locals: Locals, allowed: readonly Role[]): boolean {
-  return !!locals.studio?.roles.some((r) => allowed.includes(r));
-}
+/** Whether the policy table lets the signed-in person do this (for showing or hiding controls). */
+export const mayDo = (locals: Pick<Locals, 'studio'>, action: Action): boolean => can(locals.studio, action);
 
 /** Where each person lands after signing in. */
 export function homePath(locals: Pick<Locals, 'studio'>): string {
@@ -45,9 +45,13 @@ export function homePath(locals: Pick<Locals, 'studio'>): string {
  */
 export function guardPage(
   locals: Locals,
-  allowed: readonly Role[],
-): { ok: true; access: InStudio } | { ok: false; reason: 'sign-in' | 'forbidden' } {
+  action: Action,
+): { ok: true; access: InStudio; actor: Actor } | { ok: false; reason: 'sign-in' | 'forbidden' } {
   if (!locals.user || !locals.session) return { ok: false, reason: 'sign-in' };
-  if (!locals.studio || !locals.studio.roles.some((r) => allowed.includes(r))) return { ok: false, reason: 'forbidden' };
-  return { ok: true, access: { user: locals.user, session: locals.session, studio: locals.studio } };
+  if (!locals.studio || !can(locals.studio, action)) return { ok: false, reason: 'forbidden' };
+  return {
+    ok: true,
+    access: { user: locals.user, session: locals.session, studio: locals.studio },
+    actor: actorOf(locals.user.id, locals.studio),
+  };
 }

@@ -1,5 +1,5 @@
 import type { RateLimiterPostgres, RateLimiterRes } from 'rate-limiter-flexible';
-import { AppError } from './app-error';
+import { AppError } from '../errors';
 
 const isLimiterRes = (e: unknown): e is RateLimiterRes =>
   typeof e === 'object' && e !== null && 'msBeforeNext' in e && !(e instanceof Error);

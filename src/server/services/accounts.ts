@@ -3,7 +3,7 @@ import { generateIdFromEntropySize, type Session } from 'lucia';
 import type { RateLimiterRes } from 'rate-limiter-flexible';
 import { memberships, sessions, studios, users } from '~/db/schema';
 import type { ChangePasswordInput, Role, SignInInput, SignUpInput } from '~/lib/api/auth-schemas';
-import { AppError } from '../http/app-error';
+import { AppError } from '../errors';
 import { consumeEach, pleaseWait } from '../http/rate-limit';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import type { AppDeps } from '../app';

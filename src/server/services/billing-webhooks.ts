@@ -2,7 +2,7 @@ import { and, eq } from 'drizzle-orm';
 import type Stripe from 'stripe';
 import { studios, subscriptions, users, webhookEvents } from '~/db/schema';
 import { SUBSCRIPTION_STATUSES } from '~/lib/api/billing-schemas';
-import { AppError } from '../http/app-error';
+import { AppError } from '../errors';
 import type { BillingDeps } from '../payments/billing-deps';
 import { sendPaymentFailed } from '../mail/messages';
 

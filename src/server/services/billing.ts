@@ -3,7 +3,7 @@ import Stripe from 'stripe';
 import { billingSettings, promoCodes, studios, subscriptions } from '~/db/schema';
 import type { BillingSettingsInput, CheckoutInput, PromoCreateInput } from '~/lib/api/billing-schemas';
 import { formatDay } from '~/lib/billing/membership-words';
-import { AppError, notFound } from '../http/app-error';
+import { AppError, notFound } from '../errors';
 import type { AppDeps } from '../app';
 import type { BillingDeps } from '../payments/billing-deps';
 import { entitledBy } from './entitlement';

@@ -3,7 +3,7 @@ import { emailTokens, users } from '~/db/schema';
 import type { ForgotPasswordInput, ResetPasswordInput } from '~/lib/api/mail-schemas';
 import type { AppDeps } from '../app';
 import { hashPassword } from '../auth/passwords';
-import { AppError } from '../http/app-error';
+import { AppError } from '../errors';
 import { consumeEach, pleaseWait } from '../http/rate-limit';
 import { sendPasswordReset, sendVerifyEmail } from '../mail/messages';
 import { hashToken, newToken, TOKEN_LIFETIME } from '../mail/tokens';

@@ -1,7 +1,7 @@
 import { and, eq, inArray, sql } from 'drizzle-orm';
 import { exercises } from '~/db/schema';
 import type { CreateExerciseInput, ExerciseOutput, UpdateExerciseInput } from '~/lib/api/exercise-schemas';
-import { AppError, notFound } from '../http/app-error';
+import { AppError, notFound } from '../errors';
 import type { AppDeps } from '../app';
 
 type Tx = Parameters<Parameters<AppDeps['db']['transaction']>[0]>[0];

@@ -1,7 +1,7 @@
 import { and, eq, inArray } from 'drizzle-orm';
 import { lessons, lessonVersions, playEvents, playProgress } from '~/db/schema';
 import { classInsights, type ClassInsights } from '~/lib/publishing/insights';
-import { notFound } from '../http/app-error';
+import { notFound } from '../errors';
 import type { AppDeps } from '../app';
 import type { VersionSnapshot } from './publishing';
 

@@ -4,7 +4,7 @@ import { invitations, memberships, studios, users } from '~/db/schema';
 import type { AcceptAsNewAccountInput, CreateInvitationInput } from '~/lib/api/mail-schemas';
 import type { AppDeps } from '../app';
 import { hashPassword } from '../auth/passwords';
-import { AppError, notFound } from '../http/app-error';
+import { AppError, notFound } from '../errors';
 import { sendInvitation } from '../mail/messages';
 import { hashToken, newToken, TOKEN_LIFETIME } from '../mail/tokens';
 

@@ -2,7 +2,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import { lessons } from '~/db/schema';
 import { planSchema, type Plan } from '~/lib/plan/plan-schema';
 import { expandPlan, type ExpectedSchedule } from '~/lib/plan/expand-plan';
-import { notFound } from '../http/app-error';
+import { notFound } from '../errors';
 import type { AppDeps } from '../app';
 import { addMissingExercises } from './exercises';
 

@@ -1,7 +1,7 @@
 import { and, desc, eq, sql } from 'drizzle-orm';
 import { lessons, memberships, users } from '~/db/schema';
 import type { CreateLessonInput, LessonOutput, UpdateLessonInput } from '~/lib/api/lesson-schemas';
-import { AppError, notFound } from '../http/app-error';
+import { AppError, notFound } from '../errors';
 import type { AppDeps } from '../app';
 import { libraryChanged } from './library';
 

@@ -1,7 +1,7 @@
 import { and, eq } from 'drizzle-orm';
 import { GetObjectCommand, type S3Client } from '@aws-sdk/client-s3';
 import { lessons, recordings } from '~/db/schema';
-import { notFound } from '../http/app-error';
+import { notFound } from '../errors';
 import type { AppDeps } from '../app';
 import type { StudioAccess } from './accounts';
 import { recordingPrefix } from './recordings';

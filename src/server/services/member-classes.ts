@@ -2,7 +2,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import { lessons, lessonVersions, playEvents, playProgress, users } from '~/db/schema';
 import type { ProgressInput } from '~/lib/api/publish-schemas';
 import { isFinished, mergeSpans, workSeconds, workWatchedSeconds } from '~/lib/publishing/finish-rule';
-import { AppError, notFound } from '../http/app-error';
+import { AppError, notFound } from '../errors';
 import { hasEntitlement } from './entitlement';
 import type { AppDeps } from '../app';
 import type { VersionSnapshot } from './publishing';

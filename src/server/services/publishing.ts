@@ -1,15 +1,13 @@
 import { and, desc, eq, inArray, max, sql } from 'drizzle-orm';
-import { exercises, lessons, lessonVersions, recordings, users } from '~/db/schema';
+import { exercises, lessons, lessonVersions, users } from '~/db/schema';
 import { buildChapters, chaptersToVtt, type Chapter } from '~/lib/publishing/chapters';
-import { checkTiming } from '~/lib/timing/timing-check';
-import type { Finding } from '~/lib/timing/finding-types';
+import type { CheckResult, Finding } from '~/lib/timing/finding-types';
 import type { Segment, Cue } from '~/lib/timeline/timeline-schema';
 import type { Plan } from '~/lib/plan/plan-schema';
-import { AppError, notFound } from '../http/app-error';
+import { notFound } from '../errors';
 import type { AppDeps } from '../app';
-import { libraryChanged } from './library';
-import { parseStoredPlan } from './lesson-plans';
-import { getTimeline } from './timelines';
+import type { Tx } from '../db';
+import { gateLoaded, loadClass, type LoadedClass } from './class-check';
 
 /** What a published version holds; members' pages read only this. */
 export interface VersionSnapshot {
@@ -34,62 +32,30 @@ export interface VersionSnapshot {
   check: { errors: number; warnings: number; infos: number; warningMessages: string[] };
 }
 
-const count = (findings: Finding[], severity: Finding['severity']) => findings.filter((f) => f.severity === severity).length;
+const count = (findings: readonly Finding[], severity: Finding['severity']) => findings.filter((f) => f.severity === severity).length;
 
 /**
- * Publishes the draft as a new immutable version when the recording is ready and the timing
- * check has no errors; warnings need `acknowledgeWarnings`, which is recorded with the version.
+ * Writes a new immutable version of a loaded class and makes it the live one. Runs inside the
+ * publish's transaction, after the gate passed on the same loaded state.
  */
-export async function publishLesson(
-  deps: AppDeps,
-  studioId: string,
-  lessonId: string,
+export async function writeVersion(
+  tx: Tx,
+  loaded: LoadedClass & { plan: Plan },
+  check: CheckResult,
   actorId: string | null,
   acknowledgeWarnings: boolean,
 ): Promise<{ versionId: string; number: number }> {
-  const [lesson] = await deps.db
-    .select({ lesson: lessons, coachName: users.name })
-    .from(lessons)
-    .innerJoin(users, eq(users.id, lessons.coachId))
-    .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)));
-  if (!lesson) throw notFound('That class');
-  const l = lesson.lesson;
-  const plan = parseStoredPlan(l.plan);
-  if (!plan) throw new AppError('conflict', 'This class has no plan yet. Add its plan, mark the recording, then publish.');
-  const recording = l.currentRecordingId
-    ? (await deps.db.select().from(recordings).where(eq(recordings.id, l.currentRecordingId)))[0]
-    : undefined;
-  if (!recording || recording.state !== 'ready' || !recording.durationSeconds) {
-    throw new AppError('conflict', 'The recording is not ready yet. Publish once it has finished processing.');
-  }
-  const timeline = await getTimeline(deps, studioId, lessonId);
-  const check = checkTiming(plan, timeline, { mediaSeconds: recording.durationSeconds, advertisedMinutes: l.advertisedMinutes });
-  const errors = check.findings.filter((f) => f.severity === 'error');
-  if (errors.length) {
-    throw new AppError(
-      'conflict',
-      `The timing check found ${errors.length} error${errors.length === 1 ? '' : 's'}. Fix ${errors.length === 1 ? 'it' : 'them'} in the timeline, then publish.`,
-      undefined,
-      { findings: errors },
-    );
-  }
-  const warnings = check.findings.filter((f) => f.severity === 'warning');
-  if (warnings.length && !acknowledgeWarnings) {
-    throw new AppError(
-      'conflict',
-      `The timing check has ${warnings.length} warning${warnings.length === 1 ? '' : 's'}. Review ${warnings.length === 1 ? 'it' : 'them'} and confirm to publish anyway.`,
-      undefined,
-      { needsAcknowledgement: true, findings: warnings },
-    );
-  }
+  const { lesson: l, timeline } = loaded;
+  const recording = loaded.recording!;
   const chapters = buildChapters(timeline.segments);
   const names = [...new Set(timeline.segments.flatMap((s) => (s.exercise ? [s.exercise] : [])))];
   const notes = names.length
-    ? await deps.db
+    ? await tx
         .select({ name: exercises.name, cautions: exercises.cautions, easierOption: exercises.easierOption, harderOption: exercises.harderOption })
         .from(exercises)
-        .where(and(eq(exercises.studioId, studioId), inArray(sql`lower(${exercises.name})`, names.map((n) => n.toLowerCase()))))
+        .where(and(eq(exercises.studioId, l.studioId), inArray(sql`lower(${exercises.name})`, names.map((n) => n.toLowerCase()))))
     : [];
+  const warnings = check.findings.filter((f) => f.severity === 'warning');
   const snapshot: VersionSnapshot = {
     details: {
       title: l.title,
@@ -101,80 +67,65 @@ export async function publishLesson(
       focus: l.focus,
       difficulty: l.difficulty,
       cautions: l.cautions,
-      coachName: lesson.coachName,
+      coachName: loaded.coachName,
     },
-    plan,
+    plan: loaded.plan,
     segments: timeline.segments,
     cues: timeline.cues,
     chapters,
     exercises: notes,
     check: {
       errors: 0,
-      warnings: count(check.findings, 'warning'),
+      warnings: warnings.length,
       infos: count(check.findings, 'info'),
       warningMessages: warnings.map((w) => w.message),
     },
   };
-  const published = await deps.db.transaction(async (tx) => {
-    // Lock the class row so two publishes cannot take the same version number.
-    await tx.execute(sql`select 1 from ${lessons} where ${lessons.id} = ${lessonId} for update`);
-    const [{ last } = { last: 0 }] = await tx
-      .select({ last: max(lessonVersions.number) })
-      .from(lessonVersions)
-      .where(eq(lessonVersions.lessonId, lessonId));
-    const number = (last ?? 0) + 1;
-    const [version] = await tx
-      .insert(lessonVersions)
-      .values({
-        lessonId,
-        number,
-        recordingId: recording.id,
-        snapshot,
-        chaptersVtt: chaptersToVtt(chapters),
-        durationSeconds: recording.durationSeconds!,
-        warningsAcknowledged: warnings.length > 0 && acknowledgeWarnings,
-        publishedBy: actorId,
-      })
-      .returning({ id: lessonVersions.id, publishedAt: lessonVersions.publishedAt });
-    await tx
-      .update(lessons)
-      .set({
-        state: 'published',
-        publishedVersionId: version!.id,
-        publishedSeconds: recording.durationSeconds!,
-        publishedAt: version!.publishedAt,
-        searchDocument: [l.title, l.description, ...names, ...l.focus, ...l.equipment].join(' \n'),
-        publishAt: null,
-        publishScheduledBy: null,
-        updatedAt: new Date(),
-      })
-      .where(eq(lessons.id, lessonId));
-    return { versionId: version!.id, number };
-  });
-  await libraryChanged(deps, studioId);
-  return published;
+  const [{ last } = { last: 0 }] = await tx
+    .select({ last: max(lessonVersions.number) })
+    .from(lessonVersions)
+    .where(eq(lessonVersions.lessonId, l.id));
+  const number = (last ?? 0) + 1;
+  const [version] = await tx
+    .insert(lessonVersions)
+    .values({
+      lessonId: l.id,
+      number,
+      recordingId: recording.id,
+      snapshot,
+      chaptersVtt: chaptersToVtt(chapters),
+      durationSeconds: recording.durationSeconds!,
+      warningsAcknowledged: warnings.length > 0 && acknowledgeWarnings,
+      publishedBy: actorId,
+    })
+    .returning({ id: lessonVersions.id, publishedAt: lessonVersions.publishedAt });
+  await tx
+    .update(lessons)
+    .set({
+      state: 'published',
+      publishedVersionId: version!.id,
+      publishedSeconds: recording.durationSeconds!,
+      publishedAt: version!.publishedAt,
+      searchDocument: [l.title, l.description, ...names, ...l.focus, ...l.equipment].join(' \n'),
+      publishAt: null,
+      publishScheduledBy: null,
+      updatedAt: new Date(),
+    })
+    .where(eq(lessons.id, l.id));
+  return { versionId: version!.id, number };
 }
 
-/** Schedules a publish; the worker publishes once due (the check runs again then). */
-export async function schedulePublish(deps: AppDeps, studioId: string, lessonId: string, actorId: string, at: Date, acknowledgeWarnings: boolean) {
-  if (at.getTime() < Date.now() - 60_000) throw new AppError('invalid_input', 'Choose a time in the future.', { publishAt: 'Choose a time in the future.' });
-  const updated = await deps.db
-    .update(lessons)
-    .set({ publishAt: at, publishScheduledBy: actorId, publishAcknowledgesWarnings: acknowledgeWarnings, updatedAt: new Date() })
-    .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)))
-    .returning({ id: lessons.id });
-  if (!updated.length) throw notFound('That class');
-}
-
-/** Takes a class out of the library (draft again) or archives it; versions stay for members' history. */
-export async function setLessonState(deps: AppDeps, studioId: string, lessonId: string, state: 'draft' | 'archived') {
-  const updated = await deps.db
-    .update(lessons)
-    .set({ state, publishAt: null, updatedAt: new Date() })
-    .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)))
-    .returning({ id: lessons.id });
-  if (!updated.length) throw notFound('That class');
-  await libraryChanged(deps, studioId);
+/** What the class page's publishing panel needs: the same gate the publish applies, and the versions. */
+export async function publishStatus(deps: AppDeps, studioId: string, lessonId: string) {
+  const loaded = await loadClass(deps.db, studioId, lessonId);
+  const { gate } = gateLoaded(loaded);
+  return {
+    state: loaded.lesson.state,
+    publishAt: loaded.lesson.publishAt,
+    blockers: gate.blockers,
+    warnings: gate.warnings.map((f) => f.message),
+    versions: await listVersions(deps, studioId, lessonId),
+  };
 }
 
 /** Published versions of a class, newest first. */

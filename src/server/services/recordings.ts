@@ -11,7 +11,7 @@ import {
 import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
 import { lessons, recordings } from '~/db/schema';
 import { fileExtension, type CreateRecordingInput, type RecordingOutput, type SignUploadInput } from '~/lib/api/recording-schemas';
-import { AppError, notFound } from '../http/app-error';
+import { AppError, notFound } from '../errors';
 import type { AppDeps } from '../app';
 
 export type RecordingRow = typeof recordings.$inferSelect;

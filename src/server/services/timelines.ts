@@ -1,11 +1,9 @@
 import { and, eq, sql } from 'drizzle-orm';
 import { cues, lessons, segments } from '~/db/schema';
 import type { Timeline } from '~/lib/timeline/timeline-schema';
-import { checkTiming } from '~/lib/timing/timing-check';
-import type { CheckResult } from '~/lib/timing/finding-types';
-import { AppError, notFound } from '../http/app-error';
+import { AppError, notFound } from '../errors';
 import type { AppDeps } from '../app';
-import { parseStoredPlan } from './lesson-plans';
+import type { DbOrTx } from '../db';
 
 export interface StoredTimeline extends Timeline {
   version: number;
@@ -26,13 +24,18 @@ function compact<T extends Record<string, unknown>>(row: T): T {
 
 /** The draft timeline of a class: version 0 and no marks before the first save. */
 export async function getTimeline(deps: AppDeps, studioId: string, lessonId: string): Promise<StoredTimeline> {
-  const [lesson] = await deps.db
+  return readTimeline(deps.db, studioId, lessonId);
+}
+
+/** The same read on a given connection, so a publish reads the timeline inside its transaction. */
+export async function readTimeline(db: DbOrTx, studioId: string, lessonId: string): Promise<StoredTimeline> {
+  const [lesson] = await db
     .select({ version: lessons.timelineVersion })
     .from(lessons)
     .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)));
   if (!lesson) throw notFound('That class');
   const [segRows, cueRows] = await Promise.all([
-    deps.db
+    db
       .select({
         id: segments.id,
         kind: segments.kind,
@@ -46,7 +49,7 @@ export async function getTimeline(deps: AppDeps, studioId: string, lessonId: str
       .from(segments)
       .where(eq(segments.lessonId, lessonId))
       .orderBy(segments.startSeconds, segments.endSeconds),
-    deps.db
+    db
       .select({ id: cues.id, atSeconds: cues.atSeconds, kind: cues.kind, text: cues.text })
       .from(cues)
       .where(eq(cues.lessonId, lessonId))
@@ -91,18 +94,4 @@ export async function putTimeline(
     }
     return { version: bumped.version };
   });
-}
-
-/** Runs the timing check on the stored plan and timeline; media length from the class until recordings exist. */
-export async function checkLesson(deps: AppDeps, studioId: string, lessonId: string): Promise<CheckResult & { version: number }> {
-  const [lesson] = await deps.db
-    .select({ plan: lessons.plan, mediaSeconds: lessons.mediaSeconds, advertisedMinutes: lessons.advertisedMinutes })
-    .from(lessons)
-    .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)));
-  if (!lesson) throw notFound('That class');
-  const plan = parseStoredPlan(lesson.plan);
-  if (!plan) throw new AppError('conflict', 'This class has no plan yet. Add its plan, then run the check.');
-  const timeline = await getTimeline(deps, studioId, lessonId);
-  const result = checkTiming(plan, timeline, { mediaSeconds: lesson.mediaSeconds, advertisedMinutes: lesson.advertisedMinutes });
-  return { ...result, version: timeline.version };
 }

@@ -3,12 +3,12 @@ import { membersQuery } from '~/lib/api/billing-schemas';
 import { membersCsv } from '~/lib/billing/members-csv';
 import { app } from '~/server/app';
 import { endpoint, json, parseWith } from '~/server/http/api';
-import { requireRole } from '~/server/http/guards';
+import { requireCan } from '~/server/http/guards';
 import { listMembers } from '~/server/services/billing-members';
 
 /** The members table (owner); `?format=csv` downloads it. */
 export const GET: APIRoute = endpoint(async ({ locals, url }) => {
-  const { studio } = requireRole(locals, ['owner']);
+  const { studio } = requireCan(locals, 'members.view');
   const query = parseWith(membersQuery, Object.fromEntries(url.searchParams));
   const members = await listMembers(app(), studio.studioId, query);
   if (query.format === 'csv') {

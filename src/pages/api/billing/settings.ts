@@ -2,17 +2,17 @@ import type { APIRoute } from 'astro';
 import { billingSettingsInput } from '~/lib/api/billing-schemas';
 import { app } from '~/server/app';
 import { endpoint, json, readJson } from '~/server/http/api';
-import { requireRole } from '~/server/http/guards';
+import { requireCan } from '~/server/http/guards';
 import { billingDeps } from '~/server/payments/billing-deps';
 import { getBillingSettings, updateBillingSettings } from '~/server/services/billing';
 
 export const GET: APIRoute = endpoint(async ({ locals }) => {
-  const { studio } = requireRole(locals, ['owner']);
+  const { studio } = requireCan(locals, 'billing.manage');
   return json(await getBillingSettings(app(), studio.studioId));
 });
 
 export const PUT: APIRoute = endpoint(async ({ locals, request }) => {
-  const { studio } = requireRole(locals, ['owner']);
+  const { studio } = requireCan(locals, 'billing.manage');
   const input = await readJson(request, billingSettingsInput);
   return json(await updateBillingSettings(billingDeps(), studio.studioId, input));
 });

@@ -2,13 +2,13 @@ import type { APIRoute } from 'astro';
 import { invitationParams } from '~/lib/api/mail-schemas';
 import { app } from '~/server/app';
 import { endpoint } from '~/server/http/api';
-import { notFound } from '~/server/http/app-error';
-import { requireRole } from '~/server/http/guards';
+import { notFound } from '~/server/errors';
+import { requireCan } from '~/server/http/guards';
 import { revokeInvitation } from '~/server/services/invitations';
 
 /** Withdraws a pending invitation (owner); its link stops working. */
 export const DELETE: APIRoute = endpoint(async ({ locals, params }) => {
-  const { studio } = requireRole(locals, ['owner']);
+  const { studio } = requireCan(locals, 'team.manage');
   const parsed = invitationParams.safeParse(params);
   // A malformed id cannot name an invitation: same answer as an unknown one.
   if (!parsed.success) throw notFound('That invitation');

@@ -2,23 +2,23 @@ import type { APIRoute } from 'astro';
 import { updateLessonInput } from '~/lib/api/lesson-schemas';
 import { app } from '~/server/app';
 import { endpoint, json, readJson } from '~/server/http/api';
-import { PUBLISHERS, requireRole, STAFF } from '~/server/http/guards';
-import { deleteLesson, getLesson, updateLesson } from '~/server/services/lessons';
+import { requireActor, requireCan } from '~/server/http/guards';
+import { getLesson } from '~/server/services/lessons';
+import { deleteClass, updateClassDetails } from '~/server/use-cases/class-details';
 
 export const GET: APIRoute = endpoint(async ({ locals, params }) => {
-  const { studio } = requireRole(locals, STAFF);
+  const { studio } = requireCan(locals, 'class.view');
   return json(await getLesson(app(), studio.studioId, params.id!));
 });
 
 export const PATCH: APIRoute = endpoint(async ({ locals, params, request }) => {
-  const { studio } = requireRole(locals, STAFF);
-  const input = await readJson(request, updateLessonInput);
-  return json(await updateLesson(app(), studio.studioId, params.id!, input));
+  const actor = requireActor(locals);
+  const details = await readJson(request, updateLessonInput);
+  return json(await updateClassDetails(actor, app(), { lessonId: params.id!, details }));
 });
 
 /** Editors prepare recordings but do not remove classes. */
 export const DELETE: APIRoute = endpoint(async ({ locals, params }) => {
-  const { studio } = requireRole(locals, PUBLISHERS);
-  await deleteLesson(app(), studio.studioId, params.id!);
+  await deleteClass(requireActor(locals), app(), { lessonId: params.id! });
   return new Response(null, { status: 204 });
 });

@@ -4,7 +4,7 @@ import { lessonVersions } from '~/db/schema';
 import { app } from '~/server/app';
 import { endpoint } from '~/server/http/api';
 import { requireUser } from '~/server/http/guards';
-import { AppError } from '~/server/http/app-error';
+import { AppError } from '~/server/errors';
 import { publishedClass } from '~/server/services/member-classes';
 import { hasEntitlement } from '~/server/services/entitlement';
 

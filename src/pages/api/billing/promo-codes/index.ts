@@ -2,17 +2,17 @@ import type { APIRoute } from 'astro';
 import { promoCreateInput } from '~/lib/api/billing-schemas';
 import { app } from '~/server/app';
 import { endpoint, json, readJson } from '~/server/http/api';
-import { requireRole } from '~/server/http/guards';
+import { requireCan } from '~/server/http/guards';
 import { billingDeps } from '~/server/payments/billing-deps';
 import { createPromoCode, listPromoCodes } from '~/server/services/billing';
 
 export const GET: APIRoute = endpoint(async ({ locals }) => {
-  const { studio } = requireRole(locals, ['owner']);
+  const { studio } = requireCan(locals, 'billing.manage');
   return json({ promoCodes: await listPromoCodes(app(), studio.studioId) });
 });
 
 export const POST: APIRoute = endpoint(async ({ locals, request }) => {
-  const { studio } = requireRole(locals, ['owner']);
+  const { studio } = requireCan(locals, 'billing.manage');
   const input = await readJson(request, promoCreateInput);
   return json(await createPromoCode(billingDeps(), studio.studioId, input), 201);
 });

@@ -1,12 +1,11 @@
 import type { APIRoute } from 'astro';
 import { app } from '~/server/app';
 import { endpoint, json } from '~/server/http/api';
-import { PUBLISHERS, requireRole } from '~/server/http/guards';
-import { setLessonState } from '~/server/services/publishing';
+import { requireActor } from '~/server/http/guards';
+import { archiveClass } from '~/server/use-cases/withdraw-class';
 
 /** Archives the class: gone from the library, kept for history. */
 export const POST: APIRoute = endpoint(async ({ locals, params }) => {
-  const { studio } = requireRole(locals, PUBLISHERS);
-  await setLessonState(app(), studio.studioId, params.id!, 'archived');
+  await archiveClass(requireActor(locals), app(), { lessonId: params.id! });
   return json({ state: 'archived' });
 });

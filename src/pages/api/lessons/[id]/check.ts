@@ -1,10 +1,10 @@
 import type { APIRoute } from 'astro';
 import { app } from '~/server/app';
 import { endpoint, json } from '~/server/http/api';
-import { requireRole, STAFF } from '~/server/http/guards';
-import { checkLesson } from '~/server/services/timelines';
+import { requireCan } from '~/server/http/guards';
+import { checkClass } from '~/server/services/class-check';
 
 export const POST: APIRoute = endpoint(async ({ locals, params }) => {
-  const { studio } = requireRole(locals, STAFF);
-  return json(await checkLesson(app(), studio.studioId, params.id!));
+  const { studio } = requireCan(locals, 'class.check');
+  return json(await checkClass(app(), studio.studioId, params.id!));
 });

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
 import { progressInput } from '~/lib/api/publish-schemas';
 import { app } from '~/server/app';
-import { AppError } from '~/server/http/app-error';
+import { AppError } from '~/server/errors';
 import { endpoint, json, parseWith } from '~/server/http/api';
 import { requireUser } from '~/server/http/guards';
 import { progressOf, recordProgress } from '~/server/services/member-classes';

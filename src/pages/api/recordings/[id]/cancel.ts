@@ -1,11 +1,11 @@
 import type { APIRoute } from 'astro';
 import { endpoint, json } from '~/server/http/api';
-import { requireRole, STAFF } from '~/server/http/guards';
+import { requireCan } from '~/server/http/guards';
 import { mediaDeps } from '~/server/media-deps';
 import { cancelUpload } from '~/server/services/recordings';
 
 /** Cancels an unfinished upload right away (instead of waiting for the daily clean-up). */
 export const POST: APIRoute = endpoint(async ({ locals, params }) => {
-  const { studio } = requireRole(locals, STAFF);
+  const { studio } = requireCan(locals, 'recording.upload');
   return json(await cancelUpload(mediaDeps(), studio.studioId, params.id!));
 });

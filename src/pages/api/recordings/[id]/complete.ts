@@ -1,11 +1,11 @@
 import type { APIRoute } from 'astro';
 import { endpoint, json } from '~/server/http/api';
-import { requireRole, STAFF } from '~/server/http/guards';
+import { requireCan } from '~/server/http/guards';
 import { mediaDeps } from '~/server/media-deps';
 import { completeUpload } from '~/server/services/recordings';
 
 /** The browser reports the store finished the upload; the server checks it and starts processing. */
 export const POST: APIRoute = endpoint(async ({ locals, params }) => {
-  const { studio } = requireRole(locals, STAFF);
+  const { studio } = requireCan(locals, 'recording.upload');
   return json(await completeUpload(mediaDeps(), studio.studioId, params.id!));
 });

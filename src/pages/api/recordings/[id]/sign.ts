@@ -1,12 +1,12 @@
 import type { APIRoute } from 'astro';
 import { signUploadInput } from '~/lib/api/recording-schemas';
 import { endpoint, json, readJson } from '~/server/http/api';
-import { requireRole, STAFF } from '~/server/http/guards';
+import { requireCan } from '~/server/http/guards';
 import { mediaDeps } from '~/server/media-deps';
 import { signUpload } from '~/server/services/recordings';
 
 /** Presigns one S3 request of the browser's multipart upload. */
 export const POST: APIRoute = endpoint(async ({ locals, params, request }) => {
-  const { studio } = requireRole(locals, STAFF);
+  const { studio } = requireCan(locals, 'recording.upload');
   return json(await signUpload(mediaDeps(), studio.studioId, params.id!, await readJson(request, signUploadInput)));
 });

@@ -3,14 +3,14 @@ import { timelineExportQuery } from '~/lib/api/timeline-file-schemas';
 import { timelineToCsv } from '~/lib/timeline/timeline-csv';
 import { timelineToWebVtt } from '~/lib/timeline/timeline-webvtt';
 import { app } from '~/server/app';
-import { AppError } from '~/server/http/app-error';
+import { AppError } from '~/server/errors';
 import { endpoint, parseWith } from '~/server/http/api';
-import { requireRole, STAFF } from '~/server/http/guards';
+import { requireCan } from '~/server/http/guards';
 import { getLesson } from '~/server/services/lessons';
 import { getTimeline } from '~/server/services/timelines';
 
 export const GET: APIRoute = endpoint(async ({ locals, params, url }) => {
-  const { studio } = requireRole(locals, STAFF);
+  const { studio } = requireCan(locals, 'class.view');
   const { format } = parseWith(timelineExportQuery, Object.fromEntries(url.searchParams));
   const lesson = await getLesson(app(), studio.studioId, params.id!);
   const timeline = await getTimeline(app(), studio.studioId, params.id!);

@@ -3,16 +3,14 @@ import { MAX_TIMELINE_FILE_BYTES, timelineImportQuery } from '~/lib/api/timeline
 import { timelineFromCsv } from '~/lib/timeline/timeline-csv';
 import { timelineFromWebVtt } from '~/lib/timeline/timeline-webvtt';
 import { app } from '~/server/app';
-import { AppError } from '~/server/http/app-error';
+import { AppError } from '~/server/errors';
 import { endpoint, json, parseWith } from '~/server/http/api';
-import { requireRole, STAFF } from '~/server/http/guards';
-import { getLesson } from '~/server/services/lessons';
-import { putTimeline } from '~/server/services/timelines';
+import { requireActor } from '~/server/http/guards';
+import { saveClassTimeline } from '~/server/use-cases/class-marks';
 
 /** Replaces the timeline with a CSV or WebVTT chapters file; a bad file imports nothing. */
 export const POST: APIRoute = endpoint(async ({ locals, params, request, url }) => {
-  const { studio } = requireRole(locals, STAFF);
-  await getLesson(app(), studio.studioId, params.id!);
+  const actor = requireActor(locals);
   const query = parseWith(timelineImportQuery, Object.fromEntries(url.searchParams));
   const declared = Number(request.headers.get('content-length') ?? 0);
   if (declared > MAX_TIMELINE_FILE_BYTES) throw tooLarge();
@@ -30,7 +28,7 @@ export const POST: APIRoute = endpoint(async ({ locals, params, request, url }) 
       { errors: result.errors },
     );
   }
-  const saved = await putTimeline(app(), studio.studioId, params.id!, query.version, result.timeline);
+  const saved = await saveClassTimeline(actor, app(), { lessonId: params.id!, version: query.version, timeline: result.timeline });
   return json({ ...saved, segments: result.timeline.segments.length, cues: result.timeline.cues.length });
 });
 

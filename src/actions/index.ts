@@ -1,0 +1,6 @@
+import { classActions } from './class-actions';
+
+/** Every form door of the app; each calls one use case (see docs/decisions/0001-form-doors.md). */
+export const server = {
+  ...classActions,
+};

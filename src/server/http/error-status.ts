@@ -1,0 +1,16 @@
+import type { ErrorCode } from '../errors';
+
+/** The one place a domain error's code becomes an HTTP status. */
+export const ERROR_STATUS: Record<ErrorCode, number> = {
+  invalid_input: 400,
+  unauthenticated: 401,
+  forbidden: 403,
+  not_found: 404,
+  conflict: 409,
+  too_large: 413,
+  unsupported_media: 415,
+  rate_limited: 429,
+  unavailable: 503,
+};
+
+export const statusOf = (code: ErrorCode): number => ERROR_STATUS[code];
