@@ -1,0 +1,96 @@
+// The studio's class forms through real Chromium and the real app: create a class (an error shown
+// at its field first), save its details, and publish it from the publishing panel after
+// acknowledging the check's warnings. The forms post to Astro Actions without any JavaScript of
+// ours, so they work as plain HTML forms. Screenshots go to test-results/screenshots/class-forms-*.png.
+import { mkdtemp, rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Page } from 'playwright-core';
+import { BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
+import { launchBrowser, SHOTS } from '../helpers/browser';
+import { createSmallClass } from '../helpers/published-class';
+
+let browser: Browser;
+let dir: string;
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+  dir = await mkdtemp(join(tmpdir(), 'roundmark-class-forms-'));
+});
+afterAll(async () => {
+  await browser?.close();
+  await rm(dir, { recursive: true, force: true });
+});
+
+async function signInAs(email: string): Promise<Page> {
+  // JavaScript off: the forms must work as plain HTML (progressive enhancement).
+  const context = await browser.newContext({ javaScriptEnabled: false });
+  const page = await context.newPage();
+  await page.goto(BASE() + '/sign-in');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((url) => url.pathname !== '/sign-in');
+  return page;
+}
+
+describe('class forms', () => {
+  it('creates a class, showing a missing title at its field first, then saves its details', async () => {
+    const page = await signInAs(DEMO.coach);
+    await page.goto(BASE() + '/studio/classes');
+    const form = page.locator('#new-class form');
+    await form.getByLabel('Advertised length (minutes)').fill('25');
+    await form.getByRole('button', { name: 'Create class' }).click();
+    const titleError = page.locator('[data-field-error="title"]');
+    await titleError.waitFor();
+    expect(await titleError.textContent()).toBe('Give the class a title.');
+    // What was typed stays in the form.
+    expect(await form.getByLabel('Advertised length (minutes)').inputValue()).toBe('25');
+
+    const title = `Form-made class ${Date.now()}`;
+    await form.getByLabel('Title').fill(title);
+    await form.getByRole('button', { name: 'Create class' }).click();
+    await page.waitForURL(/\/studio\/classes\/[0-9a-f-]{36}$/);
+    expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe(title);
+
+    const details = page.locator('section[aria-labelledby="details-title"] form');
+    await details.getByLabel('Equipment').fill('mat, dumbbells');
+    await details.getByRole('button', { name: 'Save details' }).click();
+    await page.getByRole('status').filter({ hasText: 'Saved.' }).waitFor();
+    expect(await page.locator('section[aria-labelledby="details-title"]').getByLabel('Equipment').inputValue()).toBe('mat, dumbbells');
+
+    await details.getByLabel('Advertised length (minutes)').fill('0');
+    await details.getByRole('button', { name: 'Save details' }).click();
+    const minutesError = page.locator('[data-field-error="advertisedMinutes"]');
+    await minutesError.waitFor();
+    expect(await minutesError.textContent()).toBe('A class lasts at least 1 minute.');
+    await page.screenshot({ path: `${SHOTS}/class-forms-details-error.png`, fullPage: true });
+    await page.context().close();
+  });
+
+  it('publishes from the panel once the warnings are acknowledged; an editor sees no publish button', async () => {
+    const cls = await createSmallClass(await signedIn(DEMO.coach), dir, `Panel publish ${Date.now()}`);
+    const editor = await signInAs(DEMO.editor);
+    await editor.goto(`${BASE()}/studio/classes/${cls.lessonId}`);
+    await editor.getByTestId('publish-panel').waitFor();
+    expect(await editor.getByRole('button', { name: 'Publish now' }).count()).toBe(0);
+    await editor.context().close();
+
+    const page = await signInAs(DEMO.coach);
+    await page.goto(`${BASE()}/studio/classes/${cls.lessonId}`);
+    const panel = page.getByTestId('publish-panel');
+    // The small class is advertised at 1 minute but lasts 12 s: the check warns.
+    await panel.getByRole('button', { name: 'Publish now' }).click();
+    const refusal = panel.getByRole('alert');
+    await refusal.waitFor();
+    expect(await refusal.textContent()).toMatch(/The timing check has \d+ warnings?\. Review (it|them) and confirm to publish anyway\./);
+
+    await panel.getByLabel('I reviewed these warnings; publish anyway.').check();
+    await panel.getByRole('button', { name: 'Publish now' }).click();
+    await panel.getByRole('status').filter({ hasText: 'Published as version 1.' }).waitFor();
+    expect(await panel.textContent()).toContain('Live in the library as version 1');
+    await page.screenshot({ path: `${SHOTS}/class-forms-published.png`, fullPage: true });
+    await page.context().close();
+  });
+});
