@@ -11,6 +11,7 @@ export const ERROR_CODES = [
   'conflict',
   'too_large',
   'unsupported_media',
+  'range_not_satisfiable',
   'rate_limited',
   'unavailable',
 ] as const;

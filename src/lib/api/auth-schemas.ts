@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { noControlCharacters } from './text-rules';
 
 /** E-mail as typed by a person: trimmed and lower-cased before use. */
 export const emailField = z
@@ -23,7 +24,7 @@ export type SignInInput = z.infer<typeof signInInput>;
 
 export const signUpInput = z
   .object({
-    name: z.string({ error: 'Tell us your name.' }).trim().min(1, { error: 'Tell us your name.' }).max(120),
+    name: z.string({ error: 'Tell us your name.' }).trim().min(1, { error: 'Tell us your name.' }).max(120).regex(...noControlCharacters('Your name')),
     email: emailField,
     password: newPasswordField,
   })

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { noControlCharacters } from './text-rules';
 
 /** A promo code as people type it: spaces trimmed, upper-cased, letters, digits and dashes. */
 export const promoCodeField = z
@@ -58,7 +59,7 @@ export const billingSettingsInput = z
       .max(100_000, { error: 'The monthly price is at most 1,000.00.' }),
     trialDays: z.number({ error: 'Enter the trial length in days.' }).int().min(0, { error: 'Use 0 for no trial.' }).max(90, { error: 'A trial lasts at most 90 days.' }),
     pastDueGraceDays: z.number().int().min(0).max(30, { error: 'Grace lasts at most 30 days.' }).default(3),
-    version: z.string().nullable(),
+    version: z.string().max(64).regex(...noControlCharacters('The version')).nullable(),
   })
   .meta({ id: 'BillingSettingsInput' });
 export type BillingSettingsInput = z.infer<typeof billingSettingsInput>;
@@ -93,7 +94,7 @@ export const promoOutput = z
 
 export const MEMBER_SORTS = ['name', 'email', 'status', 'since', 'trialEnd'] as const;
 export const membersQuery = z.object({
-  q: z.string().trim().max(100).optional().transform((v) => v || undefined),
+  q: z.string().trim().max(100).regex(...noControlCharacters('The search')).optional().transform((v) => v || undefined),
   sort: z.enum(MEMBER_SORTS).catch('name').default('name'),
   dir: z.enum(['asc', 'desc']).catch('asc').default('asc'),
   format: z.enum(['json', 'csv']).catch('json').default('json'),

@@ -1,15 +1,17 @@
 import { z } from 'zod';
+import { noControlCharacters } from './text-rules';
 import { exerciseNameSchema } from '../plan/plan-schema';
 
-const optionalText = (max: number) => z.string().trim().max(max).nullable().optional();
+const optionalText = (field: string, max: number) =>
+  z.string().trim().max(max).regex(...noControlCharacters(field, { multiline: true })).nullable().optional();
 
 const exerciseFields = {
   name: exerciseNameSchema,
-  focus: optionalText(60),
-  equipment: z.array(z.string().trim().min(1).max(60)).max(20),
-  cautions: optionalText(1000).describe('Shown to members when this exercise is on.'),
-  easierOption: optionalText(300),
-  harderOption: optionalText(300),
+  focus: optionalText('The focus', 60),
+  equipment: z.array(z.string().trim().min(1).max(60).regex(...noControlCharacters('Each item of equipment'))).max(20),
+  cautions: optionalText('The cautions text', 1000).describe('Shown to members when this exercise is on.'),
+  easierOption: optionalText('The easier option', 300),
+  harderOption: optionalText('The harder option', 300),
 };
 
 export const createExerciseInput = z

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { INT4_MAX, noControlCharacters } from './text-rules';
 
 export const impactLevels = ['low', 'moderate', 'high'] as const;
 export const difficultyLevels = ['beginner', 'intermediate', 'advanced'] as const;
@@ -6,13 +7,13 @@ export const lessonStates = ['draft', 'published', 'archived'] as const;
 
 const shortList = (what: string) =>
   z
-    .array(z.string().trim().min(1).max(60), { error: `List ${what} as text items.` })
+    .array(z.string().trim().min(1).max(60).regex(...noControlCharacters(`Each of the ${what}`)), { error: `List ${what} as text items.` })
     .max(20, { error: `List at most 20 ${what}.` });
 
 /** Editable class details, as the API and the create form accept them. */
 export const lessonFields = {
-  title: z.string({ error: 'Give the class a title.' }).trim().min(1, { error: 'Give the class a title.' }).max(140, { error: 'Keep the title under 140 characters.' }),
-  description: z.string().trim().max(4000, { error: 'Keep the description under 4,000 characters.' }),
+  title: z.string({ error: 'Give the class a title.' }).trim().min(1, { error: 'Give the class a title.' }).max(140, { error: 'Keep the title under 140 characters.' }).regex(...noControlCharacters('The title')),
+  description: z.string().trim().max(4000, { error: 'Keep the description under 4,000 characters.' }).regex(...noControlCharacters('The description', { multiline: true })),
   advertisedMinutes: z.coerce
     .number({ error: 'Enter the advertised length in minutes.' })
     .int({ error: 'Advertise the length in whole minutes.' })
@@ -24,8 +25,8 @@ export const lessonFields = {
   impact: z.enum(impactLevels, { error: 'Choose low, moderate or high impact.' }),
   focus: shortList('focus areas'),
   difficulty: z.enum(difficultyLevels, { error: 'Choose beginner, intermediate or advanced.' }),
-  cautions: z.string().trim().max(2000),
-  coachId: z.string().min(1).describe('The coach who teaches the class; defaults to the creator.'),
+  cautions: z.string().trim().max(2000).regex(...noControlCharacters('The cautions text', { multiline: true })),
+  coachId: z.string().min(1).max(64).regex(...noControlCharacters('The coach')).describe('The coach who teaches the class; defaults to the creator.'),
 };
 
 export const createLessonInput = z
@@ -46,7 +47,7 @@ export type CreateLessonInput = z.infer<typeof createLessonInput>;
 
 export const updateLessonInput = z
   .object({
-    version: z.number().int().min(1).describe('The version you last read; a stale one answers 409.'),
+    version: z.number().int().min(1).max(INT4_MAX, { error: 'That version does not exist; reload the class.' }).describe('The version you last read; a stale one answers 409.'),
     title: lessonFields.title.optional(),
     advertisedMinutes: lessonFields.advertisedMinutes.optional(),
     description: lessonFields.description.optional(),

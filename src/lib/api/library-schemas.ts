@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { noControlCharacters } from './text-rules';
 import { difficultyLevels, impactLevels } from './lesson-schemas';
 
 /** Length ranges members filter by, in minutes [from, to). */
@@ -17,13 +18,13 @@ const many = <T extends z.ZodType>(item: T) =>
 /** Library filters as they live in the URL query (`?impact=low&length=under-15&q=squat`). */
 export const libraryQuery = z
   .object({
-    q: z.string().trim().max(100).optional().describe('Words to find in titles, descriptions and exercise names'),
+    q: z.string().trim().max(100).regex(...noControlCharacters('The search')).optional().describe('Words to find in titles, descriptions and exercise names'),
     length: many(z.enum(Object.keys(LENGTH_RANGES) as [keyof typeof LENGTH_RANGES])),
     impact: many(z.enum(impactLevels)),
     difficulty: many(z.enum(difficultyLevels)),
-    equipment: many(z.string().trim().min(1).max(60)).describe('"none" for classes without equipment'),
-    focus: many(z.string().trim().min(1).max(60)),
-    coach: many(z.string().min(1).max(40)),
+    equipment: many(z.string().trim().min(1).max(60).regex(...noControlCharacters('The equipment'))).describe('"none" for classes without equipment'),
+    focus: many(z.string().trim().min(1).max(60).regex(...noControlCharacters('The focus'))),
+    coach: many(z.string().min(1).max(40).regex(...noControlCharacters('The coach'))),
     sort: z.enum(LIBRARY_SORTS).catch('newest'),
     page: z.coerce.number().int().min(1).max(10_000).catch(1),
   })

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { noControlCharacters } from './text-rules';
 import { emailField, newPasswordField } from './auth-schemas';
 
 /** A token from an e-mailed link, as it arrives in a form or a JSON body. */
@@ -52,7 +53,7 @@ export const invitationParams = z.object({ id: z.string().uuid({ error: 'That in
 /** A new person's details when they create their account from an invitation (the e-mail comes from the invitation). */
 export const acceptAsNewAccountInput = z
   .object({
-    name: z.string({ error: 'Tell us your name.' }).trim().min(1, { error: 'Tell us your name.' }).max(120),
+    name: z.string({ error: 'Tell us your name.' }).trim().min(1, { error: 'Tell us your name.' }).max(120).regex(...noControlCharacters('Your name')),
     password: newPasswordField,
   })
   .meta({ id: 'AcceptAsNewAccountInput' });

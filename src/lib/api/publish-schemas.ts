@@ -1,5 +1,8 @@
 import { z } from 'zod';
 
+/** Play positions: never negative, never past a day (the longest class); the service also clamps them to the class's length. */
+const playSeconds = z.number().nonnegative().max(24 * 3600, { error: 'A position is at most 24 hours into the class.' });
+
 export const publishInput = z
   .object({
     acknowledgeWarnings: z.boolean().default(false).describe('Confirms the timing check’s warnings were reviewed; recorded with the version.'),
@@ -10,11 +13,11 @@ export type PublishInput = z.infer<typeof publishInput>;
 
 export const progressInput = z
   .object({
-    positionSeconds: z.number().nonnegative().max(24 * 3600),
+    positionSeconds: playSeconds,
     /** Spans watched since the last report, as [from, to] seconds. */
-    watched: z.array(z.tuple([z.number().nonnegative(), z.number().nonnegative()])).max(200).default([]),
+    watched: z.array(z.tuple([playSeconds, playSeconds])).max(200).default([]),
     event: z.enum(['start', 'progress', 'seek', 'chapter', 'leave']).default('progress'),
-    fromSeconds: z.number().nonnegative().optional(),
+    fromSeconds: playSeconds.optional(),
   })
   .meta({ id: 'ProgressInput' });
 export type ProgressInput = z.infer<typeof progressInput>;

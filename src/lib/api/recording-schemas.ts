@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { noControlCharacters } from './text-rules';
 
 /** Containers the media pipeline accepts, by file extension. */
 export const ACCEPTED_EXTENSIONS = ['mp4', 'm4v', 'mov', 'webm', 'mkv'] as const;
@@ -9,9 +10,9 @@ export const fileExtension = (name: string) => (name.match(/\.([A-Za-z0-9]+)$/)?
 
 export const createRecordingInput = z
   .object({
-    fileName: z.string().trim().min(1, { error: 'The file needs a name.' }).max(255),
-    sizeBytes: z.number().int().nonnegative(),
-    contentType: z.string().max(100).default(''),
+    fileName: z.string().trim().min(1, { error: 'The file needs a name.' }).max(255).regex(...noControlCharacters('The file name')),
+    sizeBytes: z.number().int().nonnegative().max(Number.MAX_SAFE_INTEGER),
+    contentType: z.string().max(100).regex(...noControlCharacters('The file type')).default(''),
   })
   .superRefine((v, ctx) => {
     const ext = fileExtension(v.fileName);
@@ -33,10 +34,10 @@ export type CreateRecordingInput = z.infer<typeof createRecordingInput>;
 export const signUploadInput = z
   .object({
     method: z.enum(['POST', 'PUT', 'GET', 'DELETE']),
-    key: z.string().max(1024).optional(),
-    uploadId: z.string().min(1).max(1024).optional(),
+    key: z.string().max(1024).regex(...noControlCharacters('The key')).optional(),
+    uploadId: z.string().min(1).max(1024).regex(...noControlCharacters('The upload id')).optional(),
     partNumber: z.number().int().min(1).max(10_000).optional(),
-    contentType: z.string().max(100).optional(),
+    contentType: z.string().max(100).regex(...noControlCharacters('The file type')).optional(),
   })
   .meta({ id: 'SignUploadInput' });
 export type SignUploadInput = z.infer<typeof signUploadInput>;

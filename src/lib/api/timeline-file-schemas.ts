@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { INT4_MAX } from './text-rules';
 
 /** Largest timeline file accepted for import (a 3-hour class with thousands of marks is ~500 KB). */
 export const MAX_TIMELINE_FILE_BYTES = 2 * 1024 * 1024;
@@ -9,6 +10,7 @@ export const timelineImportQuery = z
       .number({ error: 'Add ?version= with the timeline version you are replacing.' })
       .int()
       .nonnegative()
+      .max(INT4_MAX, { error: 'That version does not exist; reload the timeline.' })
       .describe('The timeline version the import replaces; a stale one answers 409.'),
     format: z.enum(['csv', 'vtt']).optional().describe('File format; guessed from the content when left out.'),
   })

@@ -3,6 +3,7 @@
  * timeline save. Times are seconds from the start of the recording, rounded to milliseconds.
  */
 import { z } from 'zod';
+import { INT4_MAX, noControlCharacters } from '../api/text-rules';
 import { roundToMillis } from '../time/format-time';
 
 export const SEGMENT_KINDS = ['intro', 'warmup', 'work', 'rest', 'round-break', 'cooldown', 'outro', 'talk'] as const;
@@ -76,6 +77,7 @@ export const cueSchema = z
       .trim()
       .min(1, { error: 'A cue needs text.' })
       .max(500, { error: 'A cue text can be at most 500 characters.' })
+      .regex(...noControlCharacters('The cue text', { multiline: true }))
       .describe('What the coach says or shows at this moment.'),
   })
   .describe('A point in time with a coaching note.');
@@ -107,6 +109,7 @@ export const timelinePutSchema = z
       .number({ error: 'The version must be a number.' })
       .int({ error: 'The version must be a whole number.' })
       .nonnegative({ error: 'The version cannot be negative.' })
+      .max(INT4_MAX, { error: 'That version does not exist; reload the timeline.' })
       .describe('The version this edit is based on (0 before the first save); a stale version is refused.'),
     segments: timelineContentSchema.shape.segments.describe('All segments; they replace the stored ones.'),
     cues: timelineContentSchema.shape.cues.describe('All cues; they replace the stored ones.'),

@@ -43,15 +43,20 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S)
   return parseWith(schema, body);
 }
 
+/** Headers some error answers need: Retry-After on 429 (RFC 9110 §10.2.3), Content-Range on 416 (§14.4). */
+function errorHeaders(err: AppError): Record<string, string> {
+  if (err.code === 'rate_limited' && typeof err.extra?.retryAfterSeconds === 'number') return { 'retry-after': String(err.extra.retryAfterSeconds) };
+  if (err.code === 'range_not_satisfiable' && typeof err.extra?.size === 'number') return { 'content-range': `bytes */${err.extra.size}` };
+  return {};
+}
+
 /** Answers an error as `{ error: { code, message, fields? } }`; unknown errors become 500 without details. */
 export function errorResponse(err: unknown): Response {
   if (err instanceof AppError) {
     return json(
       { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}), ...err.extra } },
       statusOf(err.code),
-      err.code === 'rate_limited' && typeof err.extra?.retryAfterSeconds === 'number'
-        ? { 'retry-after': String(err.extra.retryAfterSeconds) }
-        : {},
+      errorHeaders(err),
     );
   }
   console.error(err);

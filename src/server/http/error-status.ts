@@ -9,6 +9,7 @@ export const ERROR_STATUS: Record<ErrorCode, number> = {
   conflict: 409,
   too_large: 413,
   unsupported_media: 415,
+  range_not_satisfiable: 416,
   rate_limited: 429,
   unavailable: 503,
 };

@@ -2,6 +2,7 @@ import { and, eq } from 'drizzle-orm';
 import type Stripe from 'stripe';
 import { studios, subscriptions, users, webhookEvents } from '~/db/schema';
 import { SUBSCRIPTION_STATUSES } from '~/lib/api/billing-schemas';
+import { webhookEventSchema } from '~/lib/billing/webhook-event-schema';
 import { AppError } from '../errors';
 import type { BillingDeps } from '../payments/billing-deps';
 import { sendPaymentFailed } from '../mail/messages';
@@ -20,6 +21,9 @@ export async function receiveWebhook(deps: BillingDeps, payload: string, signatu
     event = deps.stripe.webhooks.constructEvent(payload, signature ?? '', secret);
   } catch {
     throw new AppError('invalid_input', 'The webhook signature does not match, so the event was not applied.');
+  }
+  if (!webhookEventSchema.safeParse(event).success) {
+    throw new AppError('invalid_input', 'The event is signed but does not have the shape its type promises, so it was not applied.');
   }
   return applyEvent(deps, event);
 }

@@ -1,7 +1,8 @@
 import { and, eq } from 'drizzle-orm';
-import { GetObjectCommand, type S3Client } from '@aws-sdk/client-s3';
+import { GetObjectCommand, HeadObjectCommand, type S3Client } from '@aws-sdk/client-s3';
+import parseRange from 'range-parser';
 import { lessons, recordings } from '~/db/schema';
-import { notFound } from '../errors';
+import { AppError, notFound } from '../errors';
 import type { AppDeps } from '../app';
 import type { StudioAccess } from './accounts';
 import { recordingPrefix } from './recordings';
@@ -53,9 +54,29 @@ export async function mediaKeyFor(
 }
 
 /** Streams an object from storage, passing a Range request through (players seek with it). */
+/**
+ * The one byte range to ask the store for, or undefined for the whole object. Parsed with
+ * range-parser (the parser Express's `send` uses) against the object's size, because the local
+ * store answers some malformed or suffix ranges wrongly. RFC 9110 §14.2 lets a server ignore a
+ * Range it cannot or will not honour (malformed, another unit, several ranges): those get the
+ * whole object. A range starting past the end answers 416 with `Content-Range: bytes *\/size` (§15.5.17).
+ */
+async function storeRange(s3: S3Client, bucket: string, key: string, header: string | null): Promise<string | undefined> {
+  if (!header) return undefined;
+  const head = await s3.send(new HeadObjectCommand({ Bucket: bucket, Key: key }));
+  const size = head.ContentLength ?? 0;
+  const parsed = parseRange(size, header, { combine: true });
+  if (parsed === -1) {
+    throw new AppError('range_not_satisfiable', `That byte range is outside the file (${size} bytes).`, undefined, { size });
+  }
+  if (parsed === -2 || parsed.type !== 'bytes' || parsed.length !== 1) return undefined;
+  return `bytes=${parsed[0]!.start}-${parsed[0]!.end}`;
+}
+
 export async function streamObject(s3: S3Client, bucket: string, key: string, contentType: string, range: string | null): Promise<Response> {
   try {
-    const obj = await s3.send(new GetObjectCommand({ Bucket: bucket, Key: key, ...(range ? { Range: range } : {}) }));
+    const Range = await storeRange(s3, bucket, key, range);
+    const obj = await s3.send(new GetObjectCommand({ Bucket: bucket, Key: key, ...(Range ? { Range } : {}) }));
     const headers = new Headers({
       'content-type': contentType,
       'accept-ranges': 'bytes',
@@ -67,7 +88,8 @@ export async function streamObject(s3: S3Client, bucket: string, key: string, co
     if (obj.ETag) headers.set('etag', obj.ETag);
     return new Response(obj.Body!.transformToWebStream(), { status: obj.ContentRange ? 206 : 200, headers });
   } catch (err) {
-    if ((err as { name?: string }).name === 'NoSuchKey') throw notFound('That file');
+    const name = (err as { name?: string }).name;
+    if (name === 'NoSuchKey' || name === 'NotFound') throw notFound('That file');
     throw err;
   }
 }

@@ -106,7 +106,7 @@ export async function recordProgress(deps: AppDeps, studioId: string, userId: st
       versionId: version.id,
       kind: justFinished ? 'finish' : input.event,
       atSeconds: clamp(input.positionSeconds),
-      fromSeconds: input.fromSeconds ?? null,
+      fromSeconds: input.fromSeconds === undefined ? null : clamp(input.fromSeconds),
     });
     const watchedWork = values.workWatchedSeconds;
     return {
