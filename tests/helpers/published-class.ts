@@ -25,7 +25,7 @@ export const smallTimeline = (shift = 0) => ({
 
 export async function createSmallClass(coach: ApiClient, dir: string, title: string, details: Record<string, unknown> = {}) {
   const lesson = await (await coach.post('/api/lessons', { title, advertisedMinutes: 1, impact: 'low', ...details })).json();
-  await coach.put(`/api/lessons/${lesson.id}/plan`, SMALL_PLAN);
+  await coach.put(`/api/lessons/${lesson.id}/plan`, { version: lesson.version, ...SMALL_PLAN });
   await coach.put(`/api/lessons/${lesson.id}/timeline`, { version: 0, ...smallTimeline() });
   const clip = join(dir, `${lesson.id}.mp4`);
   await makeClip(clip, { seconds: 12, size: '320x180' });

@@ -33,9 +33,12 @@ beforeAll(async () => {
 
 describe('plan', () => {
   it('stores a plan, expands it, and adds new exercise names to the studio list', async () => {
-    const put = await coach.put(`/api/lessons/${lessonId}/plan`, tabataPlan);
+    const before = await (await coach.get(`/api/lessons/${lessonId}/plan`)).json();
+    expect(before.plan).toBeNull();
+    const put = await coach.put(`/api/lessons/${lessonId}/plan`, { version: before.version, ...tabataPlan });
     expect(put.status).toBe(200);
     const body = await put.json();
+    expect(body.version).toBe(before.version + 1);
     expect(body.addedExercises).toEqual(['Tabata test move']);
     const got = await (await coach.get(`/api/lessons/${lessonId}/plan`)).json();
     expect(got.schedule.totals.classSeconds).toBe(240); // Tabata 1996: 8 × 30 s
@@ -46,10 +49,34 @@ describe('plan', () => {
   });
 
   it('refuses a malformed plan and names the field', async () => {
-    const res = await coach.put(`/api/lessons/${lessonId}/plan`, { blocks: [{ kind: 'circuit', rounds: 0, stations: [] }] });
+    const { version } = await (await coach.get(`/api/lessons/${lessonId}/plan`)).json();
+    const res = await coach.put(`/api/lessons/${lessonId}/plan`, { version, blocks: [{ kind: 'circuit', rounds: 0, stations: [] }] });
     expect(res.status).toBe(400);
     const { error } = await res.json();
     expect(Object.keys(error.fields).some((k) => k.startsWith('blocks.0'))).toBe(true);
+    expect(error.fields['blocks.0.rounds']).toBe('A circuit needs at least 1 round.');
+  });
+
+  it('refuses a stale plan save with 409 and the current version, and keeps the newer plan', async () => {
+    const read = await (await coach.get(`/api/lessons/${lessonId}/plan`)).json();
+    // The editor saves first, from the same version the coach read.
+    const first = await editor.put(`/api/lessons/${lessonId}/plan`, { version: read.version, ...tabataPlan, options: { dropFinalRest: true } });
+    expect(first.status).toBe(200);
+    const stale = await coach.put(`/api/lessons/${lessonId}/plan`, { version: read.version, blocks: [{ kind: 'warmup', seconds: 60 }] });
+    expect(stale.status).toBe(409);
+    const { error } = await stale.json();
+    expect(error.code).toBe('conflict');
+    expect(error.currentVersion).toBe(read.version + 1);
+    const after = await (await coach.get(`/api/lessons/${lessonId}/plan`)).json();
+    expect(after.version).toBe(read.version + 1);
+    expect(after.plan.blocks[0].kind).toBe('intervals');
+    expect(after.plan.options.dropFinalRest).toBe(true);
+    // A save without a version is refused too: every plan write is versioned.
+    const unversioned = await coach.put(`/api/lessons/${lessonId}/plan`, tabataPlan);
+    expect(unversioned.status).toBe(400);
+    // Put the Tabata plan back (with the final rest) for the tests below.
+    const back = await coach.put(`/api/lessons/${lessonId}/plan`, { version: after.version, ...tabataPlan });
+    expect(back.status).toBe(200);
   });
 });
 

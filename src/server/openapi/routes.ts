@@ -1,10 +1,11 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
 import { errors, json } from './responses';
-import { planSchema } from '~/lib/plan/plan-schema';
+import { planPutSchema, planSchema } from '~/lib/plan/plan-schema';
 import { timelinePutSchema, segmentSchema, cueSchema } from '~/lib/timeline/timeline-schema';
 import { timelineExportQuery, timelineImportQuery } from '~/lib/api/timeline-file-schemas';
 import { createExerciseInput, exerciseOutput, updateExerciseInput } from '~/lib/api/exercise-schemas';
+import { createPlanTemplateInput, planTemplateListOutput, planTemplateOutput } from '~/lib/api/plan-template-schemas';
 import { FINDING_CODES } from '~/lib/timing/finding-types';
 import { createRecordingInput, recordingOutput, signUploadInput } from '~/lib/api/recording-schemas';
 import { progressInput, publishInput } from '~/lib/api/publish-schemas';
@@ -26,6 +27,7 @@ const plannedSegment = z.object({
 const planView = z
   .object({
     plan: planSchema.nullable(),
+    version: z.number().int().describe('The class version to send with the next plan write.'),
     schedule: z
       .object({ startSeconds: z.number(), segments: z.array(plannedSegment), totals: z.record(z.string(), z.number()) })
       .nullable(),
@@ -130,8 +132,8 @@ export const apiRoutes: RouteConfig[] = [
   },
   {
     method: 'put', path: '/api/lessons/{id}/plan', summary: 'Write the class plan (exercise names new to the studio are added to its list)',
-    request: { params, body: json(planSchema, 'The plan') },
-    responses: { 200: json(planView, 'Stored'), ...errors(400, 401, 403, 404) },
+    request: { params, body: json(planPutSchema, 'The plan and the class version it was read at') },
+    responses: { 200: json(planView, 'Stored'), ...errors(400, 401, 403, 404, 409) },
   },
   {
     method: 'get', path: '/api/lessons/{id}/timeline', summary: 'The draft timeline (version 0 before the first save)', request: { params },
@@ -178,5 +180,13 @@ export const apiRoutes: RouteConfig[] = [
   {
     method: 'patch', path: '/api/exercises', summary: 'Change an exercise (by id in the body)', request: { body: json(updateExerciseInput, 'Changes') },
     responses: { 200: json(exerciseOutput, 'Changed'), ...errors(400, 401, 403, 404, 409) },
+  },
+  {
+    method: 'get', path: '/api/plan-templates', summary: 'Plan templates: the built-in formats, then the studio’s own',
+    responses: { 200: json(planTemplateListOutput, 'Templates'), ...errors(401, 403) },
+  },
+  {
+    method: 'post', path: '/api/plan-templates', summary: 'Save a plan as a studio template', request: { body: json(createPlanTemplateInput, 'Name and plan') },
+    responses: { 201: json(planTemplateOutput, 'Saved'), ...errors(400, 401, 403, 409) },
   },
 ];

@@ -2,12 +2,14 @@ import { and, eq, sql } from 'drizzle-orm';
 import { lessons } from '~/db/schema';
 import { planSchema, type Plan } from '~/lib/plan/plan-schema';
 import { expandPlan, type ExpectedSchedule } from '~/lib/plan/expand-plan';
-import { notFound } from '../errors';
+import { AppError, notFound } from '../errors';
 import type { AppDeps } from '../app';
 import { addMissingExercises } from './exercises';
 
 export interface PlanView {
   plan: Plan | null;
+  /** The class version a plan edit must send back (shared with the class details). */
+  version: number;
   schedule: ExpectedSchedule | null;
   /** Exercise names this save added to the studio's list. */
   addedExercises?: string[];
@@ -33,24 +35,42 @@ export function parseStoredPlan(value: unknown): Plan | null {
 /** The class's plan with its expected schedule (from 0 s) and totals. */
 export async function getPlan(deps: AppDeps, studioId: string, lessonId: string): Promise<PlanView> {
   const [row] = await deps.db
-    .select({ plan: lessons.plan })
+    .select({ plan: lessons.plan, version: lessons.version })
     .from(lessons)
     .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)));
   if (!row) throw notFound('That class');
   const plan = parseStoredPlan(row.plan);
-  return { plan, schedule: plan ? expandPlan(plan) : null };
+  return { plan, version: row.version, schedule: plan ? expandPlan(plan) : null };
 }
 
-/** Stores a validated plan and adds new exercise names to the studio's list, in one transaction. */
-export async function putPlan(deps: AppDeps, studioId: string, lessonId: string, plan: Plan): Promise<PlanView> {
-  const addedExercises = await deps.db.transaction(async (tx) => {
+const stalePlan = (currentVersion: number) =>
+  new AppError(
+    'conflict',
+    'Someone saved this class after you opened it. Nothing of yours was saved: reload to see their plan, then make your change again.',
+    undefined,
+    { currentVersion },
+  );
+
+/**
+ * Stores a validated plan when `version` is the class's current version, and adds new exercise
+ * names to the studio's list, in one transaction. A stale version answers 409 and changes nothing.
+ */
+export async function putPlan(deps: AppDeps, studioId: string, lessonId: string, version: number, plan: Plan): Promise<PlanView> {
+  const out = await deps.db.transaction(async (tx) => {
     const updated = await tx
       .update(lessons)
       .set({ plan, updatedAt: new Date(), version: sql`${lessons.version} + 1` })
-      .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)))
-      .returning({ id: lessons.id });
-    if (updated.length === 0) throw notFound('That class');
-    return addMissingExercises(tx, studioId, planExerciseNames(plan));
+      .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId), eq(lessons.version, version)))
+      .returning({ version: lessons.version });
+    if (updated.length === 0) {
+      const [current] = await tx
+        .select({ version: lessons.version })
+        .from(lessons)
+        .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)));
+      if (!current) throw notFound('That class');
+      throw stalePlan(current.version);
+    }
+    return { version: updated[0]!.version, addedExercises: await addMissingExercises(tx, studioId, planExerciseNames(plan)) };
   });
-  return { plan, schedule: expandPlan(plan), addedExercises };
+  return { plan, schedule: expandPlan(plan), ...out };
 }

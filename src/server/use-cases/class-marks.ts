@@ -6,10 +6,13 @@ import { putPlan, type PlanView } from '../services/lesson-plans';
 import { putTimeline } from '../services/timelines';
 import { assertCan, type Actor } from './actor';
 
-/** Stores a class's plan (staff) and adds new exercise names to the studio's list. */
-export async function saveClassPlan(actor: Actor, deps: AppDeps, input: { lessonId: string; plan: Plan }): Promise<PlanView> {
+/**
+ * Stores a class's plan (staff) when `version` is the class's current version, and adds new
+ * exercise names to the studio's list; a stale version is refused.
+ */
+export async function saveClassPlan(actor: Actor, deps: AppDeps, input: { lessonId: string; version: number; plan: Plan }): Promise<PlanView> {
   assertCan(actor, 'class.edit');
-  return putPlan(deps, actor.studioId, input.lessonId, input.plan);
+  return putPlan(deps, actor.studioId, input.lessonId, input.version, input.plan);
 }
 
 /**

@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { planSchema } from '~/lib/plan/plan-schema';
+import { planPutSchema } from '~/lib/plan/plan-schema';
 import { app } from '~/server/app';
 import { endpoint, json, readJson } from '~/server/http/api';
 import { requireActor, requireCan } from '~/server/http/guards';
@@ -13,6 +13,6 @@ export const GET: APIRoute = endpoint(async ({ locals, params }) => {
 
 export const PUT: APIRoute = endpoint(async ({ locals, params, request }) => {
   const actor = requireActor(locals);
-  const plan = await readJson(request, planSchema);
-  return json(await saveClassPlan(actor, app(), { lessonId: params.id!, plan }));
+  const { version, ...plan } = await readJson(request, planPutSchema);
+  return json(await saveClassPlan(actor, app(), { lessonId: params.id!, version, plan }));
 });
