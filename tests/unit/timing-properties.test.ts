@@ -12,12 +12,37 @@ const exercise = fc.constantFrom('Squat', 'Row', 'Lunge', 'Press', 'Plank');
 
 const blockArb = fc.oneof(
   fc.record({ kind: fc.constantFrom('warmup' as const, 'cooldown' as const, 'talk' as const), seconds: secs(20, 400) }),
-  fc.record({
-    kind: fc.constant('circuit' as const),
-    rounds: fc.integer({ min: 1, max: 3 }),
-    roundBreakSeconds: secs(0, 90),
-    stations: fc.array(fc.record({ exercise, workSeconds: secs(10, 90), restSeconds: secs(0, 40) }), { minLength: 1, maxLength: 4 }),
-  }),
+  fc
+    .record({
+      kind: fc.constant('circuit' as const),
+      rounds: fc.integer({ min: 1, max: 3 }),
+      roundBreakSeconds: secs(0, 90),
+      stations: fc.array(fc.record({ exercise, workSeconds: secs(10, 90), restSeconds: secs(0, 40) }), { minLength: 1, maxLength: 4 }),
+    })
+    // Ladders, pyramids and stations left out: any round may get its own seconds or skip
+    // stations (never all of them).
+    .chain((c) =>
+      fc
+        .array(
+          fc.record(
+            {
+              round: fc.integer({ min: 1, max: c.rounds }),
+              workSeconds: secs(10, 90),
+              restSeconds: secs(0, 40),
+              skipStations: fc.subarray(
+                c.stations.map((_, i) => i + 1),
+                { maxLength: c.stations.length - 1 },
+              ),
+            },
+            { requiredKeys: ['round'] },
+          ),
+          { maxLength: c.rounds },
+        )
+        .map((changes) => {
+          const once = changes.filter((ch, i) => changes.findIndex((x) => x.round === ch.round) === i);
+          return once.length > 0 ? { ...c, roundChanges: once } : c;
+        }),
+    ),
   fc.record({ kind: fc.constant('intervals' as const), exercise, sets: fc.integer({ min: 1, max: 5 }), workSeconds: secs(10, 60), restSeconds: secs(0, 30) }),
 );
 

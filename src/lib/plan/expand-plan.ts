@@ -2,7 +2,7 @@
  * Expands a plan into the expected schedule: the ordered segments a correctly marked
  * recording would have, with planned start times from a chosen start, and the totals.
  */
-import type { Plan, PlanBlock } from './plan-schema';
+import { circuitRound, type Plan, type PlanBlock } from './plan-schema';
 
 /** Kinds a plan can produce (a subset of the timeline's segment kinds). */
 export type PlannedKind = 'warmup' | 'work' | 'rest' | 'round-break' | 'cooldown' | 'talk';
@@ -51,6 +51,8 @@ export interface ExpectedSchedule {
  *   last station's rest; `false` keeps that rest and adds the round break after it;
  * - after the last round there is no round break; `dropFinalRest: true` also leaves out the
  *   last station's rest there (the block ends on work).
+ * - a round with a change (`roundChanges`) uses its own work/rest seconds and leaves out the
+ *   stations it skips; "the last station" of a round is the last one it does.
  * Intervals: each set is work then rest; `dropFinalRest: true` leaves out the last set's rest.
  */
 export function expandPlan(plan: Plan, startSeconds = 0): ExpectedSchedule {
@@ -108,12 +110,14 @@ export function expandPlan(plan: Plan, startSeconds = 0): ExpectedSchedule {
         }
         break;
       case 'circuit': {
-        const last = block.stations.length - 1;
         for (let round = 1; round <= block.rounds; round++) {
           const finalRound = round === block.rounds;
-          block.stations.forEach((station, stationIndex) => {
+          // The round's own stations and seconds (ladders, pyramids, stations left out).
+          const done = circuitRound(block, round);
+          done.forEach((station, i) => {
+            const { stationIndex } = station;
             push('work', station.workSeconds, blockIndex, 'circuit', stationIndex, station.exercise, round);
-            const isLast = stationIndex === last;
+            const isLast = i === done.length - 1;
             const skipRest = isLast && (finalRound ? dropFinalRest : roundBreakReplacesLastRest);
             if (!skipRest) push('rest', station.restSeconds, blockIndex, 'circuit', stationIndex, station.exercise, round);
           });

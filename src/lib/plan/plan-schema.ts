@@ -66,6 +66,32 @@ export const talkBlockSchema = z
   .object({ kind: z.literal('talk'), seconds: seconds('The talk'), title: blockTitle })
   .describe('Talk (explanation, demonstration) of a fixed length.');
 
+/**
+ * A change to one round of a circuit: ladders and pyramids give each round its own work (and
+ * rest) seconds; a round may leave stations out. Stations are numbered from 1, as coaches say.
+ */
+export const roundChangeSchema = z
+  .object({
+    round: z
+      .number({ error: 'The round must be a number.' })
+      .int({ error: 'The round must be a whole number.' })
+      .min(1, { error: 'Rounds are numbered from 1.' })
+      .describe('The round this change applies to (1 is the first round).'),
+    workSeconds: seconds('Work').optional().describe('Seconds of work at every station in this round, instead of each station\'s own.'),
+    restSeconds: secondsOrZero('Rest').optional().describe('Seconds of rest after every station in this round, instead of each station\'s own.'),
+    skipStations: z
+      .array(
+        z
+          .number({ error: 'A station to leave out must be a number.' })
+          .int({ error: 'A station to leave out must be a whole number.' })
+          .min(1, { error: 'Stations are numbered from 1.' }),
+      )
+      .max(MAX_STATIONS, { error: `A round can leave out at most ${MAX_STATIONS} stations.` })
+      .optional()
+      .describe('Stations (numbered from 1) this round leaves out.'),
+  })
+  .describe('A change to one round: its own work or rest seconds (ladder, pyramid), or stations it leaves out.');
+
 export const circuitBlockSchema = z
   .object({
     kind: z.literal('circuit'),
@@ -83,6 +109,11 @@ export const circuitBlockSchema = z
       .min(1, { error: 'A circuit needs at least one station.' })
       .max(MAX_STATIONS, { error: `A circuit can have at most ${MAX_STATIONS} stations.` })
       .describe('Stations in the order they are done.'),
+    roundChanges: z
+      .array(roundChangeSchema)
+      .max(MAX_ROUNDS, { error: `A circuit can change at most ${MAX_ROUNDS} rounds.` })
+      .optional()
+      .describe('Per-round changes: ladders and pyramids, and stations a round leaves out.'),
     title: blockTitle,
   })
   .describe('Circuit: ordered stations done for a number of rounds, with a round break between rounds.');
@@ -204,18 +235,82 @@ export function blockPlannedSeconds(block: PlanBlock, options: PlanOptions): num
       return block.workSeconds * block.sets + rest;
     }
     case 'circuit': {
-      const work = block.stations.reduce((sum, s) => sum + s.workSeconds, 0);
-      const restAll = block.stations.reduce((sum, s) => sum + s.restSeconds, 0);
-      const lastRest = block.stations[block.stations.length - 1]?.restSeconds ?? 0;
-      const breaks = block.roundBreakSeconds * (block.rounds - 1);
-      let rests = restAll * block.rounds;
-      // The last station's rest is dropped in every round that ends in a round break...
-      if (options.roundBreakReplacesLastRest) rests -= lastRest * (block.rounds - 1);
-      // ...and in the final round when the final rest is dropped.
-      if (options.dropFinalRest) rests -= lastRest;
-      return work * block.rounds + rests + breaks;
+      let total = 0;
+      for (let round = 1; round <= block.rounds; round++) {
+        const done = circuitRound(block, round);
+        const finalRound = round === block.rounds;
+        done.forEach((st, i) => {
+          const isLast = i === done.length - 1;
+          total += st.workSeconds;
+          // The last station's rest is replaced by the round break, or dropped after the final round.
+          if (!(isLast && (finalRound ? options.dropFinalRest : options.roundBreakReplacesLastRest))) total += st.restSeconds;
+        });
+        if (!finalRound) total += block.roundBreakSeconds;
+      }
+      return total;
     }
   }
+}
+
+/** One station as done in one round: its position, exercise and that round's seconds. */
+export interface RoundStation {
+  stationIndex: number;
+  exercise: string;
+  workSeconds: number;
+  restSeconds: number;
+}
+
+/**
+ * The stations of `round` (1-based) in order, with that round's work and rest seconds, leaving
+ * out the stations the round skips. The one place that reads `roundChanges`.
+ */
+export function circuitRound(block: CircuitBlock, round: number): RoundStation[] {
+  const change = block.roundChanges?.find((c) => c.round === round);
+  const skip = new Set(change?.skipStations ?? []);
+  const out: RoundStation[] = [];
+  block.stations.forEach((s, stationIndex) => {
+    if (skip.has(stationIndex + 1)) return;
+    out.push({
+      stationIndex,
+      exercise: s.exercise,
+      workSeconds: change?.workSeconds ?? s.workSeconds,
+      restSeconds: change?.restSeconds ?? s.restSeconds,
+    });
+  });
+  return out;
+}
+
+/**
+ * Reports round changes that point past the circuit, repeat a round or leave a round empty;
+ * true when there were none.
+ */
+function checkRoundChanges(block: CircuitBlock, blockIndex: number, ctx: z.RefinementCtx): boolean {
+  const seen = new Set<number>();
+  let ok = true;
+  const report = (path: (string | number)[], message: string) => {
+    ok = false;
+    ctx.addIssue({ code: 'custom', path, message });
+  };
+  (block.roundChanges ?? []).forEach((c, i) => {
+    const path = ['blocks', blockIndex, 'roundChanges', i];
+    if (c.round > block.rounds) {
+      report([...path, 'round'], `Round ${c.round} is past the circuit's ${block.rounds} rounds.`);
+    }
+    if (seen.has(c.round)) {
+      report([...path, 'round'], `Round ${c.round} is changed twice; keep one change per round.`);
+    }
+    seen.add(c.round);
+    for (const n of c.skipStations ?? []) {
+      if (n > block.stations.length) {
+        report([...path, 'skipStations'], `Station ${n} is past the circuit's ${block.stations.length} stations.`);
+      }
+    }
+    const skipped = new Set((c.skipStations ?? []).filter((n) => n <= block.stations.length));
+    if (skipped.size >= block.stations.length) {
+      report([...path, 'skipStations'], `Round ${c.round} cannot leave out every station; lower the number of rounds instead.`);
+    }
+  });
+  return ok;
 }
 
 /** Number of planned segments a block expands to (for the size bound). */
@@ -225,35 +320,62 @@ function blockSegmentCount(block: PlanBlock): number {
   return 1;
 }
 
+/** The plan's fields, shared by the plan itself and the versioned write that carries it. */
+const planFields = {
+  blocks: z
+    .array(planBlockSchema)
+    .min(1, { error: 'A plan needs at least one block.' })
+    .max(MAX_BLOCKS, { error: `A plan can have at most ${MAX_BLOCKS} blocks.` })
+    .describe('Blocks in the order they happen in the class.'),
+  tolerances: tolerancesSchema.default(DEFAULT_TOLERANCES).describe('Tolerances; defaults apply when left out.'),
+  options: planOptionsSchema.default(DEFAULT_PLAN_OPTIONS).describe('Options; defaults apply when left out.'),
+};
+
+/** Bounds that need the whole plan: the 12-hour limit and the number of planned intervals. */
+function checkPlanBounds(plan: { blocks: PlanBlock[]; options: PlanOptions }, ctx: z.RefinementCtx): void {
+  let roundsOk = true;
+  plan.blocks.forEach((b, i) => {
+    if (b.kind === 'circuit' && !checkRoundChanges(b, i, ctx)) roundsOk = false;
+  });
+  // Lengths of a circuit with impossible round changes mean nothing; its own messages say why.
+  if (!roundsOk) return;
+  const total = plan.blocks.reduce((sum, b) => sum + blockPlannedSeconds(b, plan.options), 0);
+  if (total > MAX_PLAN_SECONDS) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['blocks'],
+      message: `This plan adds up to ${Math.round(total / 60)} minutes; a class can be at most 12 hours. Check the rounds and seconds.`,
+    });
+  }
+  const count = plan.blocks.reduce((sum, b) => sum + blockSegmentCount(b), 0);
+  if (count > MAX_PLANNED_SEGMENTS) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['blocks'],
+      message: `This plan has ${count} intervals; at most ${MAX_PLANNED_SEGMENTS} are allowed. Check the rounds and sets.`,
+    });
+  }
+}
+
 export const planSchema = z
-  .object({
-    blocks: z
-      .array(planBlockSchema)
-      .min(1, { error: 'A plan needs at least one block.' })
-      .max(MAX_BLOCKS, { error: `A plan can have at most ${MAX_BLOCKS} blocks.` })
-      .describe('Blocks in the order they happen in the class.'),
-    tolerances: tolerancesSchema.default(DEFAULT_TOLERANCES).describe('Tolerances; defaults apply when left out.'),
-    options: planOptionsSchema.default(DEFAULT_PLAN_OPTIONS).describe('Options; defaults apply when left out.'),
-  })
-  .superRefine((plan, ctx) => {
-    const total = plan.blocks.reduce((sum, b) => sum + blockPlannedSeconds(b, plan.options), 0);
-    if (total > MAX_PLAN_SECONDS) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['blocks'],
-        message: `This plan adds up to ${Math.round(total / 60)} minutes; a class can be at most 12 hours. Check the rounds and seconds.`,
-      });
-    }
-    const count = plan.blocks.reduce((sum, b) => sum + blockSegmentCount(b), 0);
-    if (count > MAX_PLANNED_SEGMENTS) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['blocks'],
-        message: `This plan has ${count} intervals; at most ${MAX_PLANNED_SEGMENTS} are allowed. Check the rounds and sets.`,
-      });
-    }
-  })
+  .object(planFields)
+  .superRefine(checkPlanBounds)
   .describe('A class plan: blocks, tolerances for the timing check and options about rests.');
+
+/** Writing a plan: the plan's fields plus the class version the edit is based on (a stale one is refused). */
+export const planPutSchema = z
+  .object({
+    version: z
+      .number({ error: 'The version must be a number.' })
+      .int({ error: 'The version must be a whole number.' })
+      .nonnegative({ error: 'The version cannot be negative.' })
+      .describe('The class version this plan is based on (from GET …/plan); a stale version answers 409.'),
+    ...planFields,
+  })
+  .superRefine(checkPlanBounds)
+  .describe('A class plan with the class version it was read at.');
+
+export type PlanPut = z.infer<typeof planPutSchema>;
 
 /** A validated plan, defaults filled in. */
 export type Plan = z.infer<typeof planSchema>;

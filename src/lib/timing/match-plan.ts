@@ -177,6 +177,13 @@ export function matchPlan(plan: Plan, schedule: ExpectedSchedule, view: Timeline
   plan.blocks.forEach((block, blockIndex) => {
     if (block.kind !== 'circuit' && block.kind !== 'intervals') return;
     const unitsPlanned = block.kind === 'circuit' ? block.rounds : block.sets;
+    // Planned work per round (a round may leave stations out), or all sets of an intervals block.
+    const plannedPerKey = new Map<string, number>();
+    for (const p of plannedWork) {
+      if (p.blockIndex !== blockIndex) continue;
+      const key = p.round !== undefined ? `${p.blockIndex}:${p.round}` : `${p.blockIndex}:sets`;
+      plannedPerKey.set(key, (plannedPerKey.get(key) ?? 0) + 1);
+    }
     const unitSize = block.kind === 'circuit' ? block.stations.length : block.sets;
     let wholeMissing = 0;
     let firstMissingAt = Infinity;
@@ -186,7 +193,7 @@ export function matchPlan(plan: Plan, schedule: ExpectedSchedule, view: Timeline
       : [`${blockIndex}:sets`];
     for (const key of keys) {
       const list = missingByRound.get(key) ?? [];
-      if (list.length === unitSize && list.length > 0) {
+      if (list.length === (plannedPerKey.get(key) ?? unitSize) && list.length > 0) {
         wholeMissing += block.kind === 'circuit' ? 1 : block.sets;
         firstMissingAt = Math.min(firstMissingAt, anchorTime(list[0]!));
       } else partial.push(...list);
