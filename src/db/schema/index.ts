@@ -4,3 +4,4 @@ export * from './lessons';
 export * from './recordings';
 export * from './publishing';
 export * from './billing';
+export * from './plan-templates';

@@ -1,0 +1,67 @@
+/**
+ * Built-in plan templates: the class formats coaches start from most. Exercise names are left
+ * empty on purpose: the plan builder asks for them at the field, so a class never goes out
+ * with a placeholder move. Studios save their own templates next to these (database).
+ */
+import { z } from 'zod';
+import type { PlanInput } from './plan-schema';
+
+export interface BuiltInTemplate {
+  id: string;
+  name: string;
+  description: string;
+  plan: PlanInput;
+}
+
+const stations = (count: number, workSeconds: number, restSeconds: number) =>
+  Array.from({ length: count }, () => ({ exercise: '', workSeconds, restSeconds }));
+
+export const BUILT_IN_TEMPLATES: readonly BuiltInTemplate[] = [
+  {
+    id: 'tabata',
+    name: 'Tabata 8 × 20/10 s',
+    description: 'One move, 8 sets of 20 s work and 10 s rest: 4 minutes.',
+    // Tabata I. et al., Med Sci Sports Exerc 1996;28(10):1327–1330: 8 × (20 s + 10 s) = 240 s,
+    // the last rest included, so the template keeps the final rest.
+    plan: { blocks: [{ kind: 'intervals', exercise: '', sets: 8, workSeconds: 20, restSeconds: 10 }], options: { dropFinalRest: false } },
+  },
+  {
+    id: 'six-station-circuit',
+    name: 'Six-station circuit 45/15 s × 3',
+    description: 'Six stations of 45 s work and 15 s rest, three rounds: 18 minutes.',
+    // 6 × (45 s + 15 s) × 3 = 18 min (common practice, no source): every rest kept, no round break.
+    plan: {
+      blocks: [{ kind: 'circuit', rounds: 3, roundBreakSeconds: 0, stations: stations(6, 45, 15) }],
+      options: { roundBreakReplacesLastRest: false, dropFinalRest: false },
+    },
+  },
+  {
+    id: 'ladder',
+    name: 'Ladder 30/40/50 s',
+    description: 'Three stations, three rounds; work rises from 30 to 40 to 50 s with 20 s rests and a 60 s round break.',
+    plan: {
+      blocks: [
+        {
+          kind: 'circuit',
+          rounds: 3,
+          roundBreakSeconds: 60,
+          stations: stations(3, 30, 20),
+          roundChanges: [
+            { round: 1, workSeconds: 30 },
+            { round: 2, workSeconds: 40 },
+            { round: 3, workSeconds: 50 },
+          ],
+        },
+      ],
+    },
+  },
+];
+
+/** Saving the current plan as a studio template. */
+export const templateNameSchema = z
+  .string({ error: 'The template needs a name.' })
+  .trim()
+  .min(1, { error: 'The template needs a name.' })
+  .max(120, { error: 'A template name can be at most 120 characters.' })
+  .regex(/^[^\p{Cc}]*$/u, { error: 'A template name must be one line without control characters.' })
+  .describe('Name of the template, unique in the studio.');
