@@ -5,6 +5,7 @@
  */
 import type { Cue } from '../timeline/timeline-schema';
 import { toMillis } from '../time/format-time';
+import { compareWithAdvertised } from '../plan/advertised-length';
 import { at, kindName, length, plannedName, segmentName, sentence } from './describe';
 import type { Finding, FixChange } from './finding-types';
 import { proposeGapFix, proposeMediaFix, proposeOverlapFix, proposeResize } from './propose-fix';
@@ -162,11 +163,8 @@ export function advertisedFinding(
   fromPlan: boolean,
   advertisedMinutes: number | null | undefined,
 ): Finding | undefined {
-  if (advertisedMinutes === null || advertisedMinutes === undefined || advertisedMinutes <= 0) return undefined;
-  const advertised = advertisedMinutes * 60;
-  const allowed = (advertised * view.tolerances.advertisedPercent) / 100;
-  const diff = classSeconds - advertised;
-  if (Math.abs(toMillis(diff)) <= toMillis(allowed)) return undefined;
+  const comparison = compareWithAdvertised(classSeconds, advertisedMinutes, view.tolerances.advertisedPercent);
+  if (!comparison || comparison.within) return undefined;
   const what = fromPlan ? 'The plan adds up to' : 'The marked class runs';
   const first = view.segments[0];
   return {

@@ -3,7 +3,7 @@
  * every change, snapping, saving, and the command runner the keys and the toolbar share.
  * Components only render what it returns.
  */
-import { useCallback, useMemo, useReducer, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useReducer, useRef, useState } from 'react';
 import type { Plan } from '~/lib/plan/plan-schema';
 import type { Peaks } from '~/lib/media/peaks';
 import { findOnsets } from '~/lib/media/onsets';
@@ -14,6 +14,7 @@ import { editorReducer, initialEditorState, type Edge, type Selection } from '~/
 import { edgeTargets, planAnchor, plannedBoundaries, snapTime } from '~/lib/editor/snapping';
 import type { ShortcutCommand } from '~/lib/editor/shortcuts';
 import type { EditorData } from '../editor-api';
+import { onPlanSaved } from '../../plan-events';
 import { createPlayheadStore } from '../playhead-store';
 import type { MediaTimelineHandle } from '../MediaTimeline';
 import { runCommand, ZOOM_LEVELS, type CommandArgs, type CommandContext } from './editor-commands';
@@ -41,7 +42,9 @@ function exerciseNames(plan: Plan | null, segments: readonly { exercise?: string
 }
 
 export function useEditorController(lessonId: string, data: EditorData, peaks: Peaks | null) {
-  const plan: Plan | null = data.plan;
+  // The plan section on the same page may save a new plan while the editor is open.
+  const [plan, setPlan] = useState<Plan | null>(data.plan);
+  useEffect(() => onPlanSaved(lessonId, (saved) => setPlan(saved.plan)), [lessonId]);
   const mediaSeconds = useMemo(() => mediaSecondsOf(data), [data]);
   const [state, dispatch] = useReducer(editorReducer, undefined, () => initialEditorState(data.timeline, mediaSeconds));
   const stateRef = useRef(state);

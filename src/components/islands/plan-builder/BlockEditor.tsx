@@ -1,0 +1,162 @@
+import type { DraftBlock } from '~/lib/plan/plan-editing';
+import { duplicateItem, moveItem, removeItem } from '~/lib/plan/plan-editing';
+import { ExerciseField } from './ExerciseField';
+import { NumberField, smallButton } from './fields';
+
+type Circuit = Extract<DraftBlock, { kind: 'circuit' }>;
+type Station = Circuit['stations'][number];
+type RoundChange = NonNullable<Circuit['roundChanges']>[number];
+
+export interface BlockEditorProps {
+  block: DraftBlock;
+  /** Field path prefix of this block, e.g. `blocks.2`. */
+  path: string;
+  fields: Record<string, string>;
+  exerciseListId: string;
+  knownExercises: ReadonlySet<string>;
+  onChange(block: DraftBlock): void;
+}
+
+/** The fields of one block, by kind. */
+export default function BlockEditor(p: BlockEditorProps) {
+  const b = p.block;
+  const err = (name: string) => p.fields[`${p.path}.${name}`];
+  switch (b.kind) {
+    case 'warmup':
+    case 'cooldown':
+    case 'talk':
+      return (
+        <div className="grid gap-3 sm:grid-cols-2">
+          <NumberField label="Length (seconds)" value={b.seconds} onChange={(v) => p.onChange({ ...b, seconds: v as number })} error={err('seconds')} />
+        </div>
+      );
+    case 'intervals':
+      return (
+        <div className="grid gap-3 sm:grid-cols-4">
+          <div className="sm:col-span-4">
+            <ExerciseField label="Exercise" value={b.exercise ?? ''} onChange={(v) => p.onChange({ ...b, exercise: v })} error={err('exercise')} listId={p.exerciseListId} known={p.knownExercises} />
+          </div>
+          <NumberField label="Sets" value={b.sets} onChange={(v) => p.onChange({ ...b, sets: v as number })} error={err('sets')} min={1} />
+          <NumberField label="Work (s)" value={b.workSeconds} onChange={(v) => p.onChange({ ...b, workSeconds: v as number })} error={err('workSeconds')} min={1} />
+          <NumberField label="Rest (s)" value={b.restSeconds} onChange={(v) => p.onChange({ ...b, restSeconds: v as number })} error={err('restSeconds')} />
+        </div>
+      );
+    case 'circuit':
+      return <CircuitEditor {...p} block={b} />;
+  }
+}
+
+function CircuitEditor(p: BlockEditorProps & { block: Circuit }) {
+  const b = p.block;
+  const err = (name: string) => p.fields[`${p.path}.${name}`];
+  const setStations = (stations: Station[]) => p.onChange({ ...b, stations });
+  const setStation = (i: number, s: Station) => setStations(b.stations.map((x, j) => (j === i ? s : x)));
+  const last = b.stations[b.stations.length - 1];
+  return (
+    <div className="flex flex-col gap-3">
+      <div className="grid gap-3 sm:grid-cols-3">
+        <NumberField label="Rounds" value={b.rounds} onChange={(v) => p.onChange({ ...b, rounds: v as number })} error={err('rounds')} min={1} />
+        <NumberField label="Round break (s)" value={b.roundBreakSeconds} onChange={(v) => p.onChange({ ...b, roundBreakSeconds: v })} error={err('roundBreakSeconds')} />
+      </div>
+      <fieldset className="flex flex-col gap-2">
+        <legend className="text-sm font-bold">Stations</legend>
+        {err('stations') && <p className="text-sm font-semibold text-error" data-field-error>{err('stations')}</p>}
+        <ol className="flex flex-col gap-2">
+          {b.stations.map((s, i) => (
+            <li key={i} className="grid items-start gap-2 rounded-[10px] border border-stone/60 p-2 sm:grid-cols-[minmax(0,1fr)_7rem_7rem_auto]" data-station>
+              <ExerciseField
+                label={`Station ${i + 1}`}
+                value={s.exercise ?? ''}
+                onChange={(v) => setStation(i, { ...s, exercise: v })}
+                error={err(`stations.${i}.exercise`)}
+                listId={p.exerciseListId}
+                known={p.knownExercises}
+              />
+              <NumberField label="Work (s)" value={s.workSeconds} onChange={(v) => setStation(i, { ...s, workSeconds: v as number })} error={err(`stations.${i}.workSeconds`)} min={1} />
+              <NumberField label="Rest (s)" value={s.restSeconds} onChange={(v) => setStation(i, { ...s, restSeconds: v as number })} error={err(`stations.${i}.restSeconds`)} />
+              <div className="flex flex-wrap gap-1 self-end pb-1">
+                <button type="button" className={smallButton} onClick={() => setStations(moveItem(b.stations, i, i - 1))} disabled={i === 0} aria-label={`Move station ${i + 1} up`}>↑</button>
+                <button type="button" className={smallButton} onClick={() => setStations(moveItem(b.stations, i, i + 1))} disabled={i === b.stations.length - 1} aria-label={`Move station ${i + 1} down`}>↓</button>
+                <button type="button" className={smallButton} onClick={() => setStations(duplicateItem(b.stations, i))} aria-label={`Duplicate station ${i + 1}`}>Copy</button>
+                <button type="button" className={smallButton} onClick={() => setStations(removeItem(b.stations, i))} aria-label={`Remove station ${i + 1}`}>Remove</button>
+              </div>
+            </li>
+          ))}
+        </ol>
+        <div>
+          <button
+            type="button"
+            className={smallButton}
+            onClick={() => setStations([...b.stations, { exercise: '', workSeconds: last?.workSeconds ?? 40, restSeconds: last?.restSeconds ?? 20 }])}
+          >
+            Add station
+          </button>
+        </div>
+      </fieldset>
+      <RoundChanges {...p} block={b} />
+    </div>
+  );
+}
+
+/**
+ * Rounds that differ: their own work/rest seconds (ladders, pyramids) or stations they leave
+ * out. Empty seconds mean "as each station has it".
+ */
+function RoundChanges(p: BlockEditorProps & { block: Circuit }) {
+  const b = p.block;
+  const changes = b.roundChanges ?? [];
+  const err = (name: string) => p.fields[`${p.path}.roundChanges.${name}`];
+  const set = (next: RoundChange[]) => p.onChange({ ...b, roundChanges: next.length > 0 ? next : undefined });
+  const setChange = (i: number, c: RoundChange) => set(changes.map((x, j) => (j === i ? c : x)));
+  const nextRound = () => {
+    const used = new Set(changes.map((c) => c.round));
+    for (let r = 1; r <= (b.rounds ?? 1); r++) if (!used.has(r)) return r;
+    return (b.rounds ?? 1) + 1;
+  };
+  return (
+    <fieldset className="flex flex-col gap-2" data-round-changes>
+      <legend className="text-sm font-bold">Rounds that differ</legend>
+      <p className="text-sm text-ink-soft">For a ladder or pyramid give a round its own work or rest; leave stations out of a round that skips them. Empty seconds keep each station’s own.</p>
+      {changes.map((c, i) => (
+        <div key={i} className="grid items-start gap-2 rounded-[10px] border border-stone/60 p-2 sm:grid-cols-[6rem_7rem_7rem_minmax(0,1fr)_auto]" data-round-change>
+          <NumberField label="Round" value={c.round} onChange={(v) => setChange(i, { ...c, round: v as number })} error={err(`${i}.round`)} min={1} />
+          <NumberField label="Work (s)" value={c.workSeconds} onChange={(v) => setChange(i, { ...c, workSeconds: v })} error={err(`${i}.workSeconds`)} min={1} />
+          <NumberField label="Rest (s)" value={c.restSeconds} onChange={(v) => setChange(i, { ...c, restSeconds: v })} error={err(`${i}.restSeconds`)} />
+          <fieldset className="flex flex-col gap-1">
+            <legend className="text-sm font-semibold">Leave out</legend>
+            <div className="flex flex-wrap gap-x-3 gap-y-1">
+              {b.stations.map((s, k) => {
+                const n = k + 1;
+                const skipped = c.skipStations?.includes(n) ?? false;
+                return (
+                  <label key={k} className="inline-flex items-center gap-1 text-sm">
+                    <input
+                      type="checkbox"
+                      className="h-4 w-4 accent-ink"
+                      checked={skipped}
+                      onChange={(e) => {
+                        const rest = (c.skipStations ?? []).filter((x) => x !== n);
+                        const skipStations = e.target.checked ? [...rest, n].sort((x, y) => x - y) : rest;
+                        setChange(i, { ...c, skipStations: skipStations.length > 0 ? skipStations : undefined });
+                      }}
+                    />
+                    {n}. {s.exercise || 'unnamed'}
+                  </label>
+                );
+              })}
+            </div>
+            {err(`${i}.skipStations`) && <p className="text-sm font-semibold text-error" data-field-error>{err(`${i}.skipStations`)}</p>}
+          </fieldset>
+          <button type="button" className={`${smallButton} self-end`} onClick={() => set(changes.filter((_, j) => j !== i))} aria-label={`Remove the change to round ${c.round}`}>
+            Remove
+          </button>
+        </div>
+      ))}
+      <div>
+        <button type="button" className={smallButton} onClick={() => set([...changes, { round: nextRound() }])}>
+          Change a round
+        </button>
+      </div>
+    </fieldset>
+  );
+}

@@ -1,0 +1,79 @@
+/** The plan builder's calls to our API (same origin, session cookie). */
+import { planSchema, type Plan, type PlanInput } from '~/lib/plan/plan-schema';
+import { apiCall, ApiError } from '../api-client';
+import { pickRecording, type EditorRecording } from '../timeline-editor/editor-api';
+
+const lessonPath = (id: string) => `/api/lessons/${encodeURIComponent(id)}`;
+
+export interface PlanBuilderData {
+  plan: Plan | null;
+  version: number;
+  exercises: string[];
+  /** Length of the class's ready recording, if any. */
+  recordingSeconds: number | null;
+}
+
+export async function loadPlanBuilder(lessonId: string): Promise<PlanBuilderData> {
+  const [view, library, recs] = await Promise.all([
+    apiCall<{ plan: unknown; version: number }>('GET', `${lessonPath(lessonId)}/plan`),
+    apiCall<{ exercises: { name: string }[] }>('GET', '/api/exercises'),
+    apiCall<{ recordings: EditorRecording[] }>('GET', `${lessonPath(lessonId)}/recordings`),
+  ]);
+  const parsed = view.plan ? planSchema.safeParse(view.plan) : null;
+  return {
+    plan: parsed?.success ? parsed.data : null,
+    version: view.version,
+    exercises: library.exercises.map((e) => e.name),
+    recordingSeconds: pickRecording(recs.recordings)?.durationSeconds ?? null,
+  };
+}
+
+export type PlanSaveOutcome =
+  | { ok: true; version: number; plan: Plan; addedExercises: string[] }
+  | { ok: false; conflict: true }
+  | { ok: false; conflict: false; message: string; fields: Record<string, string> };
+
+/** Saves against `version`; a 409 and field errors come back as outcomes, never thrown. */
+export async function savePlan(lessonId: string, version: number, plan: PlanInput): Promise<PlanSaveOutcome> {
+  try {
+    const res = await apiCall<{ version: number; plan: Plan; addedExercises?: string[] }>('PUT', `${lessonPath(lessonId)}/plan`, { version, ...plan });
+    return { ok: true, version: res.version, plan: res.plan, addedExercises: res.addedExercises ?? [] };
+  } catch (err) {
+    if (err instanceof ApiError && err.status === 409) return { ok: false, conflict: true };
+    if (err instanceof ApiError && err.status === 400) return { ok: false, conflict: false, message: err.message, fields: err.fields ?? {} };
+    throw err;
+  }
+}
+
+export interface TemplateChoice {
+  id: string;
+  name: string;
+  description?: string;
+  builtIn: boolean;
+  plan: PlanInput;
+}
+
+export interface TemplateSources {
+  templates: TemplateChoice[];
+  /** The studio's other classes, to copy a plan from. */
+  classes: { id: string; title: string }[];
+}
+
+export async function loadTemplateSources(lessonId: string): Promise<TemplateSources> {
+  const [t, l] = await Promise.all([
+    apiCall<{ templates: TemplateChoice[] }>('GET', '/api/plan-templates'),
+    apiCall<{ lessons: { id: string; title: string }[] }>('GET', '/api/lessons'),
+  ]);
+  return { templates: t.templates, classes: l.lessons.filter((x) => x.id !== lessonId).map((x) => ({ id: x.id, title: x.title })) };
+}
+
+/** Another class's plan, or null when it has none. */
+export async function loadClassPlan(lessonId: string): Promise<Plan | null> {
+  const view = await apiCall<{ plan: unknown }>('GET', `${lessonPath(lessonId)}/plan`);
+  const parsed = view.plan ? planSchema.safeParse(view.plan) : null;
+  return parsed?.success ? parsed.data : null;
+}
+
+export async function saveTemplate(name: string, plan: PlanInput): Promise<TemplateChoice> {
+  return apiCall<TemplateChoice>('POST', '/api/plan-templates', { name, plan });
+}

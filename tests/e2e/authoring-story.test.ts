@@ -1,0 +1,163 @@
+// A coach builds a class in the browser from nothing, through the real app, database and
+// Chromium, touching only the page's controls (the API is read only to check what was stored):
+// create the class, build its plan in the Plan section (typing, field messages in the schema's
+// words, reorder by keyboard and by drag, duplicate, remove), save, and meet a stale save.
+// Screenshots go to test-results/screenshots/authoring-*.png.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { ApiClient, BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
+import { launchBrowser, SHOTS } from '../helpers/browser';
+
+let browser: Browser;
+let api: ApiClient;
+let classUrl = '';
+/** Clicks and key presses the story needed, counted as it goes (reported in the note). */
+const effort = { clicks: 0, keys: 0 };
+
+beforeAll(async () => {
+  api = await signedIn(DEMO.coach);
+  browser = await launchBrowser();
+}, 60_000);
+
+afterAll(async () => {
+  console.log(`authoring story effort: ${effort.clicks} clicks, ${effort.keys} keys typed or pressed`);
+  await browser?.close();
+});
+
+async function signInPage(email: string, viewport = { width: 1366, height: 900 }): Promise<{ context: BrowserContext; page: Page }> {
+  const context = await browser.newContext({ viewport });
+  const page = await context.newPage();
+  await page.goto(BASE() + '/sign-in');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((url) => url.pathname !== '/sign-in');
+  return { context, page };
+}
+
+/** Types into a field and counts the keys. */
+async function type(page: Page, locator: ReturnType<Page['locator']>, text: string) {
+  await locator.fill(text);
+  effort.keys += text.length;
+}
+async function click(locator: ReturnType<Page['locator']>) {
+  await locator.click();
+  effort.clicks += 1;
+}
+
+/** Drags block `from`'s handle with the mouse onto block `to` (pointer events, as a person would). */
+async function dragBlock(page: Page, from: number, to: number) {
+  // A tall window keeps both blocks on screen while the mouse moves.
+  const before = page.viewportSize()!;
+  await page.setViewportSize({ width: before.width, height: 2400 });
+  await page.locator('[data-plan-block]').nth(from).scrollIntoViewIfNeeded();
+  const handle = (await page.locator('[data-plan-block] [data-drag-handle]').nth(from).boundingBox())!;
+  const target = (await page.locator('[data-plan-block]').nth(to).boundingBox())!;
+  await page.mouse.move(handle.x + handle.width / 2, handle.y + handle.height / 2);
+  await page.mouse.down();
+  const steps = 8;
+  for (let i = 1; i <= steps; i++) {
+    await page.mouse.move(handle.x + handle.width / 2, handle.y + ((target.y + target.height / 2 - handle.y) * i) / steps);
+  }
+  await page.mouse.up();
+  effort.clicks += 1;
+  await page.setViewportSize(before);
+}
+
+const blockKinds = (page: Page) => page.locator('[data-plan-block]').evaluateAll((els) => els.map((e) => e.getAttribute('data-plan-block')));
+const planOf = async (id: string) => (await (await api.get(`/api/lessons/${id}/plan`)).json()) as { version: number; plan: { blocks: { kind: string; stations?: { exercise: string }[] }[] } | null; schedule: { totals: { classSeconds: number } } | null };
+
+describe('a coach authors a class from an empty one', () => {
+  let lessonId = '';
+
+  it('creates the class and builds, reorders and saves its plan with the real controls', async () => {
+    const { context, page } = await signInPage(DEMO.coach);
+    const pageErrors: string[] = [];
+    page.on('pageerror', (e) => pageErrors.push(e.message));
+    await page.goto(BASE() + '/studio/classes');
+    await type(page, page.getByLabel('Title'), 'Lunchtime Sides and Ladders');
+    await type(page, page.getByLabel('Advertised length (minutes)'), '20');
+    await click(page.getByRole('button', { name: 'Create class' }));
+    await page.waitForURL(/\/studio\/classes\/[0-9a-f-]{36}/);
+    classUrl = page.url();
+    lessonId = classUrl.split('/').pop()!;
+    const plan = page.locator('[data-plan-builder]');
+    await plan.waitFor();
+    expect(await blockKinds(page)).toEqual(['warmup']);
+
+    // A circuit: its stations start empty, and the schema's own words show at each field.
+    await click(page.getByRole('button', { name: '+ Circuit' }));
+    const circuit = page.locator('[data-plan-block="circuit"]');
+    await expect.poll(() => circuit.locator('[data-field-error]').first().textContent()).toBe('The exercise needs a name.');
+    const stations = circuit.locator('[data-exercise-input]');
+    await type(page, stations.nth(0), 'Goblet squat');
+    await type(page, stations.nth(1), 'Push-up');
+    await type(page, stations.nth(2), 'Sideways lunge test move');
+    // A name the library lacks is marked new; a known one is not.
+    await expect.poll(() => circuit.locator('[data-new-exercise]').count()).toBeGreaterThanOrEqual(1);
+    // A bad number: the message is the schema's, at the field.
+    const rounds = circuit.getByLabel('Rounds');
+    await type(page, rounds, '0');
+    await expect.poll(() => circuit.locator('[data-field-error]').allTextContents()).toContain('A circuit needs at least 1 round.');
+    await type(page, rounds, '3');
+    await expect.poll(() => circuit.locator('[data-field-error]').count()).toBe(0);
+    // Planned length of the block: 3 × 3 × (40 + 20) − 3 × 20 (round break replaces / final rest dropped) + 2 × 60 = 600 s.
+    expect(await circuit.locator('[data-block-length]').textContent()).toBe('10:00');
+
+    // A cool-down, then an intervals block moved above it with the keyboard, then a talk
+    // duplicated and removed, and the cool-down dragged to the end.
+    await click(page.getByRole('button', { name: '+ Cool-down' }));
+    await click(page.getByRole('button', { name: '+ Talk' }));
+    expect(await blockKinds(page)).toEqual(['warmup', 'circuit', 'cooldown', 'talk']);
+    await click(page.getByRole('button', { name: 'Duplicate Talk (block 4)' }));
+    expect(await blockKinds(page)).toEqual(['warmup', 'circuit', 'cooldown', 'talk', 'talk']);
+    await click(page.getByRole('button', { name: 'Remove Talk (block 5)' }));
+    await page.getByRole('button', { name: 'Move Talk (block 4) up' }).focus();
+    await page.keyboard.press('Alt+ArrowUp');
+    effort.keys += 1;
+    expect(await blockKinds(page)).toEqual(['warmup', 'circuit', 'talk', 'cooldown']);
+    await click(page.getByRole('button', { name: 'Move Talk (block 3) up' }));
+    expect(await blockKinds(page)).toEqual(['warmup', 'talk', 'circuit', 'cooldown']);
+    // Drag the talk (block 2) onto the cool-down (block 4): it lands at position 4.
+    await dragBlock(page, 1, 3);
+    expect(await blockKinds(page)).toEqual(['warmup', 'circuit', 'cooldown', 'talk']);
+    await click(page.getByRole('button', { name: 'Remove Talk (block 4)' }));
+
+    // Live total against the advertised 20 min ± 10 %: 5:00 + 10:00 + 3:00 = 18:00, within.
+    await expect.poll(() => plan.locator('[data-planned-total]').textContent()).toBe('18:00');
+    expect(await plan.locator('[data-length-ok]').count()).toBe(1);
+    await page.screenshot({ path: `${SHOTS}/authoring-plan-desktop.png`, fullPage: true });
+
+    expect(await page.locator('[data-editor]').getByText('Add a plan, then come back').count()).toBe(1);
+    await click(page.getByRole('button', { name: 'Save plan' }));
+    await expect.poll(() => plan.locator('[data-plan-save-state]').getAttribute('data-plan-save-state')).toBe('saved');
+    const stored = await planOf(lessonId);
+    expect(stored.plan?.blocks.map((b) => b.kind)).toEqual(['warmup', 'circuit', 'cooldown']);
+    expect(stored.plan?.blocks[1]?.stations?.map((s) => s.exercise)).toEqual(['Goblet squat', 'Push-up', 'Sideways lunge test move']);
+    expect(stored.schedule?.totals.classSeconds).toBe(18 * 60);
+    // The timeline editor on the same page now checks against the new plan.
+    await expect.poll(() => page.locator('[data-editor]').getByText('Add a plan, then come back').count()).toBe(0);
+    expect(pageErrors).toEqual([]);
+    await context.close();
+  }, 120_000);
+
+  it('a stale plan save answers 409 and the page offers to reload, keeping the newer plan', async () => {
+    const a = await signInPage(DEMO.coach);
+    const b = await signInPage(DEMO.editor);
+    await a.page.goto(classUrl);
+    await b.page.goto(classUrl);
+    await a.page.locator('[data-plan-builder]').waitFor();
+    await b.page.locator('[data-plan-builder]').waitFor();
+    await b.page.locator('[data-plan-block="cooldown"]').getByLabel('Length (seconds)').fill('240');
+    await b.page.getByRole('button', { name: 'Save plan' }).click();
+    await expect.poll(() => b.page.locator('[data-plan-save-state]').getAttribute('data-plan-save-state')).toBe('saved');
+    await a.page.locator('[data-plan-block="cooldown"]').getByLabel('Length (seconds)').fill('120');
+    await a.page.getByRole('button', { name: 'Save plan' }).click();
+    await expect.poll(() => a.page.locator('[data-plan-save-state]').getAttribute('data-plan-save-state')).toBe('conflict');
+    await a.page.getByRole('button', { name: 'Reload to see their changes' }).click();
+    await a.page.locator('[data-plan-block="cooldown"]').waitFor();
+    expect(await a.page.locator('[data-plan-block="cooldown"]').getByLabel('Length (seconds)').inputValue()).toBe('240');
+    await a.context.close();
+    await b.context.close();
+  }, 120_000);
+});
