@@ -45,7 +45,7 @@ const writes: [string, Role[], (actor: Actor) => Promise<unknown>][] = [
   ['createClass', ['member'], (a) => createClass(a, deps, { title: 'Refused', advertisedMinutes: 20, description: '', equipment: [], impact: 'low', focus: [], difficulty: 'beginner', cautions: '' })],
   ['updateClassDetails', ['member'], (a) => updateClassDetails(a, deps, { lessonId: lesson.id, details: { version: lesson.version, title: 'Taken over' } })],
   ['deleteClass', ['editor', 'member'], (a) => deleteClass(a, deps, { lessonId: lesson.id })],
-  ['saveClassPlan', ['member'], (a) => saveClassPlan(a, deps, { lessonId: lesson.id, plan: planSchema.parse(SMALL_PLAN) })],
+  ['saveClassPlan', ['member'], (a) => saveClassPlan(a, deps, { lessonId: lesson.id, version: lesson.version, plan: planSchema.parse(SMALL_PLAN) })],
   ['saveClassTimeline', ['member'], (a) => saveClassTimeline(a, deps, { lessonId: lesson.id, version: 0, timeline: { segments: [], cues: [] } })],
   ['publishClass', ['editor', 'member'], (a) => publishClass(a, deps, { lessonId: lesson.id, acknowledgeWarnings: true })],
   ['schedulePublish', ['coach', 'editor', 'member'], (a) => schedulePublish(a, deps, { lessonId: lesson.id, at: soon(), acknowledgeWarnings: true })],

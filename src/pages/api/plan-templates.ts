@@ -2,15 +2,16 @@ import type { APIRoute } from 'astro';
 import { createPlanTemplateInput } from '~/lib/api/plan-template-schemas';
 import { app } from '~/server/app';
 import { endpoint, json, readJson } from '~/server/http/api';
-import { requireRole, STAFF } from '~/server/http/guards';
-import { createPlanTemplate, listPlanTemplates } from '~/server/services/plan-templates';
+import { requireActor, requireCan } from '~/server/http/guards';
+import { listPlanTemplates } from '~/server/services/plan-templates';
+import { savePlanTemplate } from '~/server/use-cases/plan-templates';
 
 export const GET: APIRoute = endpoint(async ({ locals }) => {
-  const { studio } = requireRole(locals, STAFF);
+  const { studio } = requireCan(locals, 'class.view');
   return json({ templates: await listPlanTemplates(app(), studio.studioId) });
 });
 
 export const POST: APIRoute = endpoint(async ({ locals, request }) => {
-  const { studio, user } = requireRole(locals, STAFF);
-  return json(await createPlanTemplate(app(), studio.studioId, user.id, await readJson(request, createPlanTemplateInput)), 201);
+  const actor = requireActor(locals);
+  return json(await savePlanTemplate(actor, app(), await readJson(request, createPlanTemplateInput)), 201);
 });

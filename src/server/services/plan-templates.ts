@@ -2,7 +2,7 @@ import { eq } from 'drizzle-orm';
 import { planTemplates } from '~/db/schema';
 import { BUILT_IN_TEMPLATES } from '~/lib/plan/plan-templates';
 import type { CreatePlanTemplateInput, PlanTemplateOutput } from '~/lib/api/plan-template-schemas';
-import { AppError } from '../http/app-error';
+import { AppError } from '../errors';
 import type { AppDeps } from '../app';
 import { parseStoredPlan } from './lesson-plans';
 
