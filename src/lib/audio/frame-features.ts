@@ -1,0 +1,196 @@
+/**
+ * Short-time spectra of a mono signal, reduced to the few figures per frame the detectors need.
+ * The FFT is fft.js (a maintained radix-4 implementation); this module only windows, hops and
+ * sums bands. It is streaming: feed PCM chunks as they arrive from the decoder, so a 90-minute
+ * class never sits in memory as samples.
+ */
+import FFT from 'fft.js';
+
+/** Hop between frames: 10 ms, so events are placed to a few ms after interpolation. */
+export const FRAMES_PER_SECOND = 100;
+
+/** Band where timer tones and whistles are looked for (Hz). */
+export const TONAL_BAND: readonly [number, number] = [500, 4200];
+/** Band of speech energy (Hz): the telephone band, where a voice's formants carry. */
+export const VOICE_BAND: readonly [number, number] = [300, 3400];
+
+/** Per-frame figures; index i is the frame centred on i / FRAMES_PER_SECOND seconds. */
+export interface FrameFeatures {
+  sampleRate: number;
+  fftSize: number;
+  /** Hz per FFT bin. */
+  binHz: number;
+  count: number;
+  /** Whole-spectrum power, dB relative to a full-scale sine. */
+  totalDb: Float32Array;
+  /** Voice-band power, dB (same reference). */
+  voiceDb: Float32Array;
+  /** Strongest peak in the tonal band: interpolated frequency (Hz) and amplitude (linear, full-scale sine = 1). */
+  peakHz: Float32Array;
+  peakAmp: Float32Array;
+  /** Share of the tonal band's power in the peak's three bins (1 = a pure tone, ~0.05 = noise). */
+  peakShare: Float32Array;
+  /** Share of the tonal band's power within ±{@link NEAR_PEAK_HZ} of the peak (a warbling whistle keeps it high). */
+  nearShare: Float32Array;
+  /** Power-weighted mean frequency within ±{@link NEAR_PEAK_HZ} of the peak, Hz (steadier than the peak for a warble). */
+  nearHz: Float32Array;
+}
+
+/** Half-width of the neighbourhood of the peak that a warbling whistle stays within, Hz. */
+export const NEAR_PEAK_HZ = 250;
+
+export interface FrameFeatureAccumulator {
+  push(samples: Float32Array): void;
+  finish(): FrameFeatures;
+}
+
+/** FFT length for a sample rate: about 46 ms, long enough to split 500 Hz tones from speech harmonics. */
+export function fftSizeFor(sampleRate: number): number {
+  let size = 256;
+  while (size * 2 <= sampleRate * 0.05) size *= 2;
+  return size;
+}
+
+/**
+ * Creates the accumulator. Frame i covers samples [i·hop − N/2, i·hop + N/2) with zeros before
+ * the start, so its centre is exactly i·hop: a tone's start is where its amplitude first reaches
+ * half its steady value (the window then covers the tone's first half-window).
+ */
+export function createFrameFeatureAccumulator(sampleRate: number): FrameFeatureAccumulator {
+  if (!(sampleRate >= 9000)) throw new RangeError('the analysis needs at least 9 kHz to hear tones up to 4.2 kHz');
+  const size = fftSizeFor(sampleRate);
+  const half = size / 2;
+  const hop = sampleRate / FRAMES_PER_SECOND; // may be fractional: frame centres are rounded
+  const fft = new FFT(size);
+  const window = new Float64Array(size);
+  let windowSum = 0;
+  for (let i = 0; i < size; i++) {
+    window[i] = 0.5 - 0.5 * Math.cos((2 * Math.PI * i) / size); // Hann
+    windowSum += window[i] as number;
+  }
+  // A full-scale sine centred on a bin gives |X| = windowSum / 2: dividing by it makes amplitude 1.
+  const ampScale = 2 / windowSum;
+  const binHz = sampleRate / size;
+  const bin = (hz: number) => Math.round(hz / binHz);
+  const [tonalLo, tonalHi] = [bin(TONAL_BAND[0]), Math.min(half - 2, bin(TONAL_BAND[1]))];
+  const [voiceLo, voiceHi] = [bin(VOICE_BAND[0]), Math.min(half - 1, bin(VOICE_BAND[1]))];
+
+  const frame = new Float64Array(size);
+  const spectrum = fft.createComplexArray() as number[];
+  const power = new Float64Array(half + 1);
+
+  // Ring of the most recent `size` samples; `received` counts all samples so far.
+  const ring = new Float32Array(size);
+  let received = 0;
+  let nextFrame = 0;
+  let nextFrameEnd = half;
+
+  let capacity = 4096;
+  let totalDb = new Float32Array(capacity);
+  let voiceDb = new Float32Array(capacity);
+  let peakHz = new Float32Array(capacity);
+  let peakAmp = new Float32Array(capacity);
+  let peakShare = new Float32Array(capacity);
+  let nearShare = new Float32Array(capacity);
+  let nearHz = new Float32Array(capacity);
+  const nearBins = Math.round(NEAR_PEAK_HZ / binHz);
+  const grow = () => {
+    capacity *= 2;
+    const g = (a: Float32Array) => {
+      const b = new Float32Array(capacity);
+      b.set(a);
+      return b;
+    };
+    totalDb = g(totalDb);
+    voiceDb = g(voiceDb);
+    peakHz = g(peakHz);
+    peakAmp = g(peakAmp);
+    peakShare = g(peakShare);
+    nearShare = g(nearShare);
+    nearHz = g(nearHz);
+  };
+
+  const toDb = (p: number) => (p > 1e-20 ? 10 * Math.log10(p) : -200);
+
+  /** Analyses frame `index`, whose last sample (exclusive end) has been received. */
+  const analyse = (index: number) => {
+    const centre = Math.round(index * hop);
+    const start = centre - half;
+    for (let i = 0; i < size; i++) {
+      const s = start + i;
+      frame[i] = s < 0 || s >= received ? 0 : (ring[s % size] as number) * (window[i] as number);
+    }
+    fft.realTransform(spectrum, frame);
+    let total = 0;
+    for (let k = 0; k <= half; k++) {
+      const re = (spectrum[2 * k] as number) * ampScale;
+      const im = (spectrum[2 * k + 1] as number) * ampScale;
+      const p = re * re + im * im;
+      power[k] = p;
+      total += p;
+    }
+    let voice = 0;
+    for (let k = voiceLo; k <= voiceHi; k++) voice += power[k] as number;
+    let band = 0;
+    let best = tonalLo;
+    for (let k = tonalLo; k <= tonalHi; k++) {
+      const p = power[k] as number;
+      band += p;
+      if (p > (power[best] as number)) best = k;
+    }
+    const a = Math.sqrt(power[best - 1] as number);
+    const b = Math.sqrt(power[best] as number);
+    const c = Math.sqrt(power[best + 1] as number);
+    // Parabolic interpolation of the magnitude peak: within a tenth of a bin for a Hann window.
+    const denom = a - 2 * b + c;
+    const offset = denom < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (a - c)) / denom)) : 0;
+    const peak3 = (power[best - 1] as number) + (power[best] as number) + (power[best + 1] as number);
+    if (index >= capacity) grow();
+    totalDb[index] = toDb(total);
+    voiceDb[index] = toDb(voice);
+    peakHz[index] = (best + offset) * binHz;
+    // Three-bin power sum recovers a Hann-windowed sine's power wherever it falls between bins.
+    peakAmp[index] = Math.sqrt(peak3 / 1.5);
+    peakShare[index] = band > 0 ? peak3 / band : 0;
+    let near = 0;
+    let moment = 0;
+    for (let k = Math.max(tonalLo, best - nearBins); k <= Math.min(tonalHi, best + nearBins); k++) {
+      near += power[k] as number;
+      moment += (power[k] as number) * k;
+    }
+    nearShare[index] = band > 0 ? near / band : 0;
+    nearHz[index] = near > 0 ? (moment / near) * binHz : 0;
+  };
+
+  return {
+    push(samples: Float32Array) {
+      for (let i = 0; i < samples.length; i++) {
+        ring[received % size] = samples[i] as number;
+        received++;
+        // Frame n needs samples up to its centre + half (exclusive).
+        while (nextFrameEnd <= received) {
+          analyse(nextFrame++);
+          nextFrameEnd = Math.round(nextFrame * hop) + half;
+        }
+      }
+    },
+    finish(): FrameFeatures {
+      // Frames whose window runs past the end see zeros there; stop at the last sample.
+      while (Math.round(nextFrame * hop) < received) analyse(nextFrame++);
+      const count = nextFrame;
+      return {
+        sampleRate,
+        fftSize: size,
+        binHz,
+        count,
+        totalDb: totalDb.subarray(0, count),
+        voiceDb: voiceDb.subarray(0, count),
+        peakHz: peakHz.subarray(0, count),
+        peakAmp: peakAmp.subarray(0, count),
+        peakShare: peakShare.subarray(0, count),
+        nearShare: nearShare.subarray(0, count),
+        nearHz: nearHz.subarray(0, count),
+      };
+    },
+  };
+}
