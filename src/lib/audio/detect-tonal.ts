@@ -6,6 +6,7 @@
  */
 import type { AudioEvent } from './audio-events';
 import { FRAMES_PER_SECOND, type FrameFeatures } from './frame-features';
+import { RunningPercentile } from './running-percentile';
 
 /** Share of the band's power the peak's three bins must hold for a steady tone (tuned on generated signals, no source). */
 const MIN_SHARE = 0.4;
@@ -15,6 +16,13 @@ const MIN_NEAR_SHARE = 0.7;
 const MIN_LEVEL_DB = -50;
 /** Shortest tone, seconds (timer beeps are about 0.1 s and longer). */
 const MIN_SECONDS = 0.06;
+/**
+ * How far a tone must rise above the broad level of the two seconds before it, dB. A timer's beep
+ * or a whistle cuts through the room; a note inside the music does not (tuned on generated
+ * signals, no source).
+ */
+const MIN_PROMINENCE_DB = 3;
+const BACKGROUND_SECONDS = 2;
 /** Frames a run may skip (a whistle's trill dips for a frame or two). */
 const MAX_GAP_FRAMES = 2;
 /** Largest pitch change between neighbouring frames of one run, Hz. */
@@ -32,9 +40,10 @@ const dbOf = (amp: number) => (amp > 1e-10 ? 20 * Math.log10(amp) : -200);
 
 /** Frames belonging to a tone or whistle, so speech detection can leave them out. */
 export function detectTonalEvents(f: FrameFeatures): { events: AudioEvent[]; tonalMask: Uint8Array } {
+  const background = backgroundLevels(f);
   const inWhistleBand = (hz: number) => hz >= WHISTLE_BAND[0] && hz <= WHISTLE_BAND[1];
   const tonal = (i: number) =>
-    dbOf(f.peakAmp[i] as number) >= MIN_LEVEL_DB &&
+    dbOf(f.peakAmp[i] as number) >= Math.max(MIN_LEVEL_DB, (background[i] as number) + MIN_PROMINENCE_DB) &&
     ((f.peakShare[i] as number) >= MIN_SHARE ||
       ((f.nearShare[i] as number) >= MIN_NEAR_SHARE && inWhistleBand(f.nearHz[i] as number)));
   const runs: TonalRun[] = [];
@@ -120,6 +129,25 @@ function describeRun(f: FrameFeatures, run: TonalRun, tonal: (i: number) => bool
     durationSeconds: round3(durationSeconds),
     frequencyHz: Math.round(kind === 'tone' ? meanHz : centreHz),
   };
+}
+
+/**
+ * Median whole-spectrum level of the two seconds before each frame (leaving out the last 0.1 s,
+ * which a tone's own onset may already fill); digital silence before the first sound counts as -120 dB.
+ */
+function backgroundLevels(f: FrameFeatures): Float32Array {
+  const window = BACKGROUND_SECONDS * FRAMES_PER_SECOND;
+  const guard = 10;
+  const levels = new RunningPercentile(-120, 0);
+  const out = new Float32Array(f.count);
+  for (let i = 0; i < f.count; i++) {
+    const entering = i - guard;
+    if (entering >= 0) levels.add(f.totalDb[entering] as number);
+    const leaving = i - guard - window;
+    if (leaving >= 0) levels.remove(f.totalDb[leaving] as number);
+    out[i] = levels.size === 0 ? -120 : levels.percentile(0.5);
+  }
+  return out;
 }
 
 /** Fractional frame between `outside` and `inside` where the amplitude crosses `level`. */

@@ -6,8 +6,11 @@
  */
 import FFT from 'fft.js';
 
-/** Hop between frames: 10 ms, so events are placed to a few ms after interpolation. */
-export const FRAMES_PER_SECOND = 100;
+/**
+ * Hop between frames: 20 ms. Tone starts are interpolated between frames to a few ms, and half
+ * the frames of a 10 ms hop keep the analysis within the time of decoding the audio.
+ */
+export const FRAMES_PER_SECOND = 50;
 
 /** Band where timer tones and whistles are looked for (Hz). */
 export const TONAL_BAND: readonly [number, number] = [500, 4200];
@@ -79,8 +82,9 @@ export function createFrameFeatureAccumulator(sampleRate: number): FrameFeatureA
   const spectrum = fft.createComplexArray() as number[];
   const power = new Float64Array(half + 1);
 
-  // Ring of the most recent `size` samples; `received` counts all samples so far.
-  const ring = new Float32Array(size);
+  // Samples from `bufferStart` on (the oldest any pending frame still needs); `received` counts all samples so far.
+  let buffer = new Float32Array(Math.max(size * 4, 65536));
+  let bufferStart = 0;
   let received = 0;
   let nextFrame = 0;
   let nextFrameEnd = half;
@@ -118,7 +122,7 @@ export function createFrameFeatureAccumulator(sampleRate: number): FrameFeatureA
     const start = centre - half;
     for (let i = 0; i < size; i++) {
       const s = start + i;
-      frame[i] = s < 0 || s >= received ? 0 : (ring[s % size] as number) * (window[i] as number);
+      frame[i] = s < 0 || s >= received ? 0 : (buffer[s - bufferStart] as number) * (window[i] as number);
     }
     fft.realTransform(spectrum, frame);
     let total = 0;
@@ -164,14 +168,24 @@ export function createFrameFeatureAccumulator(sampleRate: number): FrameFeatureA
 
   return {
     push(samples: Float32Array) {
-      for (let i = 0; i < samples.length; i++) {
-        ring[received % size] = samples[i] as number;
-        received++;
-        // Frame n needs samples up to its centre + half (exclusive).
-        while (nextFrameEnd <= received) {
-          analyse(nextFrame++);
-          nextFrameEnd = Math.round(nextFrame * hop) + half;
-        }
+      // Drop what no pending frame needs, then append.
+      const keepFrom = Math.max(0, Math.min(received, Math.round(nextFrame * hop) - half));
+      if (keepFrom > bufferStart) {
+        buffer.copyWithin(0, keepFrom - bufferStart, received - bufferStart);
+        bufferStart = keepFrom;
+      }
+      const needed = received - bufferStart + samples.length;
+      if (needed > buffer.length) {
+        const bigger = new Float32Array(Math.max(needed, buffer.length * 2));
+        bigger.set(buffer.subarray(0, received - bufferStart));
+        buffer = bigger;
+      }
+      buffer.set(samples, received - bufferStart);
+      received += samples.length;
+      // Frame n needs samples up to its centre + half (exclusive).
+      while (nextFrameEnd <= received) {
+        analyse(nextFrame++);
+        nextFrameEnd = Math.round(nextFrame * hop) + half;
       }
     },
     finish(): FrameFeatures {

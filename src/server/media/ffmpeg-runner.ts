@@ -10,6 +10,7 @@
 import { spawn } from 'node:child_process';
 import { open, stat, writeFile } from 'node:fs/promises';
 import { buildPeaksArgs, PEAKS_PCM_SAMPLE_RATE } from '~/lib/media/hls-ladder';
+import { buildMonoPcmArgs } from '~/lib/media/pcm-args';
 import { createPeaksAccumulator, encodePeaks, type Peaks } from '~/lib/media/peaks';
 import {
   parseFfprobeJson,
@@ -184,4 +185,44 @@ export async function runFfmpegCommand(
 ): Promise<{ stderrTail: string }> {
   for (const file of command.files) await writeFile(file.path, file.content, 'utf8');
   return runFfmpeg(command.args, options);
+}
+
+/**
+ * Decodes the first audio stream to mono float samples at `sampleRate`, handing them over in
+ * chunks as they arrive (memory stays small for long classes). Rejects with {@link FfmpegError}
+ * when the file has no audio.
+ */
+export async function decodeMonoPcm(
+  path: string,
+  sampleRate: number,
+  onSamples: (samples: Float32Array) => void,
+  options: PeaksReadOptions = {},
+): Promise<void> {
+  let carry: Buffer | null = null; // bytes of a sample split between chunks
+  const run: RunOptions = {
+    onStdout: (chunk) => {
+      const data: Buffer = carry ? Buffer.concat([carry, chunk]) : chunk;
+      const usable = data.length - (data.length % 4);
+      carry = usable < data.length ? Buffer.from(data.subarray(usable)) : null;
+      // Copy into a fresh (aligned) buffer: Float32Array views need a byte offset divisible by 4.
+      // f32le read as host order: every platform Node supports here is little-endian.
+      const bytes = new Uint8Array(usable);
+      bytes.set(data.subarray(0, usable));
+      onSamples(new Float32Array(bytes.buffer));
+    },
+  };
+  if (options.signal) run.signal = options.signal;
+  const args = buildMonoPcmArgs(
+    options.durationSeconds === undefined ? { input: path, sampleRate } : { input: path, sampleRate, durationSeconds: options.durationSeconds },
+  );
+  await runFfmpeg(args, run);
+}
+
+/** espeak-ng (Debian package), for generated coach voices in demo and test media. */
+export const ESPEAK_PATH = process.env.ESPEAK_PATH ?? 'espeak-ng';
+
+/** Speaks `text` into a WAV file (22.05 kHz mono). `voice` is an espeak-ng voice name such as `en` or `en+f3`. */
+export async function speakToWav(text: string, path: string, options: { voice?: string; wordsPerMinute?: number; pitch?: number } = {}): Promise<void> {
+  const args = ['-v', options.voice ?? 'en', '-s', String(options.wordsPerMinute ?? 170), '-p', String(options.pitch ?? 50), '-w', path, '--', text];
+  await runProcess(ESPEAK_PATH, args, {});
 }

@@ -1,0 +1,66 @@
+/**
+ * Renders an invented class soundtrack (see lib/media/class-soundtrack.ts) to a media file:
+ * speaks every line with espeak-ng, mixes, and encodes with ffmpeg. Used by the accuracy tests,
+ * the benchmark and demo media.
+ */
+import { mkdtemp, rm, writeFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { buildEncodeSoundtrackArgs } from '~/lib/media/pcm-args';
+import { mixSoundtrack, type SoundtrackScore } from '~/lib/media/class-soundtrack';
+import { decodeMonoPcm, runFfmpeg, speakToWav } from './ffmpeg-runner';
+
+/** espeak-ng writes 22.05 kHz; mixing at that rate avoids resampling the voices. */
+export const SOUNDTRACK_SAMPLE_RATE = 22050;
+
+const VOICES = {
+  coach: { voice: 'en', wordsPerMinute: 175, pitch: 45 },
+  chatter: { voice: 'en+f3', wordsPerMinute: 160, pitch: 70 },
+} as const;
+
+/** Speaks each distinct line once; clips start at their first sound (leading silence cut). */
+export async function speakLines(score: SoundtrackScore, dir: string): Promise<Map<string, Float32Array>> {
+  const clips = new Map<string, Float32Array>();
+  let n = 0;
+  for (const line of score.lines) {
+    const key = `${line.voice}:${line.text}`;
+    if (clips.has(key)) continue;
+    const wav = join(dir, `line-${n++}.wav`);
+    await speakToWav(line.text, wav, VOICES[line.voice]);
+    const parts: Float32Array[] = [];
+    await decodeMonoPcm(wav, SOUNDTRACK_SAMPLE_RATE, (s) => parts.push(s));
+    const all = concat(parts);
+    let first = 0;
+    while (first < all.length && Math.abs(all[first] as number) < 0.01) first++;
+    clips.set(key, all.subarray(first));
+  }
+  return clips;
+}
+
+/** Writes the soundtrack to `output` (AAC; in MP4 with a small grey video when `video` is given). */
+export async function renderSoundtrack(
+  score: SoundtrackScore,
+  output: string,
+  options: { video?: { width: number; height: number; fps: number }; seed?: number } = {},
+): Promise<void> {
+  const dir = await mkdtemp(join(tmpdir(), 'roundmark-soundtrack-'));
+  try {
+    const clips = await speakLines(score, dir);
+    const pcm = mixSoundtrack(score, clips, SOUNDTRACK_SAMPLE_RATE, options.seed ?? 1);
+    const raw = join(dir, 'mix.f32');
+    await writeFile(raw, new Uint8Array(pcm.buffer, pcm.byteOffset, pcm.byteLength));
+    await runFfmpeg(buildEncodeSoundtrackArgs({ input: raw, sampleRate: SOUNDTRACK_SAMPLE_RATE, output, ...(options.video ? { video: options.video } : {}) }));
+  } finally {
+    await rm(dir, { recursive: true, force: true });
+  }
+}
+
+function concat(parts: readonly Float32Array[]): Float32Array {
+  const out = new Float32Array(parts.reduce((n, p) => n + p.length, 0));
+  let at = 0;
+  for (const p of parts) {
+    out.set(p, at);
+    at += p.length;
+  }
+  return out;
+}
