@@ -16,6 +16,8 @@ export interface AlignedBoundary {
   candidate: BoundaryCandidate | null;
   /** Seconds the segment before this boundary differs from its planned length (0 for the first). */
   deviationSeconds: number;
+  /** That difference in units of the part's usual drift (0 = as planned, 1 = a usual deviation). */
+  driftZ: number;
   /** True when another candidate nearby explained the audio almost as well. */
   ambiguous: boolean;
 }
@@ -61,10 +63,22 @@ const MAX_PLAN_STATES = 24;
 
 interface State {
   at: number;
+  /** Best score of a path from the first boundary to this state (its own evidence included). */
   score: number;
+  /** Best score of the rest of the path after this state (filled by the backward pass). */
+  rest: number;
   from: number; // index into the previous boundary's states, -1 for the first
   candidate: BoundaryCandidate | null;
   deviation: number;
+  z: number;
+}
+
+/** Score of moving from `p` to the evidence state at `at`, or null when the drift is implausible. */
+function stepScore(p: State, at: number, planned: number, drift: Drift, evidence: number): { score: number; deviation: number; z: number } | null {
+  const deviation = at - p.at - planned;
+  if (deviation < -drift.short || deviation > drift.long || at - p.at < 0.5) return null;
+  const z = deviation / (deviation > 0 ? drift.sigmaLong : drift.sigma);
+  return { score: EVIDENCE_WEIGHT * evidence - (z * z) / 2, deviation, z };
 }
 
 /** Boundary times of a schedule: start of each segment, then the end of the last. */
@@ -82,10 +96,10 @@ export function alignPlan(segments: readonly PlannedSegment[], candidates: reado
 
   const layers: State[][] = [];
   // First boundary: any candidate near the offset plan, or the offset plan itself.
-  const first: State[] = [{ at: Math.max(0, planned[0]! + offset), score: 0, from: -1, candidate: null, deviation: 0 }];
+  const first: State[] = [{ at: Math.max(0, planned[0]! + offset), score: 0, rest: 0, from: -1, candidate: null, deviation: 0, z: 0 }];
   for (const c of inWindow(sorted, planned[0]! + offset, WINDOW_SECONDS)) {
     const d = (c.atSeconds - planned[0]! - offset) / 5;
-    first.push({ at: c.atSeconds, score: EVIDENCE_WEIGHT * c.score - (d * d) / 2, from: -1, candidate: c, deviation: 0 });
+    first.push({ at: c.atSeconds, score: EVIDENCE_WEIGHT * c.score - (d * d) / 2, rest: 0, from: -1, candidate: c, deviation: 0, z: 0 });
   }
   layers.push(first);
 
@@ -96,7 +110,7 @@ export function alignPlan(segments: readonly PlannedSegment[], candidates: reado
     const next: State[] = [];
     // Plan-placed states: each previous state carried on by the planned length.
     previous.forEach((p, index) => {
-      next.push({ at: p.at + seg.seconds, score: p.score, from: index, candidate: null, deviation: 0 });
+      next.push({ at: p.at + seg.seconds, score: p.score, rest: 0, from: index, candidate: null, deviation: 0, z: 0 });
     });
     // Evidence states: best previous state for each candidate in the window.
     const centre = planned[j]! + offset;
@@ -105,16 +119,17 @@ export function alignPlan(segments: readonly PlannedSegment[], candidates: reado
       let best: State | null = null;
       for (let i = 0; i < previous.length; i++) {
         const p = previous[i]!;
-        const deviation = c.atSeconds - p.at - seg.seconds;
-        if (deviation < -drift.short || deviation > drift.long || c.atSeconds - p.at < 0.5) continue;
-        const z = deviation / (deviation > 0 ? drift.sigmaLong : drift.sigma);
-        const score = p.score + EVIDENCE_WEIGHT * c.score - (z * z) / 2;
-        if (!best || score > best.score) best = { at: c.atSeconds, score, from: i, candidate: c, deviation };
+        const step = stepScore(p, c.atSeconds, seg.seconds, drift, c.score);
+        if (!step) continue;
+        const score = p.score + step.score;
+        if (!best || score > best.score) best = { at: c.atSeconds, score, rest: 0, from: i, candidate: c, deviation: step.deviation, z: step.z };
       }
       if (best) next.push(best);
     }
     layers.push(prune(next));
   }
+
+  backward(layers, segments);
 
   // Trace back from the best final state.
   const last = layers[layers.length - 1]!;
@@ -133,6 +148,7 @@ export function alignPlan(segments: readonly PlannedSegment[], candidates: reado
       atSeconds: s.at,
       candidate: s.candidate,
       deviationSeconds: s.candidate ? s.deviation : 0,
+      driftZ: s.candidate ? s.z : 0,
       ambiguous: s.candidate ? isAmbiguous(layers[j]!, s) : false,
     })),
   };
@@ -157,9 +173,34 @@ function prune(states: State[]): State[] {
   return kept;
 }
 
-/** Another candidate at a different time whose best path scores almost as well. */
+/**
+ * Fills `rest` of every state: the best score of the path after it (the same moves as forward,
+ * taken backwards), so a state's whole best path scores `score + rest`.
+ */
+function backward(layers: State[][], segments: readonly PlannedSegment[]): void {
+  for (let j = layers.length - 2; j >= 0; j--) {
+    const seg = segments[j]!;
+    const drift = driftFor(seg.kind, seg.seconds);
+    const next = layers[j + 1]!;
+    layers[j]!.forEach((s, index) => {
+      let best = -Infinity;
+      for (const n of next) {
+        if (!n.candidate) {
+          if (n.from === index) best = Math.max(best, n.rest);
+          continue;
+        }
+        const step = stepScore(s, n.at, seg.seconds, drift, n.candidate.score);
+        if (step) best = Math.max(best, step.score + n.rest);
+      }
+      s.rest = best === -Infinity ? -1e9 : best;
+    });
+  }
+}
+
+/** Another candidate at a different time whose best whole path scores almost as well. */
 function isAmbiguous(layer: readonly State[], chosen: State): boolean {
-  return layer.some((s) => s !== chosen && s.candidate && Math.abs(s.at - chosen.at) > 0.3 && s.score > chosen.score - 1);
+  const total = chosen.score + chosen.rest;
+  return layer.some((s) => s !== chosen && s.candidate && Math.abs(s.at - chosen.at) > 0.3 && s.score + s.rest > total - 1);
 }
 
 function inWindow(sorted: readonly BoundaryCandidate[], centre: number, reach: number): BoundaryCandidate[] {

@@ -56,9 +56,10 @@ export function proposeTimeline(plan: Plan, events: readonly AudioEvent[], media
   const cues: Cue[] = [];
   alignment.boundaries.forEach((b, j) => {
     const start = b.candidate?.countdownStartSeconds;
+    if (start === undefined) return;
     const into = schedule.segments[j];
-    if (start === undefined || !into) return;
-    cues.push({ id: `mc${cues.length + 1}`, atSeconds: roundToMillis(Math.max(0, start)), kind: 'countdown', text: `Countdown into ${describe(into)}` });
+    const text = into ? `Countdown into ${describe(into)}` : 'Countdown to the end';
+    cues.push({ id: `mc${cues.length + 1}`, atSeconds: roundToMillis(Math.max(0, start)), kind: 'countdown', text });
   });
   const method: ProposalMethod = alignment.boundaries.some((b) => b.candidate) ? 'audio-aligned' : 'plan-only';
   return { segments, cues, boundaries, method };
@@ -67,8 +68,8 @@ export function proposeTimeline(plan: Plan, events: readonly AudioEvent[], media
 function confidenceOf(b: AlignedBoundary): number {
   if (!b.candidate) return BASE_CONFIDENCE.plan;
   let c = BASE_CONFIDENCE[b.candidate.evidence] * (0.7 + 0.3 * b.candidate.score);
-  // Far from where the plan expected it: more likely a stray sound.
-  c *= Math.exp(-((b.deviationSeconds / 6) ** 2));
+  // Far from where the plan expected it, for that kind of part: more likely a stray sound.
+  c *= Math.exp(-(b.driftZ ** 2) / 8);
   if (b.ambiguous) c *= 0.6;
   return Math.round(c * 100) / 100;
 }
