@@ -205,7 +205,9 @@ function addWhistle(out: Float32Array, sr: number, at: number, seconds: number, 
 
 /**
  * A music bed at 124 beats per minute: a kick on every beat, a hi-hat between, a bass line and a
- * pad chord with harmonics that changes every two bars. Fades in and out over a second.
+ * pad chord with harmonics that changes every two bars. One 32-beat loop is synthesised and
+ * repeated (as loop-based music is), which keeps a long class cheap to render. Fades in and out
+ * over a second.
  */
 function addMusic(out: Float32Array, sr: number, from: number, to: number, random: () => number): void {
   const beat = 60 / 124;
@@ -215,14 +217,12 @@ function addMusic(out: Float32Array, sr: number, from: number, to: number, rando
     [174.61, 220, 261.63],
     [196, 246.94, 329.63],
   ];
-  const start = Math.max(0, Math.round(from * sr));
-  const stop = Math.min(out.length, Math.round(to * sr));
-  for (let i = start; i < stop; i++) {
-    const t = i / sr - from;
-    const fade = Math.min(1, t, to - i / sr);
+  const loop = new Float32Array(Math.round(32 * beat * sr));
+  for (let i = 0; i < loop.length; i++) {
+    const t = i / sr;
     const beatPos = t / beat;
     const sinceBeat = (beatPos - Math.floor(beatPos)) * beat;
-    const sinceOff = ((beatPos + 0.5) - Math.floor(beatPos + 0.5)) * beat;
+    const sinceOff = (beatPos + 0.5 - Math.floor(beatPos + 0.5)) * beat;
     const chord = chords[Math.floor(beatPos / 8) % chords.length]!;
     let s = 0;
     // Kick: a falling 50–110 Hz thump.
@@ -233,6 +233,12 @@ function addMusic(out: Float32Array, sr: number, from: number, to: number, rando
     s += 0.12 * Math.sin(2 * Math.PI * (chord[0]! / 2) * t);
     // Pad: three notes with three harmonics each.
     for (const f of chord) for (let h = 1; h <= 3; h++) s += (0.03 / h) * Math.sin(2 * Math.PI * f * h * t);
-    out[i] = (out[i] as number) + 0.35 * fade * s;
+    loop[i] = 0.35 * s;
+  }
+  const start = Math.max(0, Math.round(from * sr));
+  const stop = Math.min(out.length, Math.round(to * sr));
+  for (let i = start; i < stop; i++) {
+    const fade = Math.min(1, (i - start) / sr, (stop - i) / sr);
+    out[i] = (out[i] as number) + fade * (loop[(i - start) % loop.length] as number);
   }
 }

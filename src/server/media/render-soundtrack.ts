@@ -18,9 +18,11 @@ const VOICES = {
   chatter: { voice: 'en+f3', wordsPerMinute: 160, pitch: 70 },
 } as const;
 
-/** Speaks each distinct line once; clips start at their first sound (leading silence cut). */
-export async function speakLines(score: SoundtrackScore, dir: string): Promise<Map<string, Float32Array>> {
-  const clips = new Map<string, Float32Array>();
+/**
+ * Speaks each distinct line once; clips start at their first sound (leading silence cut). Pass
+ * the same `clips` map to several renders to speak shared lines only once.
+ */
+export async function speakLines(score: SoundtrackScore, dir: string, clips = new Map<string, Float32Array>()): Promise<Map<string, Float32Array>> {
   let n = 0;
   for (const line of score.lines) {
     const key = `${line.voice}:${line.text}`;
@@ -41,11 +43,11 @@ export async function speakLines(score: SoundtrackScore, dir: string): Promise<M
 export async function renderSoundtrack(
   score: SoundtrackScore,
   output: string,
-  options: { video?: { width: number; height: number; fps: number }; seed?: number } = {},
+  options: { video?: { width: number; height: number; fps: number }; seed?: number; clips?: Map<string, Float32Array> } = {},
 ): Promise<void> {
   const dir = await mkdtemp(join(tmpdir(), 'roundmark-soundtrack-'));
   try {
-    const clips = await speakLines(score, dir);
+    const clips = await speakLines(score, dir, options.clips);
     const pcm = mixSoundtrack(score, clips, SOUNDTRACK_SAMPLE_RATE, options.seed ?? 1);
     const raw = join(dir, 'mix.f32');
     await writeFile(raw, new Uint8Array(pcm.buffer, pcm.byteOffset, pcm.byteLength));
