@@ -3,7 +3,7 @@ import type pg from 'pg';
 import { createDb, type Db } from './db';
 import { createLucia, type Auth } from './auth/lucia';
 import { env } from './env';
-import { LibraryCache } from './library-cache';
+import { ACCESS_CHANNEL, LibraryCache } from './library-cache';
 import { queue, sendJob, type JobName, type JobPayloads } from './queue';
 
 /** The side-effecting parts one process shares; services receive what they need from it. */
@@ -17,6 +17,8 @@ export interface AppDeps {
   jobs: JobSender;
   /** Shared library pages and filter values; only the web server's own deps have one. */
   libraryCache?: LibraryCache;
+  /** Media access decisions per person and recording (30 s at most, dropped when access changes). */
+  accessCache?: LibraryCache;
 }
 
 export type JobSender = <N extends JobName>(name: N, data: JobPayloads[N], key?: string) => Promise<void>;
@@ -92,6 +94,7 @@ export function app(): AppDeps {
   if (!shared) {
     shared = createAppDeps(env().DATABASE_URL, env().PUBLIC_BASE_URL.startsWith('https://'));
     shared.libraryCache = new LibraryCache({ connectionString: env().DATABASE_URL });
+    shared.accessCache = new LibraryCache({ connectionString: env().DATABASE_URL }, 30_000, ACCESS_CHANNEL);
   }
   return shared;
 }

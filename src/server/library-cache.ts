@@ -3,10 +3,12 @@ import { LRUCache } from 'lru-cache';
 
 /** The PostgreSQL channel that says "this studio's library changed" (payload: the studio id). */
 const CHANNEL = 'library_changed';
+/** The channel that says "who may watch in this studio changed" (a membership or subscription). */
+export const ACCESS_CHANNEL = 'access_changed';
 
 /** Tells every process (web servers, worker) that a studio's library changed. */
-export async function notifyLibraryChanged(pool: pg.Pool, studioId: string): Promise<void> {
-  await pool.query('select pg_notify($1, $2)', [CHANNEL, studioId]);
+export async function notifyLibraryChanged(pool: pg.Pool, studioId: string, channel = CHANNEL): Promise<void> {
+  await pool.query('select pg_notify($1, $2)', [channel, studioId]);
 }
 
 /**
@@ -25,6 +27,8 @@ export class LibraryCache {
   constructor(
     private readonly connection: pg.ClientConfig,
     ttlMs = 15_000,
+    /** The notification channel that drops a studio's entries (one cache class serves several uses). */
+    private readonly channel = CHANNEL,
   ) {
     this.entries = new LRUCache({ max: 2000, ttl: ttlMs });
   }
@@ -68,13 +72,13 @@ export class LibraryCache {
       client.end().catch(() => {});
     };
     client.on('notification', (msg) => {
-      if (msg.channel === CHANNEL && msg.payload) this.forget(msg.payload);
+      if (msg.channel === this.channel && msg.payload) this.forget(msg.payload);
     });
     client.on('error', lost);
     client.on('end', lost);
     client
       .connect()
-      .then(() => client.query(`listen ${CHANNEL}`))
+      .then(() => client.query(`listen ${this.channel}`))
       .then(() => {
         if (this.listener === client) this.listening = true;
       })

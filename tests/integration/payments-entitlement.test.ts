@@ -45,9 +45,10 @@ async function access(c: ApiClient) {
     progressMessage: body.error?.message as string | undefined,
   };
 }
-// The poster shows in the library to every member, watching or not (browsing is free).
-const WATCHING = { player: true, offer: false, media: 200, poster: 200, progress: 200 };
-const LOCKED = { player: false, offer: true, media: 404, poster: 200, progress: 403 };
+// The poster shows in the library to every member, watching or not (browsing is free); the app
+// answers it with a redirect to a signed storage link.
+const WATCHING = { player: true, offer: false, media: 200, poster: 302, progress: 200 };
+const LOCKED = { player: false, offer: true, media: 404, poster: 302, progress: 403 };
 
 describe('who may watch', () => {
   it('locks a member without a membership out of player, media and progress', async () => {

@@ -4,6 +4,7 @@ import { studios, subscriptions, users, webhookEvents } from '~/db/schema';
 import { SUBSCRIPTION_STATUSES } from '~/lib/api/billing-schemas';
 import { webhookEventSchema } from '~/lib/billing/webhook-event-schema';
 import { AppError } from '../errors';
+import { accessChanged } from './media-access';
 import type { BillingDeps } from '../payments/billing-deps';
 import { sendPaymentFailed } from '../mail/messages';
 
@@ -36,6 +37,8 @@ export async function receiveWebhook(deps: BillingDeps, payload: string, signatu
  */
 export async function applyEvent(deps: BillingDeps, event: Stripe.Event): Promise<{ applied: boolean; reason?: string }> {
   const result = await applyInTransaction(deps, event);
+  // After the commit: every process drops its cached "may watch" answers for the studio.
+  if (result.accessChangedIn) await accessChanged(deps, result.accessChangedIn);
   // E-mail after the change is committed, so a mail problem never undoes (or repeats) the change.
   if (result.paymentFailed) {
     await sendPaymentFailed(deps, result.paymentFailed).catch((err) => console.error('payment-failed e-mail not sent:', err));
@@ -43,7 +46,7 @@ export async function applyEvent(deps: BillingDeps, event: Stripe.Event): Promis
   return { applied: result.applied, ...(result.reason ? { reason: result.reason } : {}) };
 }
 
-type ApplyResult = { applied: boolean; reason?: string; paymentFailed?: { userId: string; studioId: string } };
+type ApplyResult = { applied: boolean; reason?: string; paymentFailed?: { userId: string; studioId: string }; accessChangedIn?: string };
 
 async function applyInTransaction(deps: BillingDeps, event: Stripe.Event): Promise<ApplyResult> {
   // Fetched before the transaction so no network call holds it open.
@@ -76,7 +79,8 @@ async function applyInTransaction(deps: BillingDeps, event: Stripe.Event): Promi
             .set({ pastDueSince: new Date(), updatedAt: new Date() })
             .where(and(eq(subscriptions.providerSubscriptionId, subId), eq(subscriptions.status, 'past_due')))
             .returning({ userId: subscriptions.userId, studioId: subscriptions.studioId });
-          if (member) return { applied: true, paymentFailed: member };
+          // The grace period starts now: "may watch" must be worked out again.
+          if (member) return { applied: true, paymentFailed: member, accessChangedIn: member.studioId };
         }
         return { applied: true };
       }
@@ -132,7 +136,7 @@ async function applySubscription(tx: Tx, sub: Stripe.Subscription, at: Date, hin
   };
   if (row) await tx.update(subscriptions).set(values).where(eq(subscriptions.id, row.id));
   else await tx.insert(subscriptions).values({ studioId: studioId!, userId: userId!, ...values });
-  return { applied: true };
+  return { applied: true, accessChangedIn: row?.studioId ?? studioId! };
 }
 
 /**
@@ -146,5 +150,6 @@ export async function syncMembership(deps: BillingDeps, studioId: string, userId
   const list = await deps.stripe.subscriptions.list({ customer: row.providerCustomerId, limit: 1 });
   const sub = list.data[0];
   if (!sub || sub.id === row.providerSubscriptionId) return;
-  await deps.db.transaction((tx) => applySubscription(tx, sub, new Date(sub.created * 1000), { studioId, userId }));
+  const result = await deps.db.transaction((tx) => applySubscription(tx, sub, new Date(sub.created * 1000), { studioId, userId }));
+  if (result.applied) await accessChanged(deps, studioId);
 }
