@@ -35,29 +35,29 @@ export default function ClassPlayer(props: PlayerProps) {
   const clock = clockAt(timeline, time);
   const current = chapterIndexAt(props.chapters, time);
 
-  // hls.js where the browser has no native HLS; loaded only here, so other pages stay light.
+  // The HLS player is loaded only here, so other pages stay light.
   useEffect(() => {
     const v = video.current;
     if (!v) return;
     let destroy = () => {};
-    if (v.canPlayType('application/vnd.apple.mpegurl')) {
-      v.src = props.playlistUrl;
-    } else {
-      // The light build (no subtitles, DRM or alternate audio, which classes do not use) keeps the page small.
-      void import('hls.js/light').then(({ default: Hls }) => {
-        if (!Hls.isSupported()) {
-          setError('This browser cannot play the class. Try a current version of Chrome, Firefox, Safari or Edge.');
-          return;
-        }
-        const hls = new Hls({ capLevelToPlayerSize: true });
-        hls.on(Hls.Events.ERROR, (_e, data) => {
-          if (data.fatal) setError('The video stopped loading. Check your connection, then reload the page to continue where you were.');
-        });
-        hls.loadSource(props.playlistUrl);
-        hls.attachMedia(v);
-        destroy = () => hls.destroy();
+    // hls.js first wherever Media Source Extensions exist: some Chromium builds also claim native
+    // HLS but refuse segments from another origin (the store), which is where segments live. The
+    // browser's own player is the fallback where MSE is missing (older iPhones).
+    // The light build (no subtitles, DRM or alternate audio, which classes do not use) keeps the page small.
+    void import('hls.js/light').then(({ default: Hls }) => {
+      if (!Hls.isSupported()) {
+        if (v.canPlayType('application/vnd.apple.mpegurl')) v.src = props.playlistUrl;
+        else setError('This browser cannot play the class. Try a current version of Chrome, Firefox, Safari or Edge.');
+        return;
+      }
+      const hls = new Hls({ capLevelToPlayerSize: true });
+      hls.on(Hls.Events.ERROR, (_e, data) => {
+        if (data.fatal) setError('The video stopped loading. Check your connection, then reload the page to continue where you were.');
       });
-    }
+      hls.loadSource(props.playlistUrl);
+      hls.attachMedia(v);
+      destroy = () => hls.destroy();
+    });
     // A W3C Media Fragments link (#t=…) opens the class at that time when the member followed it;
     // on a reload it is the player's own leftover and the saved position wins (start-position.ts).
     const navigation = (performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming | undefined)?.type ?? 'navigate';
