@@ -11,6 +11,7 @@ import { join } from 'node:path';
 import Stripe from 'stripe';
 import { ApiClient, DEMO, signedIn } from '../helpers/api-client';
 import { createSmallClass } from '../helpers/published-class';
+import { fetchMedia } from '../helpers/media-fetch';
 import { WEBHOOK_SECRET } from '../helpers/payments';
 
 let dir: string;
@@ -139,7 +140,7 @@ describe('numbers past their columns', () => {
 
 describe('ranges on /media', () => {
   it('answers 416 with Content-Range: bytes */size for a range past the end (RFC 9110 §15.5.17)', async () => {
-    const whole = await coach.get(`/media/${cls.recordingId}/poster.jpg`);
+    const whole = await fetchMedia(coach, `/media/${cls.recordingId}/poster.jpg`);
     const size = (await whole.arrayBuffer()).byteLength;
     expect(size).toBeGreaterThan(0);
     const res = await coach.request('GET', `/media/${cls.recordingId}/poster.jpg`, undefined, { range: `bytes=${size + 10}-` });
@@ -149,7 +150,7 @@ describe('ranges on /media', () => {
   });
 
   it('serves a suffix range as the last bytes, refuses a malformed one and ignores another unit (RFC 9110 §14.1.2, §14.2, §15.5.17)', async () => {
-    const whole = new Uint8Array(await (await coach.get(`/media/${cls.recordingId}/poster.jpg`)).arrayBuffer());
+    const whole = new Uint8Array(await (await fetchMedia(coach, `/media/${cls.recordingId}/poster.jpg`)).arrayBuffer());
     const tail = await coach.request('GET', `/media/${cls.recordingId}/poster.jpg`, undefined, { range: 'bytes=-4' });
     expect(tail.status).toBe(206);
     expect(tail.headers.get('content-range')).toBe(`bytes ${whole.length - 4}-${whole.length - 1}/${whole.length}`);
@@ -160,7 +161,7 @@ describe('ranges on /media', () => {
     expect(junk.headers.get('content-range')).toBe(`bytes */${whole.length}`);
     await junk.arrayBuffer();
     // §14.2: a range unit the server does not understand MUST be ignored: the whole file.
-    const other = await coach.request('GET', `/media/${cls.recordingId}/poster.jpg`, undefined, { range: 'items=0-3' });
+    const other = await fetchMedia(coach, `/media/${cls.recordingId}/poster.jpg`, { range: 'items=0-3' });
     expect(other.status).toBe(200);
     expect((await other.arrayBuffer()).byteLength).toBe(whole.length);
   });
