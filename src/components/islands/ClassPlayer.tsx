@@ -165,7 +165,7 @@ export default function ClassPlayer(props: PlayerProps) {
           </video>
           {clockShown && cautionOk && <IntervalClock clock={clock} note={clock.current?.exercise ? notes.get(clock.current.exercise.toLowerCase()) : undefined} />}
           {!cautionOk && (
-            <div className="absolute inset-0 flex items-center justify-center bg-ink/90 p-6 text-paper" role="dialog" aria-modal="true" aria-labelledby="caution-title">
+            <div className="absolute inset-0 flex items-start justify-center overflow-y-auto bg-ink/90 p-4 text-paper sm:items-center sm:p-6" role="dialog" aria-modal="true" aria-labelledby="caution-title">
               <div className="max-w-lg">
                 <h2 id="caution-title" className="text-2xl mb-2">Before your first class</h2>
                 <ul className="list-disc space-y-1 pl-5">

@@ -22,13 +22,19 @@ export function IntervalClock({ clock, note }: { clock: ClockState; note: Exerci
   const colour = (current && KIND_RING[current.kind]) ?? '#C9C2B6';
   return (
     <div
-      className="pointer-events-none absolute right-3 top-3 flex max-w-[22rem] items-center gap-4 rounded-[10px] bg-ink/85 p-4 text-paper shadow-lg"
+      // Below 640 px (phones) the clock would cover the whole video, so it sits under it in a
+      // compact form: no ring, the time left in digits about 14 mm tall on a phone (readable from
+      // the mat, 2–3 m away), the words beside them. From 640 px it is the overlay with the ring.
+      className="pointer-events-none flex flex-wrap items-center gap-x-4 gap-y-1 bg-ink p-3 text-paper sm:absolute sm:right-3 sm:top-3 sm:max-w-[22rem] sm:flex-nowrap sm:rounded-[10px] sm:bg-ink/85 sm:p-4 sm:shadow-lg"
       role="timer"
       aria-live="off"
       aria-label="Interval clock"
       data-testid="interval-clock"
     >
-      <svg width="128" height="128" viewBox="0 0 128 128" aria-hidden="true" className="shrink-0">
+      <p className="text-[7.5rem] font-extrabold leading-none tabular sm:hidden" data-testid="clock-remaining">
+        {formatClock(Math.ceil(clock.remaining))}
+      </p>
+      <svg width="128" height="128" viewBox="0 0 128 128" aria-hidden="true" className="hidden shrink-0 sm:block">
         <circle cx="64" cy="64" r={r} fill="none" stroke="rgba(255,255,255,0.15)" strokeWidth="12" />
         <circle
           cx="64"

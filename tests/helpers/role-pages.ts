@@ -1,0 +1,40 @@
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { BASE, DEMO, DEMO_PASSWORD, signedIn } from './api-client';
+
+export type DemoRole = keyof typeof DEMO;
+
+/**
+ * Every page each demo role can reach from the navigation and the class lists (demo data from
+ * shared/design.md). Pages that need a class use the published Desk-Break Mobility and the
+ * draft Hill Sprints Prep.
+ */
+export async function pagesByRole(): Promise<Record<DemoRole, string[]>> {
+  const owner = await signedIn(DEMO.owner);
+  const lessons = (await (await owner.get('/api/lessons')).json()).lessons as { id: string; slug: string }[];
+  const desk = lessons.find((l) => l.slug === 'desk-break-mobility')!;
+  const hill = lessons.find((l) => l.slug === 'hill-sprints-prep')!;
+  const staffClassPages = ['/studio', '/studio/classes', `/studio/classes/${desk.id}`, `/studio/classes/${hill.id}`];
+  const everyone = ['/library', '/library/history', '/classes/desk-break-mobility', '/account'];
+  return {
+    owner: [...staffClassPages, `/studio/classes/${desk.id}/insights`, '/studio/members', '/studio/billing', '/studio/team', '/studio/mail', ...everyone],
+    coach: [...staffClassPages, `/studio/classes/${desk.id}/insights`, ...everyone],
+    // The editor also opens the owner's pages (they are linked nowhere for editors, but URLs get shared).
+    editor: [...staffClassPages, '/studio/members', '/studio/team', ...everyone],
+    member: [...everyone, '/account/membership'],
+  };
+}
+
+/** Pages anyone can open without signing in. */
+export const PUBLIC_PAGES = ['/', '/sign-in', '/sign-up', '/forgot-password'];
+
+/** A browser context signed in as a demo role through the sign-in form. */
+export async function signedInContext(browser: Browser, role: DemoRole, viewport: { width: number; height: number }, options: { reducedMotion?: 'reduce' } = {}): Promise<{ context: BrowserContext; page: Page }> {
+  const context = await browser.newContext({ viewport, ...options });
+  const page = await context.newPage();
+  await page.goto(BASE() + '/sign-in');
+  await page.getByLabel('E-mail').fill(DEMO[role]);
+  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+  return { context, page };
+}
