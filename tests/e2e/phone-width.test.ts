@@ -65,10 +65,10 @@ describe('at 390 px wide', () => {
     await page.goto(BASE() + '/studio/classes');
     const signOut = page.getByRole('button', { name: 'Sign out' });
     expect(await signOut.isVisible()).toBe(false); // folded away
-    await page.getByText('Menu', { exact: true }).click();
+    await page.locator('[data-nav-menu] > summary').click();
     await page.getByRole('link', { name: 'Members' }).click();
     await page.waitForURL(/\/studio\/members$/);
-    await page.getByText('Menu', { exact: true }).click();
+    await page.locator('[data-nav-menu] > summary').click();
     await page.screenshot({ path: `${SHOTS}/phone-menu-open.png` });
     await signOut.click();
     await page.waitForURL((u) => u.pathname === '/' || u.pathname === '/sign-in');
