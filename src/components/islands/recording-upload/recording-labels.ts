@@ -19,7 +19,7 @@ export interface StatusLook {
 export const STATUS_LOOKS: Record<StatusKind, StatusLook> = {
   uploading: { label: 'Uploading', badge: 'bg-tide/15 text-tide-deep', bar: 'bg-tide', icon: 'arrow-up' },
   processing: { label: 'Processing', badge: 'bg-sun/25 text-ink', bar: 'bg-sun', icon: 'gear' },
-  ready: { label: 'Ready', badge: 'bg-mint/15 text-mint-deep', bar: 'bg-mint', icon: 'check' },
+  ready: { label: 'Ready', badge: 'bg-mint/10 text-mint-deep', bar: 'bg-mint', icon: 'check' },
   failed: { label: 'Failed', badge: 'bg-error/10 text-error', bar: 'bg-error', icon: 'alert' },
   stalled: { label: 'Not finished', badge: 'bg-slate/20 text-ink-soft', bar: 'bg-slate', icon: 'pause' },
 };

@@ -44,7 +44,7 @@ function FindingsPanel({ result, hasPlan, onShow, onApplyFix, onApplyAll }: Find
         )}
       </div>
       {findings.length === 0 ? (
-        <p className="mt-3 rounded-[10px] bg-mint/15 p-3 font-semibold text-mint-deep">The marks match the plan. Nicely done.</p>
+        <p className="mt-3 rounded-[10px] bg-mint/10 p-3 font-semibold text-mint-deep">The marks match the plan. Nicely done.</p>
       ) : (
         <ol className="mt-3 flex min-h-0 flex-col gap-2 overflow-y-auto pr-1" aria-label="Findings by time">
           {findings.map((f, i) => {

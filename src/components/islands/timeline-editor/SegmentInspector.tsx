@@ -101,7 +101,7 @@ export default function SegmentInspector(p: SegmentInspectorProps) {
         </fieldset>
         <div className="mt-3 flex flex-wrap gap-2">
           <button type="button" className={button} onClick={() => p.onSeek(s.startSeconds)}>Go to start</button>
-          <button type="button" className={`${button} border-error text-error hover:bg-error`} onClick={p.onDelete}>
+          <button type="button" className={`${button} border-error text-error hover:bg-error hover:text-white`} onClick={p.onDelete}>
             {edge ? 'Join with the neighbour' : 'Delete segment'}
           </button>
         </div>
@@ -142,7 +142,7 @@ export default function SegmentInspector(p: SegmentInspectorProps) {
               {n.label}
             </button>
           ))}
-          <button type="button" className={`${button} border-error text-error hover:bg-error`} onClick={p.onDelete}>Delete cue</button>
+          <button type="button" className={`${button} border-error text-error hover:bg-error hover:text-white`} onClick={p.onDelete}>Delete cue</button>
         </div>
       </section>
     );

@@ -62,7 +62,7 @@ function Editor({ lessonId, data, peaks }: { lessonId: string; data: EditorData;
     <div ref={c.rootRef} className="flex flex-col gap-4" data-editor data-editor-ready={c.ready ? 'true' : undefined}>
       <SaveBar saving={saving} />
       <DraftOffer saving={saving} serverVersion={data.version} />
-      {c.mediaError && <p role="alert" className="rounded-[10px] bg-warning/10 p-3 text-sm font-semibold text-warning">{c.mediaError}</p>}
+      {c.mediaError && <p role="alert" className="rounded-[10px] bg-warning/5 p-3 text-sm font-semibold text-warning">{c.mediaError}</p>}
       <MediaTimeline
         handleRef={c.media}
         playlistUrl={data.recording?.playlistUrl ?? null}
