@@ -37,13 +37,13 @@ export const POLICY = {
   'class.schedule': { roles: OWNER, refusal: 'Only the studio owner can schedule a publish.' },
   'class.unpublish': { roles: PUBLISHERS, refusal: 'Only coaches and the studio owner can take a class out of the library.' },
   'class.archive': { roles: PUBLISHERS, refusal: 'Only coaches and the studio owner can archive a class.' },
-  'class.insights': { roles: PUBLISHERS, refusal: staffOnly },
+  'class.insights': { roles: PUBLISHERS, refusal: 'Only coaches and the studio owner see a class’s insights.' },
   'recording.upload': { roles: STAFF, refusal: staffOnly },
   'exercise.edit': { roles: STAFF, refusal: staffOnly },
   'team.manage': { roles: OWNER, refusal: 'Only the studio owner can invite and manage the team.' },
   'billing.manage': { roles: OWNER, refusal: 'Only the studio owner can change prices and promo codes.' },
-  'members.view': { roles: OWNER, refusal: staffOnly },
-  'mail.preview': { roles: OWNER, refusal: staffOnly },
+  'members.view': { roles: OWNER, refusal: 'Only the studio owner sees the members and their memberships.' },
+  'mail.preview': { roles: OWNER, refusal: 'Only the studio owner sees the e-mail the studio sends.' },
   'membership.manage': { roles: MEMBER, refusal: 'Memberships belong to members; staff accounts do not need one.' },
 } as const satisfies Record<string, Rule>;
 

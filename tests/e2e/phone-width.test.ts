@@ -29,8 +29,10 @@ const overflow = (page: Page) =>
     // unless it is positioned against something outside that box (an sr-only span in a table cell
     // whose scroll box is not positioned escapes it).
     const inOwnBox = (e: Element) => {
-      if (getComputedStyle(e).position === 'absolute') return false;
-      for (let p = e.parentElement; p && p !== document.body; p = p.parentElement) if (getComputedStyle(p).overflowX !== 'visible') return true;
+      const absolute = getComputedStyle(e).position === 'absolute';
+      for (let p = absolute ? (e as HTMLElement).offsetParent : e.parentElement; p && p !== document.body; p = p.parentElement) {
+        if (getComputedStyle(p).overflowX !== 'visible') return true;
+      }
       return false;
     };
     const wide = [...document.querySelectorAll('body *')]

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { editorReducer, initialEditorState, type EditorAction, type EditorState } from '~/lib/editor/editor-state';
+import { appliedFixesNotice } from '~/lib/editor/editor-state';
 import { planSchema } from '~/lib/plan/plan-schema';
 import { expandPlan } from '~/lib/plan/expand-plan';
 import { checkTiming } from '~/lib/timing/timing-check';
@@ -161,5 +162,16 @@ describe('local draft', () => {
     expect(readDraft(storage, 'L2')).toBeNull();
     clearDraft(storage, 'L1');
     expect(readDraft(storage, 'L1')).toBeNull();
+  });
+});
+
+describe('the "Apply all fixes" notice', () => {
+  it.each([
+    [1, 0, 'Applied 1 fix.'],
+    [3, 0, 'Applied 3 fixes.'],
+    [1, 1, 'Applied 1 fix. 1 more fix changes the same segments: press “Apply all fixes” again to apply it.'],
+    [2, 3, 'Applied 2 fixes. 3 more fixes change the same segments: press “Apply all fixes” again to apply them.'],
+  ])('%i applied, %i left', (applied, skipped, text) => {
+    expect(appliedFixesNotice(applied, skipped)).toBe(text);
   });
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { clockAt, clockTimeline } from '~/lib/publishing/interval-clock';
+import { clockAt, clockHeading, clockTimeline } from '~/lib/publishing/interval-clock';
 import { expandPlan } from '~/lib/plan/expand-plan';
 import { planSchema } from '~/lib/plan/plan-schema';
 import type { Segment } from '~/lib/timeline/timeline-schema';
@@ -42,5 +42,17 @@ describe('interval clock', () => {
     const end = clockAt(clock, 1080);
     expect(end.current).toBeNull();
     expect(end.next).toBeNull();
+  });
+});
+
+describe('the line above the part’s name on the clock', () => {
+  it.each([
+    [{ kind: 'work', label: 'Goblet squat', exercise: 'Goblet squat' }, 'Work'],
+    [{ kind: 'intro', label: 'Welcome' }, null], // once "WELCOME / Welcome"
+    [{ kind: 'rest', label: 'Rest' }, null],
+    [{ kind: 'work', label: 'Work' }, null],
+    [null, 'Get ready'],
+  ] as const)('%o → %s', (current, heading) => {
+    expect(clockHeading({ current: current as never })).toBe(heading);
   });
 });

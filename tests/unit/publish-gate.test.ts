@@ -18,6 +18,7 @@ describe('the publish gate', () => {
   it.each([
     ['no plan', { ...ready, hasPlan: false }, 'no-plan', ['Add the class plan.']],
     ['recording not ready', { ...ready, recordingReady: false }, 'recording-not-ready', ['Upload the recording and wait until it is ready.']],
+    ['recording processing', { ...ready, recordingReady: false, recordingInProgress: true }, 'recording-not-ready', ['Wait for the recording to finish uploading and processing (reload this page to see its progress).']],
     ['two errors', { ...ready, findings: [finding('error'), finding('error'), finding('warning')] }, 'errors', ['Fix the 2 errors the timing check found.']],
   ] as const)('%s: the panel lists what the publish refuses', (_name, input, reason, blockers) => {
     const gate = publishGate(input);

@@ -313,7 +313,7 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
         const { timeline, applied } = applyNonConflictingFixes(state.timeline, action.findings);
         if (applied.length === 0) return { ...state, notice: 'No suggested fixes to apply.' };
         const skipped = action.findings.filter((f) => f.fix).length - applied.length;
-        const notice = `Applied ${applied.length} ${applied.length === 1 ? 'fix' : 'fixes'}` + (skipped > 0 ? `; ${skipped} touched the same segments and wait for the next pass.` : '.');
+        const notice = appliedFixesNotice(applied.length, skipped);
         return commit(state, timeline, state.selection, notice);
       } catch (err) {
         return { ...state, notice: err instanceof Error ? err.message : 'The fixes could not be applied.' };
@@ -356,4 +356,15 @@ export function canonicalJson(t: Timeline): string {
     segments: s.segments.map((x) => [x.id, x.kind, x.startSeconds, x.endSeconds, x.exercise ?? null, x.round ?? null, x.set ?? null, x.title ?? null]),
     cues: s.cues.map((c) => [c.id, c.atSeconds, c.kind, c.text]),
   });
+}
+
+/**
+ * What "Apply all fixes" reports. Fixes that touch segments another fix already changed are left
+ * for a second press (their suggestion was computed on the old timeline).
+ */
+export function appliedFixesNotice(applied: number, skipped: number): string {
+  const fixes = (n: number) => `${n} ${n === 1 ? 'fix' : 'fixes'}`;
+  if (skipped === 0) return `Applied ${fixes(applied)}.`;
+  const left = skipped === 1 ? '1 more fix changes' : `${skipped} more fixes change`;
+  return `Applied ${fixes(applied)}. ${left} the same segments: press “Apply all fixes” again to apply ${skipped === 1 ? 'it' : 'them'}.`;
 }

@@ -63,3 +63,13 @@ export function clockAt(timeline: ReturnType<typeof clockTimeline>, t: number): 
     next: nextSeg ? { label: label(nextSeg), inSeconds: Math.max(0, nextSeg.startSeconds - t) } : null,
   };
 }
+
+/**
+ * The small line above the part's name on the clock: "Work" over an exercise's name, "Get ready"
+ * before the first part, and nothing where it would only repeat the name ("Welcome", "Rest").
+ */
+export function clockHeading(clock: Pick<ClockState, 'current'>): string | null {
+  if (!clock.current) return 'Get ready';
+  const kindName = PART_NAMES[clock.current.kind];
+  return kindName.toLowerCase() === clock.current.label.toLowerCase() ? null : kindName;
+}

@@ -8,6 +8,8 @@ import type { Finding } from '../timing/finding-types';
 export interface GateInput {
   hasPlan: boolean;
   recordingReady: boolean;
+  /** A recording is uploading or processing right now (so "upload one" would be the wrong advice). */
+  recordingInProgress?: boolean;
   /** The timing check's findings; empty when there is no plan to check against. */
   findings: readonly Finding[];
 }
@@ -26,7 +28,11 @@ export function publishGate(input: GateInput): PublishGate {
   const warnings = input.findings.filter((f) => f.severity === 'warning');
   const blockers = [
     ...(input.hasPlan ? [] : ['Add the class plan.']),
-    ...(input.recordingReady ? [] : ['Upload the recording and wait until it is ready.']),
+    ...(input.recordingReady
+      ? []
+      : input.recordingInProgress
+        ? ['Wait for the recording to finish uploading and processing (reload this page to see its progress).']
+        : ['Upload the recording and wait until it is ready.']),
     ...(errors.length ? [`Fix the ${errors.length} error${plural(errors.length, '', 's')} the timing check found.`] : []),
   ];
   return { blockers, errors, warnings };

@@ -1,4 +1,4 @@
-import { and, eq } from 'drizzle-orm';
+import { and, eq, inArray } from 'drizzle-orm';
 import { lessons, recordings, users } from '~/db/schema';
 import type { Plan } from '~/lib/plan/plan-schema';
 import { publishGate, type GateInput, type PublishGate } from '~/lib/publishing/publish-gate';
@@ -27,6 +27,8 @@ export interface LoadedClass {
    * is ready, the length stored on the class (seeded demo classes, the editor's own estimate).
    */
   mediaSeconds: number | null;
+  /** A newer recording is uploading or being processed (the panel says "wait", not "upload"). */
+  recordingInProgress: boolean;
 }
 
 export async function loadClass(db: DbOrTx, studioId: string, lessonId: string): Promise<LoadedClass> {
@@ -38,6 +40,11 @@ export async function loadClass(db: DbOrTx, studioId: string, lessonId: string):
     .where(and(eq(lessons.id, lessonId), eq(lessons.studioId, studioId)));
   if (!row) throw notFound('That class');
   const rec = row.recording?.id ? row.recording : null;
+  const [inProgress] = await db
+    .select({ id: recordings.id })
+    .from(recordings)
+    .where(and(eq(recordings.lessonId, lessonId), inArray(recordings.state, ['uploading', 'processing'])))
+    .limit(1);
   return {
     lesson: row.lesson,
     coachName: row.coachName,
@@ -45,6 +52,7 @@ export async function loadClass(db: DbOrTx, studioId: string, lessonId: string):
     timeline: await readTimeline(db, studioId, lessonId),
     recording: rec ? { id: rec.id, ready: rec.state === 'ready' && !!rec.durationSeconds, durationSeconds: rec.durationSeconds } : null,
     mediaSeconds: rec?.durationSeconds ?? row.lesson.mediaSeconds,
+    recordingInProgress: !!inProgress,
   };
 }
 
@@ -57,7 +65,7 @@ export function checkLoaded(loaded: LoadedClass): CheckResult | null {
 /** The check and the publish gate of a loaded class: the same answer for the panel and the publish. */
 export function gateLoaded(loaded: LoadedClass): { check: CheckResult | null; gate: PublishGate; gateInput: GateInput } {
   const check = checkLoaded(loaded);
-  const gateInput: GateInput = { hasPlan: !!loaded.plan, recordingReady: !!loaded.recording?.ready, findings: check?.findings ?? [] };
+  const gateInput: GateInput = { hasPlan: !!loaded.plan, recordingReady: !!loaded.recording?.ready, recordingInProgress: loaded.recordingInProgress, findings: check?.findings ?? [] };
   return { check, gate: publishGate(gateInput), gateInput };
 }
 

@@ -1,4 +1,4 @@
-import type { ClockState } from '~/lib/publishing/interval-clock';
+import { clockHeading, type ClockState } from '~/lib/publishing/interval-clock';
 import { formatClock } from '~/lib/time/format-time';
 import type { ExerciseNote } from './types';
 
@@ -20,6 +20,7 @@ export function IntervalClock({ clock, note }: { clock: ClockState; note: Exerci
   const r = 54;
   const circumference = 2 * Math.PI * r;
   const colour = (current && KIND_RING[current.kind]) ?? '#C9C2B6';
+  const heading = clockHeading(clock);
   return (
     <div
       // Below 640 px (phones) the clock would cover the whole video, so it sits under it in a
@@ -53,9 +54,11 @@ export function IntervalClock({ clock, note }: { clock: ClockState; note: Exerci
         </text>
       </svg>
       <div className="min-w-0">
-        <p className="text-sm uppercase tracking-wide text-stone" data-testid="clock-kind">
-          {current ? (current.kind === 'work' ? 'Work' : current.label) : 'Get ready'}
-        </p>
+        {heading && (
+          <p className="text-sm uppercase tracking-wide text-stone" data-testid="clock-kind">
+            {heading}
+          </p>
+        )}
         <p className="text-2xl font-extrabold leading-tight" data-testid="clock-now">
           {current?.label ?? clock.next?.label ?? ''}
         </p>

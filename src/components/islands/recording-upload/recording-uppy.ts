@@ -117,7 +117,11 @@ export function createRecordingUppy({ lessonId, maxUploadBytes, onRecording, onP
   // Keeps the file's state (its recording id and multipart upload id) across a page reload or a
   // closed tab, so the upload resumes from the parts the store already has. Large files come back
   // as placeholders the coach re-selects; small ones are kept whole in IndexedDB.
-  uppy.use(GoldenRetriever<RecordingMeta, AwsBody>, { serviceWorker: false, expires: 24 * 60 * 60 * 1000 });
+  // Only in the browser: during server rendering there is no IndexedDB, and its restore would log
+  // "indexedDB.open is not a function" on every render of the class page.
+  if (typeof indexedDB !== 'undefined' && typeof window !== 'undefined') {
+    uppy.use(GoldenRetriever<RecordingMeta, AwsBody>, { serviceWorker: false, expires: 24 * 60 * 60 * 1000 });
+  }
 
   // Before the bytes go: announce the file, so the server checks it and fixes where it goes.
   // On a retry the file already has its recording, and the upload resumes instead.
