@@ -74,7 +74,7 @@ describe('smaller defects', () => {
     await acknowledge.check();
     await publish.click();
     await page.waitForURL(/published=/);
-    expect(await page.getByRole('status').first().textContent()).toMatch(/version 2/i);
+    expect(await page.getByTestId('publish-panel').getByRole('status').textContent()).toMatch(/version 2/i);
     await context.close();
   });
 });
