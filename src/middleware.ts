@@ -2,19 +2,27 @@ import { defineMiddleware } from 'astro:middleware';
 import { app } from './server/app';
 import { studioAccess } from './server/services/accounts';
 import { isRouteId } from './lib/api/route-params';
-import { errorResponse } from './server/http/api';
+import { bodyLimitFor, errorResponse, tooLarge } from './server/http/api';
 import { notFound } from './server/errors';
 
+const isApiPath = (pathname: string) => pathname.startsWith('/api/') || pathname.startsWith('/media/');
+
 /**
- * Reads the session cookie, validates the session (lucia extends it when used in its second
- * half), refreshes or blanks the cookie, and puts user, session and studio roles on locals.
+ * Turns away requests that name no stored row or carry an oversize body, then reads the session
+ * cookie, validates the session (lucia extends it when used in its second half), refreshes or
+ * blanks the cookie, and puts user, session and studio roles on locals.
  */
 export const onRequest = defineMiddleware(async (context, next) => {
   // Every [id] route names a stored row by UUID; anything else is simply not there.
   const id = context.params.id;
   if (id !== undefined && !isRouteId(id)) {
-    const api = context.url.pathname.startsWith('/api/') || context.url.pathname.startsWith('/media/');
-    return api ? errorResponse(notFound()) : new Response('Not found', { status: 404, headers: { 'content-type': 'text/plain; charset=utf-8' } });
+    return isApiPath(context.url.pathname) ? errorResponse(notFound()) : new Response('Not found', { status: 404, headers: { 'content-type': 'text/plain; charset=utf-8' } });
+  }
+  const limit = bodyLimitFor(context.url.pathname);
+  if (Number(context.request.headers.get('content-length') ?? 0) > limit) {
+    return isApiPath(context.url.pathname)
+      ? errorResponse(tooLarge(limit))
+      : new Response('The form sent more than this page accepts.', { status: 413, headers: { 'content-type': 'text/plain; charset=utf-8' } });
   }
   context.locals.user = null;
   context.locals.session = null;

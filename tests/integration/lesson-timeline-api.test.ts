@@ -179,6 +179,38 @@ describe('import and export', () => {
     expect((await res.json()).error.errors[0].line).toBe(6);
   });
 
+  it('refuses an import past the save limits (5,000 segments, 20,000 cues) and changes nothing', async () => {
+    const current = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
+    // Invented rows: 5,001 one-second work segments, then 20,001 cues.
+    const segmentRows = Array.from({ length: 5001 }, (_, i) => `segment,,work,${i},${i + 1},,,,,`);
+    const tooManySegments = ['type,id,kind,start,end,exercise,round,set,title,text', ...segmentRows].join('\n');
+    const res = await coach.request('POST', `/api/lessons/${lessonId}/timeline/import?version=${current.version}&format=csv`, tooManySegments, { 'content-type': 'text/csv' });
+    expect(res.status).toBe(400);
+    expect((await res.json()).error.message).toBe('Nothing was imported: The file has 5001 segments; a timeline holds at most 5000, as when saving. Split the class or merge segments.');
+    const cueRows = Array.from({ length: 20_001 }, (_, i) => `cue,,note,${i / 10},,,,,,n`);
+    const tooManyCues = ['type,id,kind,start,end,exercise,round,set,title,text', 'segment,,work,0,20,,,,,', ...cueRows].join('\n');
+    const cues = await coach.request('POST', `/api/lessons/${lessonId}/timeline/import?version=${current.version}&format=csv`, tooManyCues, { 'content-type': 'text/csv' });
+    expect(cues.status).toBe(400);
+    expect((await cues.json()).error.message).toMatch(/The file has 20001 cues; a timeline holds at most 20000/);
+    expect((await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json()).version).toBe(current.version);
+  });
+
+  it.each([
+    ['an empty file', '', 'csv', /The file is empty/],
+    ['a CSV with only its header row', 'type,id,kind,start,end,exercise,round,set,title,text\n', 'csv', /The file has no segments, so importing it would empty the timeline/],
+    ['a CSV with cues only', 'type,id,kind,start,end,exercise,round,set,title,text\ncue,,note,1,,,,,,Breathe\n', 'csv', /The file has no segments/],
+    ['a WebVTT file without cues', 'WEBVTT\n\n', 'vtt', /The file has no segments/],
+  ])('refuses %s instead of emptying the timeline', async (_what, text, format, message) => {
+    const before = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
+    expect(before.segments.length).toBeGreaterThan(0);
+    const res = await coach.request('POST', `/api/lessons/${lessonId}/timeline/import?version=${before.version}&format=${format}`, text || ' ', { 'content-type': 'text/plain' });
+    expect(res.status).toBe(400);
+    expect((await res.json()).error.message).toMatch(message);
+    const after = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
+    expect(after.version).toBe(before.version);
+    expect(after.segments).toHaveLength(before.segments.length);
+  });
+
   it('refuses an import without a version, and a stale one', async () => {
     expect((await coach.request('POST', `/api/lessons/${lessonId}/timeline/import`, 'WEBVTT\n')).status).toBe(400);
     const stale = await coach.request('POST', `/api/lessons/${lessonId}/timeline/import?version=0`, 'WEBVTT\n\n00:00.000 --> 00:20.000\nWork\n');

@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { readCsv, writeCsv } from '~/lib/timeline/csv-records';
 import { timelineFromCsv, timelineToCsv } from '~/lib/timeline/timeline-csv';
-import type { Timeline } from '~/lib/timeline/timeline-schema';
+import { MAX_SEGMENTS, type Timeline } from '~/lib/timeline/timeline-schema';
 
 const sample: Timeline = {
   segments: [
@@ -85,5 +85,21 @@ describe('timeline CSV', () => {
     ['Kind,Start,End\nwork,60,100.5\nform,1:05,\n', [{ line: 3, message: 'A cue needs text.' }]],
   ])('a bad file imports nothing and names the line (%#)', (csv, errors) => {
     expect(timelineFromCsv(csv)).toEqual({ ok: false, errors });
+  });
+});
+
+describe('import limits (the same as a save)', () => {
+  const header = 'type,id,kind,start,end,exercise,round,set,title,text';
+  it('refuses more than MAX_SEGMENTS segments, and a file with none', () => {
+    // Invented rows of one second each.
+    const rows = Array.from({ length: MAX_SEGMENTS + 1 }, (_, i) => `segment,,work,${i},${i + 1},,,,,`);
+    const over = timelineFromCsv([header, ...rows].join('\n'));
+    expect(over.ok).toBe(false);
+    if (!over.ok) expect(over.errors[0]).toEqual({ line: 0, message: expect.stringMatching(/has 5001 segments; a timeline holds at most 5000/) });
+    const exactly = timelineFromCsv([header, ...rows.slice(0, MAX_SEGMENTS)].join('\n'));
+    expect(exactly.ok).toBe(true);
+    const none = timelineFromCsv(header + '\n');
+    expect(none.ok).toBe(false);
+    if (!none.ok) expect(none.errors[0]!.message).toMatch(/no segments/);
   });
 });

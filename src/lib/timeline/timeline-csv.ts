@@ -10,7 +10,7 @@
  */
 import { formatPreciseTime, parseTime } from '../time/format-time';
 import { readCsv, writeCsv } from './csv-records';
-import { duplicateIdErrors, fillIds, issueMessages, type ImportError, type ImportResult } from './timeline-import';
+import { duplicateIdErrors, fillIds, importedTimeline, issueMessages, type ImportError, type ImportResult } from './timeline-import';
 import { CUE_KINDS, SEGMENT_KINDS, cueSchema, segmentSchema, type Cue, type Segment, type Timeline } from './timeline-schema';
 
 export const CSV_COLUMNS = ['type', 'id', 'kind', 'start', 'end', 'exercise', 'round', 'set', 'title', 'text'] as const;
@@ -104,12 +104,9 @@ export function timelineFromCsv(text: string): ImportResult {
   const withCueIds = fillIds(cues, 'cue-');
   errors.push(...duplicateIdErrors(withSegmentIds, 'segment'), ...duplicateIdErrors(withCueIds, 'cue'));
   if (errors.length > 0) return { ok: false, errors: errors.sort((a, b) => a.line - b.line) };
-  return {
-    ok: true,
-    timeline: {
-      segments: withSegmentIds.map(({ line: _line, ...s }) => s),
-      cues: withCueIds.map(({ line: _line, ...c }) => c),
-    },
-  };
+  return importedTimeline({
+    segments: withSegmentIds.map(({ line: _line, ...s }) => s),
+    cues: withCueIds.map(({ line: _line, ...c }) => c),
+  });
 }
 

@@ -1,15 +1,35 @@
 /** Shared parts of the CSV and WebVTT timeline importers. */
 import type { z } from 'zod';
-import type { Timeline } from './timeline-schema';
+import { MAX_CUES, MAX_SEGMENTS, type Timeline } from './timeline-schema';
 
 export interface ImportError {
-  /** 1-based line of the file. */
+  /** 1-based line of the file; 0 for a problem with the file as a whole. */
   line: number;
   message: string;
 }
 
 /** Either the whole timeline, or the reasons nothing was imported. */
 export type ImportResult = { ok: true; timeline: Timeline } | { ok: false; errors: ImportError[] };
+
+/**
+ * The last step of every importer: a file replaces the whole timeline, so it must hold what a
+ * save may hold (at most MAX_SEGMENTS segments and MAX_CUES cues) and at least one segment: a
+ * file without any would silently empty the timeline.
+ */
+export function importedTimeline(timeline: Timeline): ImportResult {
+  const errors: ImportError[] = [];
+  const { segments, cues } = timeline;
+  if (segments.length === 0) {
+    errors.push({ line: 0, message: 'The file has no segments, so importing it would empty the timeline. Check that it is a timeline export with one row (or chapter) per segment.' });
+  }
+  if (segments.length > MAX_SEGMENTS) {
+    errors.push({ line: 0, message: `The file has ${segments.length} segments; a timeline holds at most ${MAX_SEGMENTS}, as when saving. Split the class or merge segments.` });
+  }
+  if (cues.length > MAX_CUES) {
+    errors.push({ line: 0, message: `The file has ${cues.length} cues; a timeline holds at most ${MAX_CUES}, as when saving. Remove some cues.` });
+  }
+  return errors.length > 0 ? { ok: false, errors } : { ok: true, timeline };
+}
 
 /** Turns a zod error into plain messages, prefixed by the field when it helps. */
 export function issueMessages(error: z.ZodError): string[] {

@@ -21,7 +21,7 @@
  * segments partly overlap and says which, since the file would not be a valid chapter file.
  */
 import { formatVttTimestamp, parseVttTimestamp } from '../time/format-time';
-import { duplicateIdErrors, fillIds, issueMessages, type ImportError, type ImportResult } from './timeline-import';
+import { duplicateIdErrors, fillIds, importedTimeline, issueMessages, type ImportError, type ImportResult } from './timeline-import';
 import { cueSchema, segmentSchema, timelineIdSchema, type Cue, type Segment, type SegmentKind, type Timeline } from './timeline-schema';
 
 const KIND_LABELS: Record<SegmentKind, string> = {
@@ -237,12 +237,9 @@ export function timelineFromWebVtt(text: string): ImportResult {
   const cuesWithIds = fillIds(cues, 'cue-');
   errors.push(...duplicateIdErrors(segmentsWithIds, 'segment'), ...duplicateIdErrors(cuesWithIds, 'cue'));
   if (errors.length > 0) return { ok: false, errors: errors.sort((a, b) => a.line - b.line) };
-  return {
-    ok: true,
-    timeline: {
-      segments: segmentsWithIds.map(({ line: _line, ...s }) => s),
-      cues: cuesWithIds.map(({ line: _line, ...c }) => c),
-    },
-  };
+  return importedTimeline({
+    segments: segmentsWithIds.map(({ line: _line, ...s }) => s),
+    cues: cuesWithIds.map(({ line: _line, ...c }) => c),
+  });
 }
 

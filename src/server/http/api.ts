@@ -1,6 +1,7 @@
 import type { z } from 'zod';
 import { AppError } from '../errors';
 import { statusOf } from './error-status';
+import { MAX_TIMELINE_FILE_BYTES } from '~/lib/api/timeline-file-schemas';
 
 /** A JSON response. */
 export function json(data: unknown, status = 200, headers: HeadersInit = {}): Response {
@@ -32,11 +33,73 @@ export function parseWith<S extends z.ZodType>(schema: S, data: unknown): z.infe
   return parsed.data;
 }
 
-/** Reads a JSON body and validates it. */
-export async function readJson<S extends z.ZodType>(request: Request, schema: S): Promise<z.infer<S>> {
+/** Largest JSON body any endpoint reads (1 MiB); a whole 3-hour timeline is about 500 KB. */
+export const JSON_BODY_LIMIT = 1024 * 1024;
+
+/**
+ * The body limit of a path: timeline imports take files up to MAX_TIMELINE_FILE_BYTES (2 MiB),
+ * everything else JSON_BODY_LIMIT. The middleware refuses a larger Content-Length on any route
+ * (pages' forms included) before anything reads the body.
+ */
+export const bodyLimitFor = (pathname: string) =>
+  /^\/api\/lessons\/[^/]+\/timeline\/import\/?$/.test(pathname) ? MAX_TIMELINE_FILE_BYTES : JSON_BODY_LIMIT;
+
+export const tooLarge = (limit: number) =>
+  new AppError('too_large', `The request body is larger than ${formatBytes(limit)}, so it was not read. Send less at once.`, undefined, { limitBytes: limit });
+const formatBytes = (n: number) => (n >= 1024 * 1024 ? `${+(n / 1024 / 1024).toFixed(1)} MB` : `${Math.ceil(n / 1024)} KB`);
+
+/**
+ * Reads a request body as text, refusing more than `limit` bytes with 413 (too_large): at once when
+ * Content-Length says so, before a byte is read, and otherwise (chunked uploads) by counting while
+ * it streams and stopping at the limit, so an oversize body is never held in memory.
+ */
+export async function readBodyText(request: Request, limit = JSON_BODY_LIMIT): Promise<string> {
+  const declared = request.headers.get('content-length');
+  if (declared !== null && Number(declared) > limit) throw tooLarge(limit);
+  if (!request.body) return '';
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > limit) {
+      await discardRest(reader, total);
+      throw tooLarge(limit);
+    }
+    chunks.push(value);
+  }
+  const bytes = new Uint8Array(total);
+  let at = 0;
+  for (const c of chunks) {
+    bytes.set(c, at);
+    at += c.byteLength;
+  }
+  return new TextDecoder().decode(bytes);
+}
+
+/**
+ * After a chunked body passed its limit: reads and drops what the client is still sending, so it
+ * gets to read the 413 instead of a reset connection (Express's error handler does the same), but
+ * never more than DRAIN_LIMIT in all; past that the connection is cut. Common practice, no source.
+ */
+const DRAIN_LIMIT = 64 * 1024 * 1024;
+async function discardRest(reader: ReadableStreamDefaultReader<Uint8Array>, seen: number): Promise<void> {
+  for (let total = seen; total <= DRAIN_LIMIT; ) {
+    const { done, value } = await reader.read();
+    if (done) return;
+    total += value.byteLength;
+  }
+  await reader.cancel().catch(() => {});
+}
+
+/** Reads a JSON body (at most `limit` bytes, else 413) and validates it. */
+export async function readJson<S extends z.ZodType>(request: Request, schema: S, limit = JSON_BODY_LIMIT): Promise<z.infer<S>> {
+  const text = await readBodyText(request, limit);
   let body: unknown;
   try {
-    body = await request.json();
+    body = JSON.parse(text);
   } catch {
     throw new AppError('invalid_input', 'The request body must be JSON.');
   }

@@ -1,5 +1,5 @@
 import type { APIRoute } from 'astro';
-import { endpoint, json } from '~/server/http/api';
+import { endpoint, json, readBodyText } from '~/server/http/api';
 import { billingDeps } from '~/server/payments/billing-deps';
 import { webhookSecret } from '~/server/payments/stripe-client';
 import { receiveWebhook } from '~/server/services/billing-webhooks';
@@ -9,6 +9,6 @@ import { receiveWebhook } from '~/server/services/billing-webhooks';
  * JSON would not match the signature); a repeat of an event already applied answers 200 too.
  */
 export const POST: APIRoute = endpoint(async ({ request }) => {
-  const result = await receiveWebhook(billingDeps(), await request.text(), request.headers.get('stripe-signature'), webhookSecret());
+  const result = await receiveWebhook(billingDeps(), await readBodyText(request), request.headers.get('stripe-signature'), webhookSecret());
   return json({ received: true, ...result });
 });

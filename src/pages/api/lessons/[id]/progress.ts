@@ -2,7 +2,7 @@ import type { APIRoute } from 'astro';
 import { progressInput } from '~/lib/api/publish-schemas';
 import { app } from '~/server/app';
 import { AppError } from '~/server/errors';
-import { endpoint, json, parseWith } from '~/server/http/api';
+import { endpoint, json, readJson } from '~/server/http/api';
 import { requireUser } from '~/server/http/guards';
 import { progressOf, recordProgress } from '~/server/services/member-classes';
 
@@ -16,11 +16,6 @@ export const GET: APIRoute = endpoint(async ({ locals, params }) => {
 export const POST: APIRoute = endpoint(async ({ locals, params, request }) => {
   const { user } = requireUser(locals);
   if (!locals.studio) throw new AppError('forbidden', 'Join the studio to watch its classes.');
-  let body: unknown;
-  try {
-    body = JSON.parse(await request.text());
-  } catch {
-    throw new AppError('invalid_input', 'The request body must be JSON.');
-  }
-  return json(await recordProgress(app(), locals.studio.studioId, user.id, params.id!, parseWith(progressInput, body)));
+  // readJson parses the text whatever its content type, so a sendBeacon's text/plain works.
+  return json(await recordProgress(app(), locals.studio.studioId, user.id, params.id!, await readJson(request, progressInput)));
 });

@@ -4,7 +4,7 @@ import { timelineFromCsv } from '~/lib/timeline/timeline-csv';
 import { timelineFromWebVtt } from '~/lib/timeline/timeline-webvtt';
 import { app } from '~/server/app';
 import { AppError } from '~/server/errors';
-import { endpoint, json, parseWith } from '~/server/http/api';
+import { endpoint, json, parseWith, readBodyText } from '~/server/http/api';
 import { requireActor } from '~/server/http/guards';
 import { saveClassTimeline } from '~/server/use-cases/class-marks';
 
@@ -12,10 +12,7 @@ import { saveClassTimeline } from '~/server/use-cases/class-marks';
 export const POST: APIRoute = endpoint(async ({ locals, params, request, url }) => {
   const actor = requireActor(locals);
   const query = parseWith(timelineImportQuery, Object.fromEntries(url.searchParams));
-  const declared = Number(request.headers.get('content-length') ?? 0);
-  if (declared > MAX_TIMELINE_FILE_BYTES) throw tooLarge();
-  const text = await request.text();
-  if (new TextEncoder().encode(text).length > MAX_TIMELINE_FILE_BYTES) throw tooLarge();
+  const text = await readBodyText(request, MAX_TIMELINE_FILE_BYTES);
   if (!text.trim()) throw new AppError('invalid_input', 'The file is empty. Export a timeline as CSV or WebVTT and import that.');
   const format = query.format ?? (/^\uFEFF?WEBVTT/.test(text) ? 'vtt' : 'csv');
   const result = format === 'vtt' ? timelineFromWebVtt(text) : timelineFromCsv(text);
@@ -23,7 +20,7 @@ export const POST: APIRoute = endpoint(async ({ locals, params, request, url }) 
     const first = result.errors[0]!;
     throw new AppError(
       'invalid_input',
-      `Nothing was imported: line ${first.line}: ${first.message}${result.errors.length > 1 ? ` (and ${result.errors.length - 1} more problems)` : ''}`,
+      `Nothing was imported: ${first.line > 0 ? `line ${first.line}: ` : ''}${first.message}${result.errors.length > 1 ? ` (and ${result.errors.length - 1} more problems)` : ''}`,
       undefined,
       { errors: result.errors },
     );
@@ -32,5 +29,3 @@ export const POST: APIRoute = endpoint(async ({ locals, params, request, url }) 
   return json({ ...saved, segments: result.timeline.segments.length, cues: result.timeline.cues.length });
 });
 
-const tooLarge = () =>
-  new AppError('too_large', `Timeline files can be at most ${MAX_TIMELINE_FILE_BYTES / 1024 / 1024} MB.`);
