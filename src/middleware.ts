@@ -1,6 +1,6 @@
 import { defineMiddleware } from 'astro:middleware';
 import { app } from './server/app';
-import { studioAccess } from './server/services/accounts';
+import { resolveStudio } from './server/services/accounts';
 import { isRouteId } from './lib/api/route-params';
 import { bodyLimitFor, errorResponse, tooLarge } from './server/http/api';
 import { notFound } from './server/errors';
@@ -42,8 +42,7 @@ export const onRequest = defineMiddleware(async (context, next) => {
     if (session && user) {
       context.locals.session = session;
       context.locals.user = user;
-      const studios = await studioAccess(deps, user.id);
-      context.locals.studio = studios.find((s) => s.studioSlug === deps.studioSlug) ?? studios[0] ?? null;
+      context.locals.studio = await resolveStudio(deps, user.id);
     }
   }
   return next();

@@ -139,3 +139,13 @@ export async function studioAccess(deps: AppDeps, userId: string): Promise<Studi
   }
   return [...byStudio.values()];
 }
+
+/**
+ * The studio a signed-in person acts in: the studio this deployment serves when they belong to
+ * it, otherwise the first studio they belong to, or null. Middleware and both sign-ins use it, so
+ * the landing page after sign-in and every later request agree.
+ */
+export async function resolveStudio(deps: AppDeps, userId: string): Promise<StudioAccess | null> {
+  const studios = await studioAccess(deps, userId);
+  return studios.find((s) => s.studioSlug === deps.studioSlug) ?? studios[0] ?? null;
+}

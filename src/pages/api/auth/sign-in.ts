@@ -5,7 +5,7 @@ import { endpoint, json, readJson } from '~/server/http/api';
 import { setSessionCookie } from '~/server/http/session-cookie';
 import { homePath } from '~/server/http/guards';
 import { requestAddress } from '~/server/http/client-address';
-import { signIn, studioAccess } from '~/server/services/accounts';
+import { resolveStudio, signIn } from '~/server/services/accounts';
 
 export const POST: APIRoute = endpoint(async (ctx) => {
   const { request, cookies } = ctx;
@@ -13,6 +13,5 @@ export const POST: APIRoute = endpoint(async (ctx) => {
   const deps = app();
   const session = await signIn(deps, input, requestAddress(ctx));
   setSessionCookie(cookies, deps.auth, session);
-  const studios = await studioAccess(deps, session.userId);
-  return json({ userId: session.userId, home: homePath({ studio: studios[0] ?? null }) });
+  return json({ userId: session.userId, home: homePath({ studio: await resolveStudio(deps, session.userId) }) });
 });
