@@ -3,10 +3,12 @@ import { defineConfig } from 'astro/config';
 import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwindcss from '@tailwindcss/vite';
+import { settings } from './src/server/env.ts';
 
 // Hosts whose Host header Astro trusts when building request URLs (the origin check compares
 // against them). Loopback for local use, plus the public host the build is made for.
-const publicHost = process.env.PUBLIC_BASE_URL ? new URL(process.env.PUBLIC_BASE_URL).hostname : undefined;
+const { PUBLIC_BASE_URL } = settings();
+const publicHost = PUBLIC_BASE_URL ? new URL(PUBLIC_BASE_URL).hostname : undefined;
 const allowedDomains = [{ hostname: '127.0.0.1' }, { hostname: 'localhost' }];
 if (publicHost && !allowedDomains.some((d) => d.hostname === publicHost)) allowedDomains.push({ hostname: publicHost });
 

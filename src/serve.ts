@@ -10,14 +10,15 @@ import http from 'node:http';
 import https from 'node:https';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { env } from './server/env';
+import { env, settings } from './server/env';
 import { clientAddressOf, markAddressesResolved, trustProxies } from './server/http/client-address';
 
 type NodeHandler = (req: http.IncomingMessage, res: http.ServerResponse) => void;
 
 const trusted = trustProxies(env().TRUSTED_PROXIES);
 process.env.ASTRO_NODE_AUTOSTART = 'disabled'; // we listen ourselves
-const dist = path.resolve(process.env.ROUNDMARK_DIST ?? 'dist');
+const { ROUNDMARK_DIST, SERVER_CERT_PATH: cert, SERVER_KEY_PATH: key, HOST: host, PORT: port } = settings();
+const dist = path.resolve(ROUNDMARK_DIST);
 const { handler } = (await import(pathToFileURL(path.join(dist, 'server/entry.mjs')).href)) as { handler: NodeHandler };
 markAddressesResolved();
 
@@ -26,11 +27,7 @@ const listener: NodeHandler = (req, res) => {
   handler(req, res);
 };
 
-const cert = process.env.SERVER_CERT_PATH;
-const key = process.env.SERVER_KEY_PATH;
 const server = cert && key ? https.createServer({ cert: readFileSync(cert), key: readFileSync(key) }, listener) : http.createServer(listener);
-const host = process.env.HOST ?? '127.0.0.1';
-const port = Number(process.env.PORT ?? 4321);
 server.listen(port, host, () => console.log(`Roundmark listening on ${cert && key ? 'https' : 'http'}://${host}:${port}`));
 
 for (const signal of ['SIGTERM', 'SIGINT'] as const) {

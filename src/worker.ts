@@ -8,21 +8,21 @@ import { join } from 'node:path';
 import { and, eq, lt } from 'drizzle-orm';
 import { recordings } from './db/schema';
 import { createAppDeps } from './server/app';
-import { env } from './server/env';
+import { env, settings } from './server/env';
 import { JOB_NAMES, queue, sendJob, type JobName } from './server/queue';
 import { storage } from './server/storage';
 import { assertRegistryComplete, JOB_HANDLERS } from './server/jobs/registry';
 import type { JobContext } from './server/jobs/job-context';
 
 /** A processing recording whose progress has not moved for this long lost its worker (tests shorten it). */
-const STALE_SECONDS = Number(process.env.ROUNDMARK_STALE_SECONDS ?? 90);
+const STALE_SECONDS = settings().ROUNDMARK_STALE_SECONDS;
 
 assertRegistryComplete();
 const deps = createAppDeps(env().DATABASE_URL);
 const { s3, bucket } = storage();
 // The process-wide queue, so use cases sending through deps.jobs share this connection.
 const boss = await queue(env().DATABASE_URL);
-const workDir = process.env.ROUNDMARK_WORK_DIR ?? join(tmpdir(), 'roundmark-worker');
+const workDir = settings().ROUNDMARK_WORK_DIR ?? join(tmpdir(), 'roundmark-worker');
 await mkdir(workDir, { recursive: true });
 const stopping = new AbortController();
 

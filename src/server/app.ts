@@ -2,7 +2,7 @@ import { RateLimiterPostgres } from 'rate-limiter-flexible';
 import type pg from 'pg';
 import { createDb, type Db } from './db';
 import { createLucia, type Auth } from './auth/lucia';
-import { env } from './env';
+import { env, settings } from './env';
 import { ACCESS_CHANNEL, LibraryCache } from './library-cache';
 import { queue, sendJob, type JobName, type JobPayloads } from './queue';
 
@@ -83,7 +83,7 @@ export function createAppDeps(databaseUrl: string, secureCookies = false): AppDe
     auth: createLucia(db, secureCookies),
     limits: signInLimits(pool),
     jobs: queueSender(databaseUrl),
-    studioSlug: process.env.STUDIO_SLUG ?? 'fernhill',
+    studioSlug: settings().STUDIO_SLUG,
   };
 }
 

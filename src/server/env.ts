@@ -78,3 +78,46 @@ export function env(): Env {
 
 /** True when the app runs as a production build with production settings. */
 export const isProduction = () => env().NODE_ENV === 'production';
+
+/**
+ * Settings that have a sensible default and are needed where the full environment is not (the
+ * ffmpeg runner in unit tests, drizzle-kit, the Astro config at build time). Still read only here.
+ */
+const settingsSchema = z.object({
+  /** The studio this deployment serves (its slug). */
+  STUDIO_SLUG: z.string().min(1).default('fernhill'),
+  PUBLIC_BASE_URL: z.string().url().optional(),
+  DATABASE_URL: z.string().optional(),
+  /** Program paths; the same variable names fluent-ffmpeg reads, so existing setups keep working. */
+  FFMPEG_PATH: z.string().min(1).default('ffmpeg'),
+  FFPROBE_PATH: z.string().min(1).default('ffprobe'),
+  /** A processing recording whose progress has not moved for this long lost its worker (tests shorten it). */
+  ROUNDMARK_STALE_SECONDS: z.coerce.number().positive().default(90),
+  /** The worker's scratch folder; a folder under the system's temp folder when unset. */
+  ROUNDMARK_WORK_DIR: z.string().min(1).optional(),
+  /** The owner's captured-mail preview page: on only in development and tests. */
+  ROUNDMARK_MAIL_PREVIEW: z.string().optional().transform((v) => v === '1'),
+  ROUNDMARK_MAIL_DIR: z.string().min(1).default('.data/mail'),
+  /** `0` seeds without generating demo recordings (npm test makes its own small media). */
+  ROUNDMARK_DEMO_MEDIA: z.string().optional().transform((v) => v !== '0'),
+  /** src/serve.ts: where the build is, where to listen, and an optional certificate. */
+  ROUNDMARK_DIST: z.string().min(1).default('dist'),
+  HOST: z.string().min(1).default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(1).max(65535).default(4321),
+  SERVER_CERT_PATH: z.string().min(1).optional(),
+  SERVER_KEY_PATH: z.string().min(1).optional(),
+});
+
+export type Settings = z.output<typeof settingsSchema>;
+let cachedSettings: Settings | undefined;
+
+/** The defaulted settings, read once; throws only on a malformed value. */
+export function settings(): Settings {
+  if (cachedSettings) return cachedSettings;
+  const parsed = settingsSchema.safeParse(process.env);
+  if (!parsed.success) {
+    throw new Error(`Roundmark cannot start: ${parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ')}`);
+  }
+  cachedSettings = parsed.data;
+  return cachedSettings;
+}

@@ -8,6 +8,7 @@
  * ffmpeg's own `-progress` figures and ffprobe's JSON as documented.
  */
 import { spawn } from 'node:child_process';
+import { settings } from '../env';
 import { open, stat, writeFile } from 'node:fs/promises';
 import { buildPeaksArgs, PEAKS_PCM_SAMPLE_RATE } from '~/lib/media/hls-ladder';
 import { buildMonoPcmArgs } from '~/lib/media/pcm-args';
@@ -20,9 +21,9 @@ import {
 } from '~/lib/media/probe-verdict';
 import { createProgressParser, type FfmpegProgress } from '~/lib/media/progress';
 
-/** Program paths; the same variable names fluent-ffmpeg reads, so existing setups keep working. */
-export const FFMPEG_PATH = process.env.FFMPEG_PATH ?? 'ffmpeg';
-export const FFPROBE_PATH = process.env.FFPROBE_PATH ?? 'ffprobe';
+/** Program paths (src/server/env.ts). */
+export const FFMPEG_PATH = settings().FFMPEG_PATH;
+export const FFPROBE_PATH = settings().FFPROBE_PATH;
 
 /** A failed ffmpeg/ffprobe run, with the end of its stderr for the logs. */
 export class FfmpegError extends Error {

@@ -244,7 +244,7 @@ export async function startCheckout(
       subscription_data: { ...(trialDays > 0 ? { trial_period_days: trialDays } : {}), metadata: ids },
       metadata: ids,
       ...(promo ? { discounts: [{ promotion_code: promo.providerPromotionCodeId! }] } : {}),
-      success_url: `${baseUrl}/account?checkout=success`,
+      success_url: `${baseUrl}/account/checkout-return`,
       cancel_url: `${baseUrl}/account?checkout=cancelled`,
     }),
   );

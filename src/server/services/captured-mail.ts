@@ -1,5 +1,6 @@
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
+import { settings } from '../env';
 
 // Reads what the local SMTP fake (docker-free-dev/mail-fake.mjs) stored, for the owner's
 // preview page in development and tests. Production never sets ROUNDMARK_MAIL_PREVIEW, so the
@@ -7,11 +8,11 @@ import path from 'node:path';
 
 /** Whether the captured-mail preview is switched on (docker-free-dev/start-app.sh and run-tests.sh set it). */
 export function mailPreviewEnabled(): boolean {
-  return process.env.ROUNDMARK_MAIL_PREVIEW === '1';
+  return settings().ROUNDMARK_MAIL_PREVIEW;
 }
 
 function mailDir(): string {
-  return path.resolve(process.env.ROUNDMARK_MAIL_DIR ?? '.data/mail');
+  return path.resolve(settings().ROUNDMARK_MAIL_DIR);
 }
 
 export interface CapturedMailEntry {

@@ -150,3 +150,9 @@ export async function listCoaches(deps: AppDeps, studioId: string) {
     .orderBy(users.name);
   return rows;
 }
+
+/** The class's current recording id (null until one is ready), for a recording's status answer. */
+export async function currentRecordingIdOf(deps: AppDeps, lessonId: string): Promise<string | null> {
+  const [row] = await deps.db.select({ current: lessons.currentRecordingId }).from(lessons).where(eq(lessons.id, lessonId));
+  return row?.current ?? null;
+}

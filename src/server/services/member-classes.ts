@@ -144,3 +144,10 @@ export async function cautionAcknowledged(deps: AppDeps, userId: string): Promis
   const [row] = await deps.db.select({ at: users.cautionAcknowledgedAt }).from(users).where(eq(users.id, userId));
   return !!row?.at;
 }
+
+/** The WebVTT chapters file stored with a published version. */
+export async function chaptersVttOf(deps: AppDeps, versionId: string): Promise<string> {
+  const [v] = await deps.db.select({ vtt: lessonVersions.chaptersVtt }).from(lessonVersions).where(eq(lessonVersions.id, versionId));
+  if (!v) throw notFound('That class');
+  return v.vtt;
+}

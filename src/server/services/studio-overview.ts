@@ -1,5 +1,5 @@
 import { and, count, eq } from 'drizzle-orm';
-import { lessons, memberships, users } from '~/db/schema';
+import { lessons, memberships, studios, users } from '~/db/schema';
 import type { AppDeps } from '../app';
 
 /** What the owner sees first: classes by state and the studio's people by role. */
@@ -29,4 +29,10 @@ export async function studioOverview(deps: AppDeps, studioId: string) {
   const classes = { draft: 0, published: 0, archived: 0 };
   for (const s of byState) classes[s.state] = s.n;
   return { classes, staff: [...staff.values()], members };
+}
+
+/** The studio this deployment serves (its name and id for the public front page), or null before set-up. */
+export async function servedStudio(deps: AppDeps): Promise<{ id: string; name: string } | null> {
+  const [row] = await deps.db.select({ id: studios.id, name: studios.name }).from(studios).where(eq(studios.slug, deps.studioSlug));
+  return row ?? null;
 }
