@@ -91,6 +91,8 @@ const settingsSchema = z.object({
   /** Program paths; the same variable names fluent-ffmpeg reads, so existing setups keep working. */
   FFMPEG_PATH: z.string().min(1).default('ffmpeg'),
   FFPROBE_PATH: z.string().min(1).default('ffprobe'),
+  /** Debian's speech synthesiser, for generated coach voices in demo and test media. */
+  ESPEAK_PATH: z.string().min(1).default('espeak-ng'),
   /** A processing recording whose progress has not moved for this long lost its worker (tests shorten it). */
   ROUNDMARK_STALE_SECONDS: z.coerce.number().positive().default(90),
   /** The worker's scratch folder; a folder under the system's temp folder when unset. */

@@ -220,7 +220,7 @@ export async function decodeMonoPcm(
 }
 
 /** espeak-ng (Debian package), for generated coach voices in demo and test media. */
-export const ESPEAK_PATH = process.env.ESPEAK_PATH ?? 'espeak-ng';
+export const ESPEAK_PATH = settings().ESPEAK_PATH;
 
 /** Speaks `text` into a WAV file (22.05 kHz mono). `voice` is an espeak-ng voice name such as `en` or `en+f3`. */
 export async function speakToWav(text: string, path: string, options: { voice?: string; wordsPerMinute?: number; pitch?: number } = {}): Promise<void> {
