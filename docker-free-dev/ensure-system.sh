@@ -6,6 +6,8 @@ source "$(dirname "$0")/lib.sh"
 need=()
 [ -x "$PG_BIN/postgres" ] || need+=(postgresql)
 command -v ffmpeg >/dev/null || need+=(ffmpeg)
+# espeak-ng speaks the coach voices of generated test and demo recordings.
+command -v espeak-ng >/dev/null || need+=(espeak-ng)
 [ -x /usr/bin/chromium ] || need+=(chromium)
 [ -f /usr/share/fonts/truetype/dejavu/DejaVuSans-Bold.ttf ] || need+=(fonts-dejavu-core)
 if [ ${#need[@]} -gt 0 ]; then
