@@ -9,6 +9,8 @@ export const ERROR_CODES = [
   'forbidden',
   'not_found',
   'conflict',
+  /** Well-formed, but the thing it needs is missing (e.g. a proposal for a class without a plan). */
+  'unprocessable',
   'too_large',
   'unsupported_media',
   'range_not_satisfiable',

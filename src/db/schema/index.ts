@@ -5,3 +5,4 @@ export * from './recordings';
 export * from './publishing';
 export * from './billing';
 export * from './plan-templates';
+export * from './recording-audio';

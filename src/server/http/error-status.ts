@@ -7,6 +7,7 @@ export const ERROR_STATUS: Record<ErrorCode, number> = {
   forbidden: 403,
   not_found: 404,
   conflict: 409,
+  unprocessable: 422,
   too_large: 413,
   unsupported_media: 415,
   range_not_satisfiable: 416,

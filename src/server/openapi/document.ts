@@ -6,6 +6,7 @@ import { apiRoutes } from './routes';
 import { errors, json } from './responses';
 import { billingRoutes } from './routes-billing';
 import { mailRoutes } from './routes-mail';
+import { markingRoutes } from './routes-marking';
 
 const lessonId = z.object({ id: z.string().uuid().describe('Class id') });
 
@@ -85,7 +86,7 @@ export function openApiDocument() {
     method: 'delete', path: '/api/lessons/{id}', summary: 'Delete a draft class (owner, coach)', request: { params: lessonId },
     responses: { 204: { description: 'Deleted' }, ...errors(401, 403, 404, 409) },
   });
-  for (const extra of [...apiRoutes, ...billingRoutes, ...mailRoutes]) add(extra);
+  for (const extra of [...apiRoutes, ...billingRoutes, ...mailRoutes, ...markingRoutes]) add(extra);
 
   return new OpenApiGeneratorV31(registry.definitions).generateDocument({
     openapi: '3.1.0',

@@ -21,6 +21,7 @@ const ERROR_TEXT: Record<number, string> = {
   409: 'Conflict: a stale version, or the current state does not allow this',
   413: 'Too large',
   415: 'Unsupported file type',
+  422: 'Well-formed, but something it needs is missing (the message says what)',
   429: 'Too many attempts; see Retry-After',
   503: 'A dependency is down',
 };

@@ -1,0 +1,36 @@
+import { bigserial, index, integer, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { recordings } from './recordings';
+import { studios } from './studio';
+
+/** That a recording's audio was analysed (it may have no events), when, and by which analyser version. */
+export const recordingAudioAnalyses = pgTable('recording_audio_analyses', {
+  recordingId: uuid()
+    .primaryKey()
+    .references(() => recordings.id, { onDelete: 'cascade' }),
+  studioId: uuid()
+    .notNull()
+    .references(() => studios.id, { onDelete: 'cascade' }),
+  analyzerVersion: integer().notNull(),
+  eventCount: integer().notNull(),
+  /** Wall time of decode + analysis, for operations. */
+  seconds: real().notNull(),
+  analyzedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+});
+
+/** Audio events heard in a recording (timer tones, whistles, speech, level changes). */
+export const recordingEvents = pgTable(
+  'recording_events',
+  {
+    id: bigserial({ mode: 'number' }).primaryKey(),
+    recordingId: uuid()
+      .notNull()
+      .references(() => recordings.id, { onDelete: 'cascade' }),
+    atSeconds: real().notNull(),
+    /** One of AUDIO_EVENT_KINDS (lib/audio/audio-events.ts); checked there, text here so new kinds need no migration. */
+    kind: text().notNull(),
+    strength: real().notNull(),
+    durationSeconds: real().notNull(),
+    frequencyHz: real(),
+  },
+  (t) => [index('recording_events_recording_idx').on(t.recordingId, t.atSeconds)],
+);
