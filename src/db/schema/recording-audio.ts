@@ -1,4 +1,4 @@
-import { bigserial, index, integer, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { bigserial, doublePrecision, index, integer, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { recordings } from './recordings';
 import { studios } from './studio';
 
@@ -25,7 +25,8 @@ export const recordingEvents = pgTable(
     recordingId: uuid()
       .notNull()
       .references(() => recordings.id, { onDelete: 'cascade' }),
-    atSeconds: real().notNull(),
+    /** Double precision: real would round a time 20 minutes in to a quarter millisecond and worse later. */
+    atSeconds: doublePrecision().notNull(),
     /** One of AUDIO_EVENT_KINDS (lib/audio/audio-events.ts); checked there, text here so new kinds need no migration. */
     kind: text().notNull(),
     strength: real().notNull(),
