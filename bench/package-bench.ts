@@ -33,7 +33,7 @@ async function main() {
   try {
     const source = join(dir, 'source.mp4');
     console.log(`generating ${seconds} s of 1080p30 (testsrc + sine, ultrafast)…`);
-    let t = performance.now();
+    const t = performance.now();
     await run('ffmpeg', [
       '-hide_banner', '-loglevel', 'error', '-y',
       '-f', 'lavfi', '-i', `testsrc=duration=${seconds}:size=1920x1080:rate=30`,

@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { sendJob, startQueue } from '~/server/queue';
 import { encodePeaks } from '~/lib/media/peaks';
-import { ApiClient, BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
+import { type ApiClient, BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
 
 interface Recording { id: string; state: string; isCurrent: boolean; durationSeconds: number | null; playlistUrl: string | null; peaksUrl: string | null; posterUrl: string | null; failureReason: string | null; createdAt: string }

@@ -1,5 +1,5 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import { ApiClient, DEMO, signedIn } from '../helpers/api-client';
+import { type ApiClient, DEMO, signedIn } from '../helpers/api-client';
 
 let coach: ApiClient;
 let editor: ApiClient;

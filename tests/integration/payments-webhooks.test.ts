@@ -23,7 +23,7 @@ const postEvent = (client: ApiClient, payload: string, signature?: string) =>
 async function eventsFor(sub: string, types: string[]) {
   const list = await stripe.events.list({ limit: 100 });
   return list.data
-    .filter((e) => types.includes(e.type) && ((e.data.object as { id?: string }).id === sub || (e.data.object as any).parent?.subscription_details?.subscription === sub))
+    .filter((e) => types.includes(e.type) && ((e.data.object as { id?: string }).id === sub || (e.data.object as { parent?: { subscription_details?: { subscription?: string } } }).parent?.subscription_details?.subscription === sub))
     .reverse();
 }
 

@@ -58,6 +58,9 @@ export default function ClassPlayer(props: PlayerProps) {
       hls.attachMedia(v);
       destroy = () => hls.destroy();
     });
+    // The URL fragment and the navigation kind exist only in the browser, after hydration: an effect
+    // is the place to read them, and the state set from them below is set once per video.
+    /* eslint-disable react-hooks/set-state-in-effect */
     // A W3C Media Fragments link (#t=…) opens the class at that time when the member followed it;
     // on a reload it is the player's own leftover and the saved position wins (start-position.ts).
     const navigation = (performance.getEntriesByType('navigation')[0] as PerformanceNavigationTiming | undefined)?.type ?? 'navigate';
@@ -73,6 +76,7 @@ export default function ClassPlayer(props: PlayerProps) {
       setTime(start.seekTo);
     }
     setResumeOffer(start.offerResumeAt !== null);
+    /* eslint-enable react-hooks/set-state-in-effect */
     return () => destroy();
   }, [props.playlistUrl]);
 

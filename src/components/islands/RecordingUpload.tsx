@@ -50,6 +50,8 @@ function useUploadingHere(uppy: RecordingUppy): UploadingHere | null {
   return useMemo(() => {
     if (!snapshot) return null;
     const [recordingId, percent, uploaded, total, started, phase] = snapshot.split('|');
+    // The average speed is measured when the store reports progress; the memo recomputes only then.
+    // eslint-disable-next-line react-hooks/purity
     const seconds = (Date.now() - Number(started)) / 1000;
     const bytesPerSecond = seconds > 0.5 && Number(uploaded) > 0 ? Number(uploaded) / seconds : null;
     return {

@@ -114,6 +114,7 @@ export function demoFontSize(label: string, width: number, height: number): numb
 /** The drawtext filter (with its arguments) that writes `label` centred on the picture. */
 export function drawtextFilter(label: string, options: { width: number; height: number; color: string; fontFile: string }): string {
   // Control characters (newlines, tabs) would end up as boxes: show them as spaces.
+  // eslint-disable-next-line no-control-regex -- matching control characters is the point here
   const text = label.replace(/[\u0000-\u001f\u007f]/g, ' ');
   const size = demoFontSize(text, options.width, options.height);
   return [

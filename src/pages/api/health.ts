@@ -1,15 +1,12 @@
 import type { APIRoute } from 'astro';
-import { sql } from 'drizzle-orm';
 import { app } from '~/server/app';
 import { json } from '~/server/http/api';
 import { storage, storageReachable } from '~/server/storage';
+import { databaseReachable } from '~/server/services/health';
 
 /** Reports whether the database and the object store answer; 503 when either does not. */
 export const GET: APIRoute = async () => {
-  const database = await app()
-    .db.execute(sql`select 1`)
-    .then(() => true)
-    .catch(() => false);
+  const database = await databaseReachable(app());
   const { s3, bucket } = storage();
   const store = await storageReachable(s3, bucket);
   const ok = database && store;

@@ -1,6 +1,5 @@
-import { mkdir } from 'node:fs/promises';
+import { mkdir, stat } from 'node:fs/promises';
 import { createReadStream } from 'node:fs';
-import { stat } from 'node:fs/promises';
 import { join } from 'node:path';
 import { PutObjectCommand } from '@aws-sdk/client-s3';
 import { and, eq, ne } from 'drizzle-orm';
