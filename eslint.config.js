@@ -45,19 +45,6 @@ export default tseslint.config(
       'react-hooks/preserve-manual-memoization': 'off',
     },
   },
-  // The editor components are being split into a controller hook, toolbar and command table
-  // (issue 11); until that lands, their known findings (the latest-value ref pattern, draft
-  // state reset from props) show as warnings instead of failing every run. Remove after the split.
-  {
-    files: ['src/components/islands/timeline-editor/{TimelineEditor,MediaTimeline,SegmentInspector}.tsx'],
-    rules: {
-      'react-hooks/refs': 'warn',
-      'react-hooks/immutability': 'warn',
-      'react-hooks/set-state-in-effect': 'warn',
-      'react-hooks/exhaustive-deps': 'warn',
-    },
-  },
-
   // Ambient declaration files cannot have top-level imports without becoming modules.
   {
     files: ['**/*.d.ts'],

@@ -9,7 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { and, eq } from 'drizzle-orm';
 import { createAppDeps } from '~/server/app';
 import { playEvents, playProgress } from '~/db/schema';
-import { ApiClient, DEMO, signedIn } from '../helpers/api-client';
+import { type ApiClient, DEMO, signedIn } from '../helpers/api-client';
 import { createSmallClass } from '../helpers/published-class';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);

@@ -78,7 +78,7 @@ export default function ClassPlayer(props: PlayerProps) {
     setResumeOffer(start.offerResumeAt !== null);
     /* eslint-enable react-hooks/set-state-in-effect */
     return () => destroy();
-  }, [props.playlistUrl]);
+  }, [props.playlistUrl, props.resumeAt, props.durationSeconds, props.finished]);
 
   useEffect(() => {
     const v = video.current;

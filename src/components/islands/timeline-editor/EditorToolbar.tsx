@@ -1,6 +1,6 @@
 import { Fragment, type ReactNode } from 'react';
 import type { ShortcutCommand } from '~/lib/editor/shortcuts';
-import type { EditorController } from './controller/use-editor-controller';
+import type { EditorView } from './controller/use-editor-controller';
 import { ZOOM_LEVELS } from './controller/editor-commands';
 import { PlayButton, PlayheadTime } from './PlayControls';
 import { toolButton } from './tool-button';
@@ -12,7 +12,7 @@ export interface ToolButtonSpec {
   keys?: string;
   title?: string;
   ariaLabel?: string;
-  disabled?(c: EditorController): boolean;
+  disabled?(c: EditorView): boolean;
 }
 
 /**
@@ -39,7 +39,7 @@ export const TOOL_GROUPS: readonly (readonly ToolButtonSpec[])[] = [
 
 const Rule = () => <span className="mx-1 hidden h-6 w-px bg-stone sm:inline-block" aria-hidden="true" />;
 
-export default function EditorToolbar({ c, extra }: { c: EditorController; extra?: ReactNode }) {
+export default function EditorToolbar({ c, extra }: { c: EditorView; extra?: ReactNode }) {
   return (
     <div className="flex flex-wrap items-center gap-2" role="toolbar" aria-label="Timeline tools">
       <PlayButton store={c.playhead} disabled={!c.data.recording} onClick={() => c.run('play-pause')} />
@@ -80,7 +80,7 @@ export default function EditorToolbar({ c, extra }: { c: EditorController; extra
   );
 }
 
-function ZoomControls({ c }: { c: EditorController }) {
+function ZoomControls({ c }: { c: EditorView }) {
   return (
     <>
       <button type="button" className={toolButton} onClick={() => c.run('zoom-out')} disabled={c.zoomIndex === 0} aria-label="Zoom out">−</button>

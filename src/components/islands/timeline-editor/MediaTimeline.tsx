@@ -6,6 +6,7 @@ import type { PlayheadStore } from './playhead-store';
 import { useAltHeld } from './media/use-alt-held';
 import { useWheelZoom } from './media/use-wheel-zoom';
 import { useMediaWaveform } from './media/use-media-waveform';
+import { useLatest } from '../use-latest';
 
 export interface MediaTimelineHandle {
   playPause(): void;
@@ -49,8 +50,7 @@ export default function MediaTimeline(props: MediaTimelineProps) {
   const groupRef = useRef<HTMLDivElement>(null);
   const altHeld = useAltHeld();
   const wsRef = useMediaWaveform(props, { video: videoRef, wave: waveRef, ruler: rulerRef }, altHeld);
-  const zoomStep = useRef(props.onZoomStep);
-  zoomStep.current = props.onZoomStep;
+  const zoomStep = useLatest(props.onZoomStep);
   useWheelZoom(groupRef, zoomStep);
 
   useImperativeHandle(props.handleRef, () => ({

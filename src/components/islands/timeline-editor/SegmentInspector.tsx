@@ -1,4 +1,4 @@
-import { useEffect, useState, type RefObject } from 'react';
+import { useState, type RefObject } from 'react';
 import { CUE_KINDS, type Cue, type CueKind, type Segment, type SegmentKind } from '~/lib/timeline/timeline-schema';
 import type { Edge, Selection } from '~/lib/editor/editor-state';
 import { CUE_KIND_LABELS, KIND_COLOURS, SEGMENT_KIND_LABELS, SEGMENT_KIND_ORDER } from '~/lib/editor/segment-style';
@@ -30,11 +30,19 @@ const NUDGES = [
 const button = 'rounded-[10px] border border-ink/70 px-3 py-1.5 text-sm font-bold hover:bg-ink hover:text-paper aria-pressed:bg-ink aria-pressed:text-paper';
 
 /** Details of what is selected: kind, exercise, edges with nudge buttons (touch-friendly), or a cue. */
-export default function SegmentInspector(p: SegmentInspectorProps) {
+export default function SegmentInspector({ exerciseInputRef, ...p }: SegmentInspectorProps) {
   const [exerciseDraft, setExerciseDraft] = useState(p.segment?.exercise ?? '');
   const [cueDraft, setCueDraft] = useState(p.cue?.text ?? '');
-  useEffect(() => setExerciseDraft(p.segment?.exercise ?? ''), [p.segment?.id, p.segment?.exercise]);
-  useEffect(() => setCueDraft(p.cue?.text ?? ''), [p.cue?.id, p.cue?.text]);
+  // A new selection or a change from elsewhere (undo, a fix) replaces the draft; adjusted while
+  // rendering, as React recommends, instead of in an effect that would render twice.
+  const segmentKey = `${p.segment?.id}|${p.segment?.exercise}`;
+  const cueKey = `${p.cue?.id}|${p.cue?.text}`;
+  const [seen, setSeen] = useState({ segmentKey, cueKey });
+  if (seen.segmentKey !== segmentKey || seen.cueKey !== cueKey) {
+    setSeen({ segmentKey, cueKey });
+    if (seen.segmentKey !== segmentKey) setExerciseDraft(p.segment?.exercise ?? '');
+    if (seen.cueKey !== cueKey) setCueDraft(p.cue?.text ?? '');
+  }
 
   if (p.segment && p.selection?.type === 'segment') {
     const s = p.segment;
@@ -61,7 +69,7 @@ export default function SegmentInspector(p: SegmentInspectorProps) {
           <label className="flex flex-col gap-1 text-sm font-semibold">
             Exercise
             <input
-              ref={p.exerciseInputRef}
+              ref={exerciseInputRef}
               list="editor-exercises"
               value={exerciseDraft}
               disabled={s.kind !== 'work' && s.kind !== 'rest'}

@@ -56,15 +56,16 @@ function noRecordingNote(preparing: EditorData['preparing']): string {
 
 /** Lays out the editor's parts; all behaviour lives in the controller. */
 function Editor({ lessonId, data, peaks }: { lessonId: string; data: EditorData; peaks: Peaks | null }) {
-  const c = useEditorController(lessonId, data, peaks);
+  // The refs are taken out first: React's checks treat an object that carries refs as a ref itself.
+  const { rootRef, media, exerciseInput, ...c } = useEditorController(lessonId, data, peaks);
   const { state, dispatch, handlers: h, saving, selectedSegment, selectedCue } = c;
   return (
-    <div ref={c.rootRef} className="flex flex-col gap-4" data-editor data-editor-ready={c.ready ? 'true' : undefined}>
+    <div ref={rootRef} className="flex flex-col gap-4" data-editor data-editor-ready={c.ready ? 'true' : undefined}>
       <SaveBar saving={saving} />
       <DraftOffer saving={saving} serverVersion={data.version} />
       {c.mediaError && <p role="alert" className="rounded-[10px] bg-warning/5 p-3 text-sm font-semibold text-warning">{c.mediaError}</p>}
       <MediaTimeline
-        handleRef={c.media}
+        handleRef={media}
         playlistUrl={data.recording?.playlistUrl ?? null}
         posterUrl={data.recording?.posterUrl ?? null}
         peaks={peaks}
@@ -92,7 +93,7 @@ function Editor({ lessonId, data, peaks }: { lessonId: string; data: EditorData;
           segment={selectedSegment}
           cue={selectedCue}
           exercises={c.exercises}
-          exerciseInputRef={c.exerciseInput}
+          exerciseInputRef={exerciseInput}
           onKind={(kind) => dispatch({ type: 'set-kind', kind })}
           onExercise={(exercise) => dispatch({ type: 'set-exercise', exercise })}
           onEdge={(edge) => selectedSegment && dispatch({ type: 'select', selection: { type: 'segment', id: selectedSegment.id, edge } })}

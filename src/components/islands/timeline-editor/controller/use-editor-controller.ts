@@ -20,6 +20,7 @@ import type { MediaTimelineHandle } from '../MediaTimeline';
 import { runCommand, ZOOM_LEVELS, type CommandArgs, type CommandContext } from './editor-commands';
 import { useEditorKeys } from './use-editor-keys';
 import { useTimelineSave } from './use-timeline-save';
+import { useLatest } from '../../use-latest';
 
 /** The media length the editor works over: the recording's, else the class's, else the marks'. */
 function mediaSecondsOf(data: EditorData): number {
@@ -47,8 +48,7 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
   useEffect(() => onPlanSaved(lessonId, (saved) => setPlan(saved.plan)), [lessonId]);
   const mediaSeconds = useMemo(() => mediaSecondsOf(data), [data]);
   const [state, dispatch] = useReducer(editorReducer, undefined, () => initialEditorState(data.timeline, mediaSeconds));
-  const stateRef = useRef(state);
-  stateRef.current = state;
+  const stateRef = useLatest(state);
   const [playhead] = useState(createPlayheadStore);
   const media = useRef<MediaTimelineHandle>(null);
   const rootRef = useRef<HTMLDivElement>(null);
@@ -89,8 +89,7 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
     save: () => void saving.save(),
   };
   const run = (command: ShortcutCommand, args?: CommandArgs) => runCommand(context, command, args);
-  const runRef = useRef(run);
-  runRef.current = run;
+  const runRef = useLatest(run);
   useEditorKeys(rootRef, runRef);
 
   const onEdgeDragged = useCallback(
@@ -123,12 +122,12 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
     const seg = stateRef.current.timeline.segments.find((s) => s.id === id);
     dispatch({ type: 'select', selection: { type: 'segment', id, edge: null } });
     if (seg) seek(seg.startSeconds);
-  }, []);
+  }, [stateRef]);
   const onPickCue = useCallback((id: string) => {
     const cue = stateRef.current.timeline.cues.find((c) => c.id === id);
     dispatch({ type: 'select', selection: { type: 'cue', id } });
     if (cue) seek(cue.atSeconds);
-  }, []);
+  }, [stateRef]);
   const onZoomStep = useCallback((d: 1 | -1) => setZoomIndex((i) => Math.max(0, Math.min(ZOOM_LEVELS.length - 1, i + d))), []);
 
   const sel = state.selection;
@@ -166,3 +165,5 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
 }
 
 export type EditorController = ReturnType<typeof useEditorController>;
+/** What the layout hands to its parts: the controller without its element refs. */
+export type EditorView = Omit<EditorController, 'rootRef' | 'media' | 'exerciseInput'>;

@@ -7,6 +7,7 @@ import { timelinePutSchema, type Timeline } from '~/lib/timeline/timeline-schema
 import { canonicalJson, type EditorAction } from '~/lib/editor/editor-state';
 import { clearDraft, readDraft, writeDraft, type StoredDraft } from '~/lib/editor/local-draft';
 import { loadTimeline, saveTimeline } from '../editor-api';
+import { useLatest } from '../../use-latest';
 
 export type SaveState =
   | { status: 'idle' }
@@ -22,8 +23,7 @@ export interface Conflict {
 
 export function useTimelineSave(lessonId: string, initial: { version: number; timeline: Timeline }, current: Timeline, dispatch: Dispatch<EditorAction>) {
   const versionRef = useRef(initial.version);
-  const currentRef = useRef(current);
-  currentRef.current = current;
+  const currentRef = useLatest(current);
   const [savedCanon, setSavedCanon] = useState(() => canonicalJson(initial.timeline));
   const [saveState, setSaveState] = useState<SaveState>({ status: 'idle' });
   const [conflict, setConflict] = useState<Conflict | null>(null);

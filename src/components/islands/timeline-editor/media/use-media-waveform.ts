@@ -3,7 +3,7 @@
  * media, so nothing is downloaded or decoded twice. Rebuilt only when the recording changes;
  * regions follow the timeline through a RegionSync.
  */
-import { useEffect, useRef, useState, type RefObject } from 'react';
+import { useCallback, useEffect, useRef, useState, type RefObject } from 'react';
 import WaveSurfer from 'wavesurfer.js';
 import RegionsPlugin from 'wavesurfer.js/dist/plugins/regions.esm.js';
 import TimelinePlugin from 'wavesurfer.js/dist/plugins/timeline.esm.js';
@@ -15,6 +15,7 @@ import type { PlayheadStore } from '../playhead-store';
 import { attachHls } from './attach-hls';
 import { CUE_PREFIX, envelope } from './region-elements';
 import { createRegionSync } from './region-sync';
+import { useLatest } from '../../use-latest';
 
 /** What the waveform reads on every event (kept in a ref so handlers see the latest). */
 export interface WaveformInputs {
@@ -39,26 +40,30 @@ interface Elements {
 }
 
 export function useMediaWaveform(inputs: WaveformInputs, elements: Elements, altHeld: RefObject<boolean>) {
-  const inputsRef = useRef(inputs);
-  inputsRef.current = inputs;
+  const inputsRef = useLatest(inputs);
   const wsRef = useRef<WaveSurfer | null>(null);
   const regionsRef = useRef<ReturnType<typeof RegionsPlugin.create> | null>(null);
   const readyRef = useRef(false);
   const [regionSync] = useState(createRegionSync);
 
-  const syncRegions = (force = false) => {
-    const regions = regionsRef.current;
-    if (!regions || !readyRef.current) return;
-    regionSync.sync(regions, inputsRef.current.timeline, inputsRef.current.selection, force);
-  };
+  // Both read only refs, so they stay the same function for the waveform's whole life.
+  const syncRegions = useCallback(
+    (force = false) => {
+      const regions = regionsRef.current;
+      if (!regions || !readyRef.current) return;
+      regionSync.sync(regions, inputsRef.current.timeline, inputsRef.current.selection, force);
+    },
+    [regionSync, inputsRef],
+  );
 
-  const applyZoom = () => {
+  const wave = elements.wave;
+  const applyZoom = useCallback(() => {
     const ws = wsRef.current;
     if (!ws || !readyRef.current) return;
     const { zoom, duration } = inputsRef.current;
-    const fit = (elements.wave.current?.clientWidth ?? 800) / Math.max(1, duration);
+    const fit = (wave.current?.clientWidth ?? 800) / Math.max(1, duration);
     ws.zoom(zoom > 0 ? Math.max(zoom, fit) : fit);
-  };
+  }, [wave, inputsRef]);
 
   useEffect(() => {
     let cancelled = false;
@@ -149,9 +154,9 @@ export function useMediaWaveform(inputs: WaveformInputs, elements: Elements, alt
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [inputs.playlistUrl, inputs.peaks, inputs.duration]);
 
-  useEffect(() => syncRegions(), [inputs.timeline]);
+  useEffect(() => syncRegions(), [inputs.timeline, syncRegions]);
   useEffect(() => regionSync.showSelection(inputs.selection), [inputs.selection, regionSync]);
-  useEffect(() => applyZoom(), [inputs.zoom]);
+  useEffect(() => applyZoom(), [inputs.zoom, applyZoom]);
 
   return wsRef;
 }
