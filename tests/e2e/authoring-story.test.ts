@@ -5,7 +5,7 @@
 // Screenshots go to test-results/screenshots/authoring-*.png.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { ApiClient, BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
+import { type ApiClient, BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
 
 let browser: Browser;

@@ -1,7 +1,7 @@
 // Plan templates and copying a plan between classes, against the real app and PostgreSQL.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
-import { ApiClient, DEMO, signedIn } from '../helpers/api-client';
+import { type ApiClient, DEMO, signedIn } from '../helpers/api-client';
 import { createAppDeps } from '~/server/app';
 import { lessons, planTemplates, studios, users } from '~/db/schema';
 

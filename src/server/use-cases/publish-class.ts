@@ -1,4 +1,4 @@
-import { and, eq, isNotNull, lte, sql } from 'drizzle-orm';
+import { and, isNotNull, lte, sql } from 'drizzle-orm';
 import { lessons } from '~/db/schema';
 import { gateRefusal } from '~/lib/publishing/publish-gate';
 import { AppError } from '../errors';

@@ -38,10 +38,13 @@ function Builder({ lessonId, advertisedMinutes, data }: PlanBuilderProps & { dat
   const listId = useId();
   const [library, setLibrary] = useState(data.exercises);
   const known = useMemo(() => new Set(library.map((n) => n.toLowerCase())), [library]);
-  useEffect(() => {
+  // Names a save added join the list at once; adjusted while rendering, as React recommends, not in an effect.
+  const [seenSave, setSeenSave] = useState(d.saveState);
+  if (seenSave !== d.saveState) {
     const s = d.saveState;
+    setSeenSave(s);
     if (s.status === 'saved' && s.added.length > 0) setLibrary((l) => [...new Set([...l, ...s.added])].sort());
-  }, [d.saveState]);
+  }
   const listRef = useRef<HTMLOListElement>(null);
   const [drag, setDrag] = useState<{ from: number; to: number } | null>(null);
   // Pointer dragging (mouse, pen and touch alike): the block under the pointer is where it lands.
