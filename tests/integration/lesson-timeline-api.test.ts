@@ -159,6 +159,24 @@ describe('import and export', () => {
     }
   });
 
+  it('neutralises spreadsheet formulas in the CSV export and reads them back as written (OWASP "CSV Injection")', async () => {
+    const base = tabataTimeline();
+    const timeline = { segments: base.segments.map((seg, i) => (i === 0 ? { ...seg, title: '@SUM(1+1)' } : seg)), cues: [] as unknown[] };
+    timeline.cues = [{ id: 'f1', atSeconds: 1, kind: 'note', text: '=HYPERLINK("http://evil.example","Form tips")' }];
+    const v = (await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json()).version;
+    expect((await coach.put(`/api/lessons/${lessonId}/timeline`, { version: v, ...timeline })).status).toBe(200);
+    const csv = await (await coach.get(`/api/lessons/${lessonId}/timeline/export?format=csv`)).text();
+    expect(csv).toContain(`"'=HYPERLINK(""http://evil.example"",""Form tips"")"`);
+    expect(csv).toContain(`'@SUM(1+1)`);
+    // No cell starts with a formula character (cells split naively: none of these holds a comma).
+    for (const line of csv.trim().split('\r\n')) for (const cell of line.split(',')) expect(cell.replace(/^"/, '')).not.toMatch(/^[=+\-@\t\r]/);
+    const current = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
+    expect((await coach.request('POST', `/api/lessons/${lessonId}/timeline/import?version=${current.version}&format=csv`, csv)).status).toBe(200);
+    const after = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
+    expect(after.cues[0].text).toBe('=HYPERLINK("http://evil.example","Form tips")');
+    expect(after.segments.find((s: { id: string }) => s.id === timeline.segments[0]!.id).title).toBe('@SUM(1+1)');
+  });
+
   it('names the line of a bad CSV row and imports nothing', async () => {
     const current = await (await coach.get(`/api/lessons/${lessonId}/timeline`)).json();
     const csv = 'type,id,kind,start,end,exercise,round,set,title,text\nsegment,x1,work,0:00.000,0:20.000,,,,,\nsegment,x2,jog,0:20.000,0:30.000,,,,,\n';

@@ -1,8 +1,10 @@
 /**
- * A small RFC 4180 CSV reader and writer (comma separator, double-quote quoting, quotes
- * doubled inside quoted fields, CRLF or LF line ends). Hand-written to keep the domain free
+ * A small RFC 4180 CSV reader (comma separator, double-quote quoting, quotes doubled inside
+ * quoted fields, CRLF or LF line ends); the writer is ../csv/csv-writer.ts. Hand-written to keep the domain free
  * of dependencies; each record carries the line number where it starts, for error messages.
  */
+
+import { restoreFormulaText } from '../csv/csv-writer';
 
 export interface CsvRecord {
   /** 1-based line number where the record starts. */
@@ -72,17 +74,11 @@ export function readCsv(text: string): CsvReadResult {
     }
     if (quoted) return { ok: false, errors: [{ line: startLine, message: 'A quoted field is never closed. Add the closing quote.' }] };
     fields.push(field);
-    if (!(fields.length === 1 && fields[0] === '')) records.push({ line: startLine, fields });
+    // Fields our writer neutralised against spreadsheet formulas come back as they were.
+    if (!(fields.length === 1 && fields[0] === '')) records.push({ line: startLine, fields: fields.map(restoreFormulaText) });
   }
   return { ok: true, records };
 }
 
-/** Quotes a field when it holds a comma, quote, line break or outer spaces. */
-export function csvField(value: string): string {
-  return /[",\r\n]|^\s|\s$/.test(value) ? `"${value.replace(/"/g, '""')}"` : value;
-}
-
-/** Writes records with CRLF line ends, as RFC 4180 specifies. */
-export function writeCsv(rows: readonly (readonly string[])[]): string {
-  return rows.map((r) => r.map(csvField).join(',')).join('\r\n') + '\r\n';
-}
+// Writing goes through the app's one CSV writer (formula neutralising included).
+export { csvField, writeCsv } from '../csv/csv-writer';
