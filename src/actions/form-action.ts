@@ -11,7 +11,7 @@ export type FormOutcome<T> =
   | { ok: false; code: ErrorCode; message: string; fields: Record<string, string>; values: Record<string, string> };
 
 // Never echoed back into a page.
-const SECRET = /password|token/i;
+const SECRET = /password/i;
 
 /** The posted text fields (secrets left out), so a refused form keeps what the person typed. */
 function echo(form: FormData): Record<string, string> {

@@ -166,7 +166,8 @@ describe('staff invitations', () => {
     expect(html).toContain('href="/studio/team"');
     const email = freshEmail('form');
     const since = new Date();
-    const sent = await postForm(owner, '/studio/team', { action: 'invite', email, role: 'coach' });
+    // The form's own target: the team page's Astro Action (src/actions/studio-actions.ts).
+    const sent = await postForm(owner, '/studio/team?_action=inviteToTeam', { email, role: 'coach' });
     expect(sent.status).toBe(303);
     await waitForMessage(email, { since });
   });

@@ -14,6 +14,10 @@ import { schedulePublish } from '~/server/use-cases/schedule-publish';
 import { archiveClass, unpublishClass } from '~/server/use-cases/withdraw-class';
 import { planSchema } from '~/lib/plan/plan-schema';
 import { SMALL_PLAN } from '../helpers/published-class';
+import { billingDeps } from '~/server/payments/billing-deps';
+import { inviteToTeam, withdrawInvitation } from '~/server/use-cases/team';
+import { createPromo, setPromoCodeActive, updateMembershipSettings } from '~/server/use-cases/studio-billing';
+import { confirmCheckout } from '~/server/use-cases/confirm-checkout';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);
 let studioId = '';
@@ -37,6 +41,8 @@ afterAll(async () => {
   await deps.pool.end();
 });
 
+// Billing use cases take the payment client too; built on first use (tests run against the payments fake).
+const billing = () => ({ ...deps, stripe: billingDeps().stripe });
 const as = (role: Role): Actor => ({ userId, studioId, roles: [role] });
 const soon = () => new Date(Date.now() + 3600_000);
 
@@ -51,6 +57,12 @@ const writes: [string, Role[], (actor: Actor) => Promise<unknown>][] = [
   ['schedulePublish', ['coach', 'editor', 'member'], (a) => schedulePublish(a, deps, { lessonId: lesson.id, at: soon(), acknowledgeWarnings: true })],
   ['unpublishClass', ['editor', 'member'], (a) => unpublishClass(a, deps, { lessonId: lesson.id })],
   ['archiveClass', ['editor', 'member'], (a) => archiveClass(a, deps, { lessonId: lesson.id })],
+  ['inviteToTeam', ['coach', 'editor', 'member'], (a) => inviteToTeam(a, deps, { email: 'refused@members.example', role: 'coach' })],
+  ['withdrawInvitation', ['coach', 'editor', 'member'], (a) => withdrawInvitation(a, deps, { id: '00000000-0000-4000-8000-000000000000' })],
+  ['updateMembershipSettings', ['coach', 'editor', 'member'], (a) => updateMembershipSettings(a, billing(), { monthlyPriceMinor: 1, trialDays: 0, pastDueGraceDays: 0, version: null })],
+  ['createPromo', ['coach', 'editor', 'member'], (a) => createPromo(a, billing(), { code: 'REFUSED', percentOff: 10, expiresAt: null })],
+  ['setPromoCodeActive', ['coach', 'editor', 'member'], (a) => setPromoCodeActive(a, billing(), { id: '00000000-0000-4000-8000-000000000000', active: false })],
+  ['confirmCheckout', ['owner', 'coach', 'editor'], (a) => confirmCheckout(a, billing())],
 ];
 
 const cases = writes.flatMap(([name, refused, call]) => refused.map((role) => [name, role, call] as const));

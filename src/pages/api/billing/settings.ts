@@ -2,9 +2,10 @@ import type { APIRoute } from 'astro';
 import { billingSettingsInput } from '~/lib/api/billing-schemas';
 import { app } from '~/server/app';
 import { endpoint, json, readJson } from '~/server/http/api';
-import { requireCan } from '~/server/http/guards';
+import { requireActor, requireCan } from '~/server/http/guards';
 import { billingDeps } from '~/server/payments/billing-deps';
-import { getBillingSettings, updateBillingSettings } from '~/server/services/billing';
+import { getBillingSettings } from '~/server/services/billing';
+import { updateMembershipSettings } from '~/server/use-cases/studio-billing';
 
 export const GET: APIRoute = endpoint(async ({ locals }) => {
   const { studio } = requireCan(locals, 'billing.manage');
@@ -12,7 +13,7 @@ export const GET: APIRoute = endpoint(async ({ locals }) => {
 });
 
 export const PUT: APIRoute = endpoint(async ({ locals, request }) => {
-  const { studio } = requireCan(locals, 'billing.manage');
+  const actor = requireActor(locals);
   const input = await readJson(request, billingSettingsInput);
-  return json(await updateBillingSettings(billingDeps(), studio.studioId, input));
+  return json(await updateMembershipSettings(actor, billingDeps(), input));
 });

@@ -2,8 +2,9 @@ import type { APIRoute } from 'astro';
 import { createInvitationInput } from '~/lib/api/mail-schemas';
 import { app } from '~/server/app';
 import { endpoint, json, readJson } from '~/server/http/api';
-import { requireCan } from '~/server/http/guards';
-import { inviteStaff, teamOverview } from '~/server/services/invitations';
+import { requireActor, requireCan } from '~/server/http/guards';
+import { teamOverview } from '~/server/services/invitations';
+import { inviteToTeam } from '~/server/use-cases/team';
 
 const view = (i: { id: string; email: string; role: string; expiresAt: Date; createdAt: Date }) => ({
   id: i.id,
@@ -22,7 +23,7 @@ export const GET: APIRoute = endpoint(async ({ locals }) => {
 
 /** Invites a coach or an editor by e-mail (owner); the e-mail goes out before this answers. */
 export const POST: APIRoute = endpoint(async ({ locals, request }) => {
-  const { studio, user } = requireCan(locals, 'team.manage');
-  const inv = await inviteStaff(app(), studio.studioId, user.id, await readJson(request, createInvitationInput));
+  const actor = requireActor(locals);
+  const inv = await inviteToTeam(actor, app(), await readJson(request, createInvitationInput));
   return json(view(inv), 201);
 });

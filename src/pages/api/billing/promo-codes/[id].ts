@@ -1,13 +1,13 @@
 import type { APIRoute } from 'astro';
 import { promoPatchInput } from '~/lib/api/billing-schemas';
 import { endpoint, json, readJson } from '~/server/http/api';
-import { requireCan } from '~/server/http/guards';
+import { requireActor } from '~/server/http/guards';
 import { billingDeps } from '~/server/payments/billing-deps';
-import { setPromoActive } from '~/server/services/billing';
+import { setPromoCodeActive } from '~/server/use-cases/studio-billing';
 
 /** Deactivates (or reactivates) a promo code. */
 export const PATCH: APIRoute = endpoint(async ({ locals, params, request }) => {
-  const { studio } = requireCan(locals, 'billing.manage');
+  const actor = requireActor(locals);
   const { active } = await readJson(request, promoPatchInput);
-  return json(await setPromoActive(billingDeps(), studio.studioId, params.id!, active));
+  return json(await setPromoCodeActive(actor, billingDeps(), { id: params.id!, active }));
 });

@@ -2,9 +2,10 @@ import type { APIRoute } from 'astro';
 import { promoCreateInput } from '~/lib/api/billing-schemas';
 import { app } from '~/server/app';
 import { endpoint, json, readJson } from '~/server/http/api';
-import { requireCan } from '~/server/http/guards';
+import { requireActor, requireCan } from '~/server/http/guards';
 import { billingDeps } from '~/server/payments/billing-deps';
-import { createPromoCode, listPromoCodes } from '~/server/services/billing';
+import { listPromoCodes } from '~/server/services/billing';
+import { createPromo } from '~/server/use-cases/studio-billing';
 
 export const GET: APIRoute = endpoint(async ({ locals }) => {
   const { studio } = requireCan(locals, 'billing.manage');
@@ -12,7 +13,7 @@ export const GET: APIRoute = endpoint(async ({ locals }) => {
 });
 
 export const POST: APIRoute = endpoint(async ({ locals, request }) => {
-  const { studio } = requireCan(locals, 'billing.manage');
+  const actor = requireActor(locals);
   const input = await readJson(request, promoCreateInput);
-  return json(await createPromoCode(billingDeps(), studio.studioId, input), 201);
+  return json(await createPromo(actor, billingDeps(), input), 201);
 });
