@@ -16,10 +16,15 @@ bash docker-free-dev/build-if-stale.sh
 
 export HOST=127.0.0.1 PORT="$ROUNDMARK_APP_PORT" NODE_ENV=production
 export ROUNDMARK_MAIL_PREVIEW=1 # local only: the owner's /studio/mail page lists what the mail fake caught; production never sets it
-# The job worker runs beside the server and stops with it.
-npx tsx src/worker.ts >"$RUN/worker.log" 2>&1 &
-worker=$!
-trap 'kill $worker 2>/dev/null; wait $worker 2>/dev/null' EXIT INT TERM
+# Job workers run beside the server and stop with it: ROUNDMARK_WORKERS of them (default 1), each
+# taking ROUNDMARK_MEDIA_CONCURRENCY media jobs at a time; ROUNDMARK_APP_PROCESSES web processes share the port.
+workers=()
+for ((i = 1; i <= ${ROUNDMARK_WORKERS:-1}; i++)); do
+  log="$RUN/worker.log"; [ "$i" = 1 ] || log="$RUN/worker-$i.log"
+  npx tsx src/worker.ts >"$log" 2>&1 &
+  workers+=($!)
+done
+trap 'kill "${workers[@]}" 2>/dev/null; wait "${workers[@]}" 2>/dev/null' EXIT INT TERM
 say "Roundmark is starting on $PUBLIC_BASE_URL (demo accounts in README.md); the job worker logs to .data/run/worker.log."
 say "Ctrl+C stops the app and the worker; 'npm run services -- down' stops the services."
 node --import tsx src/serve.ts

@@ -36,6 +36,10 @@ const envSchema = z.object({
    * ranges, or proxy-addr's names (loopback, linklocal, uniquelocal). Empty: the socket's address
    * is the client's, and X-Forwarded-For is ignored.
    */
+  /** Web server processes sharing the port (node:cluster); 1 serves from the process itself. */
+  ROUNDMARK_APP_PROCESSES: z.coerce.number().int().min(1).max(64).default(1),
+  /** Media jobs (probe, package) one worker process runs at the same time. */
+  ROUNDMARK_MEDIA_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
   TRUSTED_PROXIES: z
     .string()
     .default('')
