@@ -38,7 +38,14 @@ const ctx: JobContext = {
   },
 };
 
+/** Queues whose jobs run ffmpeg: each gets ROUNDMARK_MEDIA_CONCURRENCY pollers (pg-boss 10 runs one job per poller). */
+const isMediaQueue = (name: JobName) => name.startsWith('recording.');
 for (const name of JOB_NAMES) {
+  const pollers = isMediaQueue(name) ? env().ROUNDMARK_MEDIA_CONCURRENCY : 1;
+  for (let i = 0; i < pollers; i++) await work(name);
+}
+
+async function work(name: JobName) {
   await boss.work(name, { batchSize: 1, pollingIntervalSeconds: 1 }, async ([job]) => {
     if (!job) return;
     const started = Date.now();
