@@ -16,7 +16,8 @@ export default defineConfig({
     projects: [
       {
         resolve: { alias },
-        test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', setupFiles: ['tests/unit/fast-check-setup.ts'], sequence: { groupOrder: 0 } },
+        // Property tests run hundreds of cases: on a busy 2-core machine 5 s is not enough.
+        test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', setupFiles: ['tests/unit/fast-check-setup.ts'], sequence: { groupOrder: 0 }, testTimeout: 60_000 },
       },
       {
         resolve: { alias },
