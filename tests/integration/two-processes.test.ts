@@ -102,7 +102,7 @@ describe('two web processes and two workers on one database', () => {
     // Keep a worker under the pid file for the tests that follow.
     if (victim === firstPid) startWorker();
     else secondWorker = spawnLogged(['src/worker.ts'], { ROUNDMARK_STALE_SECONDS: '8' }, 'worker-2.log');
-  });
+  }, 420_000); // packaging a minute of 720p twice on a busy 2-core machine: states are awaited, this only bounds it
 });
 
 /** Running ffmpeg processes by parent pid (Linux /proc). */
