@@ -20,7 +20,7 @@ import { clientAddressOf, markAddressesResolved, trustProxies } from './server/h
 
 type NodeHandler = (req: http.IncomingMessage, res: http.ServerResponse) => void;
 
-const processes = env().ROUNDMARK_APP_PROCESSES;
+const processes = settings().ROUNDMARK_APP_PROCESSES;
 if (processes > 1 && cluster.isPrimary) {
   // The primary only keeps the serving processes running; a crashed one is replaced.
   let stopping = false;

@@ -41,7 +41,7 @@ const ctx: JobContext = {
 /** Queues whose jobs run ffmpeg: each gets ROUNDMARK_MEDIA_CONCURRENCY pollers (pg-boss 10 runs one job per poller). */
 const isMediaQueue = (name: JobName) => name.startsWith('recording.');
 for (const name of JOB_NAMES) {
-  const pollers = isMediaQueue(name) ? env().ROUNDMARK_MEDIA_CONCURRENCY : 1;
+  const pollers = isMediaQueue(name) ? settings().ROUNDMARK_MEDIA_CONCURRENCY : 1;
   for (let i = 0; i < pollers; i++) await work(name);
 }
 

@@ -36,10 +36,6 @@ const envSchema = z.object({
    * ranges, or proxy-addr's names (loopback, linklocal, uniquelocal). Empty: the socket's address
    * is the client's, and X-Forwarded-For is ignored.
    */
-  /** Web server processes sharing the port (node:cluster); 1 serves from the process itself. */
-  ROUNDMARK_APP_PROCESSES: z.coerce.number().int().min(1).max(64).default(1),
-  /** Media jobs (probe, package) one worker process runs at the same time. */
-  ROUNDMARK_MEDIA_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
   TRUSTED_PROXIES: z
     .string()
     .default('')
@@ -108,6 +104,10 @@ const settingsSchema = z.object({
   ROUNDMARK_DEMO_MEDIA: z.string().optional().transform((v) => v !== '0'),
   /** src/serve.ts: where the build is, where to listen, and an optional certificate. */
   ROUNDMARK_DIST: z.string().min(1).default('dist'),
+  /** Web server processes sharing the port (node:cluster); 1 serves from the process itself. */
+  ROUNDMARK_APP_PROCESSES: z.coerce.number().int().min(1).max(64).default(1),
+  /** Media jobs (probe, package) one worker process runs at the same time. */
+  ROUNDMARK_MEDIA_CONCURRENCY: z.coerce.number().int().min(1).max(16).default(1),
   HOST: z.string().min(1).default('127.0.0.1'),
   PORT: z.coerce.number().int().min(1).max(65535).default(4321),
   SERVER_CERT_PATH: z.string().min(1).optional(),
