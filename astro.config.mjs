@@ -22,7 +22,7 @@ export default defineConfig({
   vite: {
     plugins: [tailwindcss()],
     // Native modules and server-only packages are loaded by Node, not bundled.
-    ssr: { external: ['@node-rs/argon2', 'pg-boss', 'fluent-ffmpeg', 'pg', 'nodemailer', 'stripe'] },
+    ssr: { external: ['@node-rs/argon2', 'pg-boss', 'pg', 'nodemailer', 'stripe'] },
     optimizeDeps: { exclude: ['@node-rs/argon2'] },
   },
 });

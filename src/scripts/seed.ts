@@ -1,7 +1,7 @@
-import { and, eq, inArray, ne, sql } from 'drizzle-orm';
+import { and, eq, inArray, notInArray, sql } from 'drizzle-orm';
 import { generateIdFromEntropySize } from 'lucia';
 import { exercises, lessons, memberships, recordings, studios, users } from '../db/schema';
-import { sendJob, startQueue } from '../server/queue';
+import { startQueue } from '../server/queue';
 import { planSchema } from '../lib/plan/plan-schema';
 import { expandPlan } from '../lib/plan/expand-plan';
 import { putTimeline } from '../server/services/timelines';
@@ -11,6 +11,7 @@ import { hashPassword } from '../server/auth/passwords';
 import { env, settings } from '../server/env';
 import * as demo from './demo/fernhill';
 import { seedBilling } from './demo/demo-billing';
+import { queueDemoRecording } from './demo/demo-recording-job';
 
 /**
  * Loads the demo scenario. Idempotent: it only adds what is missing and never changes or removes
@@ -82,8 +83,8 @@ if (settings().ROUNDMARK_DEMO_MEDIA) {
     .from(lessons)
     .where(and(eq(lessons.studioId, studio.id), inArray(lessons.slug, demo.lessons.map((l) => l.slug))));
   for (const l of demoLessons) {
-    const has = await db.select({ id: recordings.id }).from(recordings).where(and(eq(recordings.lessonId, l.id), ne(recordings.state, 'failed')));
-    if (has.length === 0) await sendJob(boss, 'recording.demo', { lessonId: l.id }, `recording.demo:${l.id}`);
+    const has = await db.select({ id: recordings.id }).from(recordings).where(and(eq(recordings.lessonId, l.id), notInArray(recordings.state, ['failed', 'cancelled'])));
+    if (has.length === 0) await queueDemoRecording(boss, l.id);
   }
   await boss.stop({ graceful: true, wait: true });
   console.log('demo recordings are being generated in the background; the class pages show their progress');

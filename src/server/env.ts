@@ -88,12 +88,12 @@ const settingsSchema = z.object({
   STUDIO_SLUG: z.string().min(1).default('fernhill'),
   PUBLIC_BASE_URL: z.string().url().optional(),
   DATABASE_URL: z.string().optional(),
-  /** Program paths; the same variable names fluent-ffmpeg reads, so existing setups keep working. */
+  /** Program paths; the variable names fluent-ffmpeg used to read, so existing set-ups keep working. */
   FFMPEG_PATH: z.string().min(1).default('ffmpeg'),
   FFPROBE_PATH: z.string().min(1).default('ffprobe'),
   /** Debian's speech synthesiser, for generated coach voices in demo and test media. */
   ESPEAK_PATH: z.string().min(1).default('espeak-ng'),
-  /** A processing recording whose progress has not moved for this long lost its worker (tests shorten it). */
+  /** A running recording step whose heartbeat is older than this lost its worker (tests shorten it). */
   ROUNDMARK_STALE_SECONDS: z.coerce.number().positive().default(90),
   /** The worker's scratch folder; a folder under the system's temp folder when unset. */
   ROUNDMARK_WORK_DIR: z.string().min(1).optional(),
@@ -102,6 +102,11 @@ const settingsSchema = z.object({
   ROUNDMARK_MAIL_DIR: z.string().min(1).default('.data/mail'),
   /** `0` seeds without generating demo recordings (npm test makes its own small media). */
   ROUNDMARK_DEMO_MEDIA: z.string().optional().transform((v) => v !== '0'),
+  /** Demo data (the invented scenario): the worker then also generates demo recordings. Local set-ups and tests only. */
+  DEMO_DATA: z
+    .enum(['true', 'false'])
+    .default('false')
+    .transform((v) => v === 'true'),
   /** src/serve.ts: where the build is, where to listen, and an optional certificate. */
   ROUNDMARK_DIST: z.string().min(1).default('dist'),
   /** Web server processes sharing the port (node:cluster); 1 serves from the process itself. */

@@ -7,7 +7,6 @@ import PgBoss from 'pg-boss';
 export interface JobPayloads {
   'recording.probe': { recordingId: string };
   'recording.package': { recordingId: string };
-  'recording.demo': { lessonId: string };
   'uploads.cleanup': Record<string, never>;
   'lessons.publish-due': Record<string, never>;
   'version.thumbnails': { versionId: string };
@@ -18,7 +17,6 @@ export type JobName = keyof JobPayloads;
 export const JOB_NAMES: JobName[] = [
   'recording.probe',
   'recording.package',
-  'recording.demo',
   'uploads.cleanup',
   'lessons.publish-due',
   'version.thumbnails',
@@ -31,7 +29,6 @@ export const JOB_NAMES: JobName[] = [
 const QUEUE_OPTIONS: Record<JobName, PgBoss.Queue> = {
   'recording.probe': { name: 'recording.probe', retryLimit: 3, retryDelay: 10, retryBackoff: true, expireInSeconds: 600 },
   'recording.package': { name: 'recording.package', retryLimit: 3, retryDelay: 30, retryBackoff: true, expireInSeconds: 4 * 3600 },
-  'recording.demo': { name: 'recording.demo', retryLimit: 2, retryDelay: 30, retryBackoff: true, expireInSeconds: 4 * 3600 },
   'uploads.cleanup': { name: 'uploads.cleanup', retryLimit: 1, expireInSeconds: 600 },
   'lessons.publish-due': { name: 'lessons.publish-due', retryLimit: 1, expireInSeconds: 300 },
   'version.thumbnails': { name: 'version.thumbnails', retryLimit: 3, retryDelay: 20, retryBackoff: true, expireInSeconds: 3600 },
@@ -52,6 +49,20 @@ export async function startQueue(databaseUrl: string): Promise<PgBoss> {
 /** Sends a typed job; one job per key at a time, so a double click queues one. */
 export async function sendJob<N extends JobName>(boss: PgBoss, name: N, data: JobPayloads[N], key?: string): Promise<string | null> {
   return boss.send(name, data, key ? { singletonKey: key, singletonSeconds: 60 } : {});
+}
+
+/**
+ * Whether a job for this recording waits in the queue or runs (pg-boss keeps jobs in its own
+ * schema on the app database; states created/retry/active). Lets recovery tell a step that only
+ * waits its turn from one whose job was lost.
+ */
+export async function hasPendingRecordingJob(boss: PgBoss, name: JobName, recordingId: string): Promise<boolean> {
+  const db = boss.getDb();
+  const result = (await db.executeSql(
+    `select 1 from pgboss.job where name = $1 and data->>'recordingId' = $2 and state in ('created', 'retry', 'active') limit 1`,
+    [name, recordingId],
+  )) as { rows: unknown[] };
+  return result.rows.length > 0;
 }
 
 let shared: Promise<PgBoss> | undefined;

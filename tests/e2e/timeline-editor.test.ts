@@ -5,7 +5,8 @@
 // 409 choice. Screenshots go to test-results/screenshots/editor-*.png.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { sendJob, startQueue } from '~/server/queue';
+import { startQueue } from '~/server/queue';
+import { queueDemoRecording } from '~/scripts/demo/demo-recording-job';
 import { encodePeaks } from '~/lib/media/peaks';
 import { type ApiClient, BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
@@ -37,7 +38,7 @@ beforeAll(async () => {
   // The demo recording through the real pipeline: generate (ffmpeg), probe, package, peaks.
   if (!(await recordingsOf(lessonId)).some((r) => r.state === 'ready')) {
     const boss = await startQueue(process.env.DATABASE_URL!);
-    await sendJob(boss, 'recording.demo', { lessonId }, `recording.demo:${lessonId}`);
+    await queueDemoRecording(boss, lessonId);
     await boss.stop({ graceful: true, wait: true });
   }
   const deadline = Date.now() + 6 * 60_000;

@@ -304,7 +304,7 @@ describe('uploading a recording on the class page', () => {
       .then(() => null, (e: { name?: string }) => e);
     expect(err?.name).toBe('NoSuchUpload');
     // The widget told the server at once: the recording shows as cancelled, not as a stalled upload.
-    await page.locator('[data-recording-id][data-state="failed"]', { hasText: 'You cancelled this upload' }).first().waitFor();
+    await page.locator('[data-recording-id][data-state="cancelled"]', { hasText: 'You cancelled this upload' }).first().waitFor();
     await page.screenshot({ path: `${SHOTS}/upload-cancelled.png`, fullPage: true });
     await context.close();
   });

@@ -1,4 +1,5 @@
-import { sendJob, startQueue } from '~/server/queue';
+import { startQueue } from '~/server/queue';
+import { queueDemoRecording } from '~/scripts/demo/demo-recording-job';
 import { DEMO, signedIn } from './api-client';
 
 /**
@@ -12,7 +13,7 @@ export async function ensureDeskBreakPublished(): Promise<{ id: string; slug: st
   if (desk.state === 'published') return desk;
   // The seed schedules this class to publish once its demo recording is ready.
   const boss = await startQueue(process.env.DATABASE_URL!);
-  await sendJob(boss, 'recording.demo', { lessonId: desk.id }, `recording.demo:${desk.id}`);
+  await queueDemoRecording(boss, desk.id);
   await boss.stop({ graceful: true, wait: true });
   const deadline = Date.now() + 300_000;
   for (;;) {

@@ -15,7 +15,7 @@ import { buildPackageArgs, buildPosterArgs, chooseLadder } from '~/lib/media/hls
 import { decodePeaks } from '~/lib/media/peaks';
 import { findOnsets } from '~/lib/media/onsets';
 import { probeVerdict, REASONS, WARNINGS, type ProbeSummary } from '~/lib/media/probe-verdict';
-import { buildDemoVideoArgs, drawtextFilter, DEMO_FONT_FILE } from '~/lib/media/demo-video-args';
+import { buildDemoVideoArgs, drawtextFilter, DEMO_FONT_FILE } from '~/scripts/demo/demo-video-args';
 import type { FfmpegProgress } from '~/lib/media/progress';
 import { computeFilePeaks, probeFile, readPeaks, runFfmpeg, runFfmpegCommand } from '~/server/media/ffmpeg-runner';
 

@@ -8,10 +8,11 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import HLS from 'hls-parser';
-import { ListObjectsV2Command } from '@aws-sdk/client-s3';
+import { AbortMultipartUploadCommand, ListObjectsV2Command, ListPartsCommand } from '@aws-sdk/client-s3';
 import { ApiClient, DEMO, signedIn } from '../helpers/api-client';
 import { makeClip, ffmpeg } from '../helpers/media-files';
 import { SignedUpload, uploadWhole, waitForRecording } from '../helpers/upload-flow';
+import { sendJob, startQueue } from '~/server/queue';
 import { createAppDeps } from '~/server/app';
 import { createS3 } from '~/server/storage';
 import { memberships, recordings, studios, users } from '~/db/schema';
@@ -139,7 +140,7 @@ describe('bad input', () => {
     ['a text file renamed .mp4', 'notes.mp4', REASONS.notVideo],
     ['a truncated MP4', 'truncated.mp4', REASONS.truncated],
     ['an audio-only file', 'audio-only.mp4', REASONS.noVideo],
-  ])('fails %s after upload with a reason the coach can act on, and offers a retry', async (_name, fileName, reason) => {
+  ])('fails %s after upload with a reason the coach can act on, and offers no Retry (it would fail the same way)', async (_name, fileName, reason) => {
     await writeFile(join(dir, 'notes.mp4'), 'Warm-up 4 min, then 5 stations x 40 s.\n');
     await makeClip(join(dir, 'whole.mp4'), { seconds: 12 });
     const whole = await readFile(join(dir, 'whole.mp4'));
@@ -152,7 +153,8 @@ describe('bad input', () => {
     expect(done.failureReason).toBe(reason);
     // A failed recording never replaced the current one.
     expect(done.isCurrent).toBe(false);
-    expect((await coach.post(`/api/recordings/${recordingId}/retry`)).status).toBe(200);
+    expect(done.canRetry).toBe(false);
+    expect((await coach.post(`/api/recordings/${recordingId}/retry`)).status).toBe(409);
   });
 
   it('refuses a member (403) and hides another studio’s upload (404)', async () => {
@@ -168,6 +170,60 @@ describe('bad input', () => {
     const res = await outsider.post(`/api/recordings/${rec.id}/sign`, { method: 'POST', key: 'x' });
     expect(res.status).toBe(404);
     expect((await outsider.get(`/api/recordings/${rec.id}`)).status).toBe(404);
+  });
+});
+
+describe('a cancelled upload', () => {
+  it('is cleaned up by its state, not by the words of a message', async () => {
+    // Two open multipart uploads with a part each: one the coach cancels, one that failed with
+    // exactly the sentence the clean-up used to look for (it must now be left alone).
+    const open = async (fileName: string) => {
+      const rec = await (await coach.post(`/api/lessons/${lessonId}/recordings`, { fileName, sizeBytes: 6 * MiB, contentType: 'video/mp4' })).json();
+      const up = new SignedUpload(coach, rec.id);
+      await up.create();
+      await up.putPart(1, new Uint8Array(5 * MiB));
+      return up;
+    };
+    const cancelled = await open('cancelled.mp4');
+    const lookalike = await open('lookalike.mp4');
+    // The browser never got to abort: only the server knows the upload was cancelled.
+    const answer = await (await coach.post(`/api/recordings/${cancelled.recordingId}/cancel`)).json();
+    expect(answer.state).toBe('cancelled');
+    expect(answer.canRetry).toBe(false);
+    await deps.db
+      .update(recordings)
+      .set({ state: 'failed', failureKind: 'refused', step: null, failureReason: 'You cancelled this upload. Add the file again to upload it.' })
+      .where(eq(recordings.id, lookalike.recordingId));
+
+    const boss = await startQueue(process.env.DATABASE_URL!);
+    try {
+      const jobId = await sendJob(boss, 'uploads.cleanup', {});
+      for (let i = 0; ; i++) {
+        const { rows } = await deps.pool.query<{ state: string }>('select state from pgboss.job where id = $1', [jobId]);
+        if (rows[0]?.state === 'completed') break;
+        if (rows[0]?.state === 'failed' || i > 300) throw new Error('uploads.cleanup did not complete (see test-results/worker.log)');
+        await new Promise((r) => setTimeout(r, 200));
+      }
+    } finally {
+      await boss.stop({ graceful: false });
+    }
+    // Asked of the store directly: signing is refused once an upload is no longer open.
+    const Bucket = process.env.S3_BUCKET!;
+    const parts = async (up: SignedUpload) => {
+      const [r] = await deps.db.select().from(recordings).where(eq(recordings.id, up.recordingId));
+      return s3.send(new ListPartsCommand({ Bucket, Key: r!.sourceKey, UploadId: up.uploadId })).then(
+        (res) => res.Parts?.length ?? 0,
+        (err: { name?: string }) => err.name ?? 'error',
+      );
+    };
+    // The cancelled upload's parts are gone (S3 answers NoSuchUpload) and its id is forgotten.
+    expect(await parts(cancelled)).toBe('NoSuchUpload');
+    const [row] = await deps.db.select().from(recordings).where(eq(recordings.id, cancelled.recordingId));
+    expect(row).toMatchObject({ state: 'cancelled', uploadId: null });
+    // The failed one carrying the old sentence still has its upload: nothing selected it by text.
+    expect(await parts(lookalike)).toBe(1);
+    const [other] = await deps.db.select().from(recordings).where(eq(recordings.id, lookalike.recordingId));
+    await s3.send(new AbortMultipartUploadCommand({ Bucket, Key: other!.sourceKey, UploadId: lookalike.uploadId }));
   });
 });
 

@@ -8,7 +8,7 @@ import {
   fitShortSide,
   outputFrameRate,
 } from '~/lib/media/hls-ladder';
-import { buildDemoVideoArgs, escapeFilterValue, placeDemoSpans, textColorFor } from '~/lib/media/demo-video-args';
+import { buildDemoVideoArgs, escapeFilterValue, placeDemoSpans, textColorFor } from '~/scripts/demo/demo-video-args';
 import { createProgressParser, parseClock } from '~/lib/media/progress';
 
 // Expected argument lists are written out by hand (bit rates worked on paper from the documented

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { noControlCharacters } from './text-rules';
+import { RECORDING_STATES, RECORDING_STEPS } from '../media/recording-lifecycle';
 
 /** Containers the media pipeline accepts, by file extension. */
 export const ACCEPTED_EXTENSIONS = ['mp4', 'm4v', 'mov', 'webm', 'mkv'] as const;
@@ -42,7 +43,7 @@ export const signUploadInput = z
   .meta({ id: 'SignUploadInput' });
 export type SignUploadInput = z.infer<typeof signUploadInput>;
 
-export const recordingStates = ['uploading', 'processing', 'ready', 'failed'] as const;
+export const recordingStates = RECORDING_STATES;
 
 export const recordingOutput = z
   .object({
@@ -51,7 +52,7 @@ export const recordingOutput = z
     state: z.enum(recordingStates),
     fileName: z.string(),
     sizeBytes: z.number(),
-    step: z.string().nullable(),
+    step: z.enum(RECORDING_STEPS).nullable(),
     progress: z.number(),
     failureReason: z.string().nullable(),
     warnings: z.array(z.string()),
@@ -59,7 +60,7 @@ export const recordingOutput = z
     width: z.number().nullable(),
     height: z.number().nullable(),
     isCurrent: z.boolean(),
-    canRetry: z.boolean().describe('Whether processing can be started again (failed after a finished upload).'),
+    canRetry: z.boolean().describe('Whether Retry can help: processing was interrupted on our side (not a refusal of the file).'),
     posterUrl: z.string().nullable(),
     playlistUrl: z.string().nullable(),
     peaksUrl: z.string().nullable(),

@@ -2,10 +2,20 @@
  * How each segment and cue kind looks in the timeline editor: colour (design brief palette),
  * a short text label and a pattern, so a kind never rests on colour alone.
  */
-import { KIND_COLOURS } from '../media/demo-spans';
 import type { CueKind, SegmentKind } from '../timeline/timeline-schema';
 
-export { KIND_COLOURS };
+/** Background colour per segment kind (design brief palette). */
+export const KIND_COLOURS: Record<SegmentKind, string> = {
+  work: '#E4572E',
+  rest: '#2E86AB',
+  warmup: '#F2A541',
+  cooldown: '#6C5B7B',
+  'round-break': '#8A94A6',
+  talk: '#C9C2B6',
+  intro: '#C9C2B6',
+  outro: '#C9C2B6',
+};
+
 
 /** Words shown in the editor for each segment kind. */
 export const SEGMENT_KIND_LABELS: Record<SegmentKind, string> = {

@@ -13,10 +13,17 @@ export interface JobContext {
   workDir: string;
   /** Aborted when the worker is stopping; long steps stop and the job is retried later. */
   signal: AbortSignal;
+  /** How often a running step proves its worker alive (a third of the stale limit). */
+  heartbeatSeconds: number;
   send<N extends JobName>(name: N, data: JobPayloads[N], key?: string): Promise<void>;
 }
 
 /** An explicit outcome, logged by the worker. Throwing means "retry later". */
 export type JobOutcome = { outcome: 'done' | 'skipped' | 'failed'; detail?: string };
 
-export type JobHandler<N extends JobName> = (data: JobPayloads[N], ctx: JobContext) => Promise<JobOutcome>;
+/** Which attempt this is: on the last one a handler records that its work was interrupted. */
+export interface JobAttempt {
+  last: boolean;
+}
+
+export type JobHandler<N extends JobName> = (data: JobPayloads[N], ctx: JobContext, attempt: JobAttempt) => Promise<JobOutcome>;

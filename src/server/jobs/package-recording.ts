@@ -1,15 +1,14 @@
 import { mkdir, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
-import { and, eq, isNull, lt, or, sql } from 'drizzle-orm';
-import { lessons, recordings } from '~/db/schema';
 import { buildPackageArgs, buildPosterArgs, chooseLadder } from '~/lib/media/hls-ladder';
 import { encodePeaks, peaksMaxDb, silentPeaks, DEFAULT_PEAKS_RATE } from '~/lib/media/peaks';
 import { SILENT_AUDIO_DB, WARNINGS } from '~/lib/media/probe-verdict';
 import { computeFilePeaks, runFfmpeg } from '../media/ffmpeg-runner';
 import { libraryChanged } from '../services/library';
 import { recordingPrefix } from '../services/recordings';
+import { applyEvent, loadRecording, markReady, reportProgress, startHeartbeat } from '../services/recording-lifecycle';
 import type { JobHandler } from './job-context';
-import { cleanScratch, ensureSource, progressReporter, recordingDir, uploadFolder } from './recording-files';
+import { cleanScratch, ensureSource, recordingDir, uploadFolder } from './recording-files';
 
 /**
  * Writes the HLS ladder, poster and peaks, uploads them under the recording's prefix, and makes
@@ -17,75 +16,64 @@ import { cleanScratch, ensureSource, progressReporter, recordingDir, uploadFolde
  * overwrites the same objects: one set of outputs, never two.
  */
 export const packageRecording: JobHandler<'recording.package'> = async ({ recordingId }, ctx) => {
-  const [rec] = await ctx.deps.db.select().from(recordings).where(eq(recordings.id, recordingId));
-  if (!rec || rec.state !== 'processing') return { outcome: 'skipped', detail: `recording is ${rec?.state ?? 'gone'}` };
-  if (!rec.durationSeconds || !rec.width || !rec.height) {
-    await ctx.send('recording.probe', { recordingId }, `recording.probe:${recordingId}:again`);
-    return { outcome: 'skipped', detail: 'not probed yet' };
+  let rec = await loadRecording(ctx.deps, recordingId);
+  if (!rec || rec.state !== 'processing' || (rec.step !== 'package' && rec.step !== 'upload-outputs')) {
+    return { outcome: 'skipped', detail: `recording is ${rec ? `${rec.state}/${rec.step}` : 'gone'}` };
   }
+  if (!rec.durationSeconds || !rec.width || !rec.height) return { outcome: 'skipped', detail: 'no probe facts' };
   const facts = { durationSeconds: rec.durationSeconds, width: rec.width, height: rec.height, frameRate: rec.frameRate ?? 30, hasAudio: !!rec.hasAudio };
   const dir = recordingDir(ctx.workDir, rec.id);
   const source = join(dir, 'source');
   const out = join(dir, 'media');
-  await cleanScratch(out); // a half-written earlier attempt must not leak into this one
-  await mkdir(join(out, 'hls'), { recursive: true });
-  const report = progressReporter(ctx.deps, rec.id, 'package');
-  await report(0, true);
-  await ensureSource(ctx.s3, ctx.bucket, rec.sourceKey, source, rec.sizeBytes, ctx.signal);
+  // The heartbeat runs on its own timer, so a long poster, peaks or upload phase is not mistaken for a dead worker.
+  const stopHeartbeat = startHeartbeat(ctx.deps, rec.id, ['package', 'upload-outputs'], ctx.heartbeatSeconds);
+  try {
+    await cleanScratch(out); // a half-written earlier attempt must not leak into this one
+    await mkdir(join(out, 'hls'), { recursive: true });
+    const step = rec.step;
+    let lastReport = 0;
+    const report = (percent: number) => {
+      if (Date.now() - lastReport < 1000) return;
+      lastReport = Date.now();
+      void reportProgress(ctx.deps, recordingId, step, percent);
+    };
+    await ensureSource(ctx.s3, ctx.bucket, rec.sourceKey, source, rec.sizeBytes, ctx.signal);
 
-  const ladder = chooseLadder(facts);
-  // The ladder takes ~90 % of the time; poster, peaks and upload the rest.
-  await runFfmpeg(buildPackageArgs({ input: source, outputDir: join(out, 'hls'), probe: facts, ladder }), {
-    durationSeconds: facts.durationSeconds,
-    signal: ctx.signal,
-    onProgress: (p) => void report(p.percent * 0.9),
-  });
-  await runFfmpeg(buildPosterArgs({ input: source, output: join(out, 'poster.jpg'), probe: facts }), { signal: ctx.signal });
-  await report(92, true);
-  const peaks = facts.hasAudio
-    ? await computeFilePeaks(source, DEFAULT_PEAKS_RATE, { durationSeconds: facts.durationSeconds, signal: ctx.signal })
-    : silentPeaks(facts.durationSeconds, DEFAULT_PEAKS_RATE);
-  await writeFile(join(out, 'peaks.bin'), encodePeaks(peaks));
-  const warnings = [...rec.warnings];
-  if (facts.hasAudio && peaksMaxDb(peaks) <= SILENT_AUDIO_DB && !warnings.includes(WARNINGS.silentAudio)) {
-    warnings.push(WARNINGS.silentAudio);
+    const ladder = chooseLadder(facts);
+    // The ladder takes ~90 % of the time; poster, peaks and upload the rest.
+    await runFfmpeg(buildPackageArgs({ input: source, outputDir: join(out, 'hls'), probe: facts, ladder }), {
+      durationSeconds: facts.durationSeconds,
+      signal: ctx.signal,
+      onProgress: (p) => report(p.percent * 0.9),
+    });
+    await runFfmpeg(buildPosterArgs({ input: source, output: join(out, 'poster.jpg'), probe: facts }), { signal: ctx.signal });
+    await reportProgress(ctx.deps, rec.id, step, 92);
+    const peaks = facts.hasAudio
+      ? await computeFilePeaks(source, DEFAULT_PEAKS_RATE, { durationSeconds: facts.durationSeconds, signal: ctx.signal })
+      : silentPeaks(facts.durationSeconds, DEFAULT_PEAKS_RATE);
+    await writeFile(join(out, 'peaks.bin'), encodePeaks(peaks));
+    const warnings = [...rec.warnings];
+    if (facts.hasAudio && peaksMaxDb(peaks) <= SILENT_AUDIO_DB && !warnings.includes(WARNINGS.silentAudio)) {
+      warnings.push(WARNINGS.silentAudio);
+    }
+    if (rec.step === 'package') {
+      if (!(await applyEvent(ctx.deps, rec, 'packaged'))) return { outcome: 'skipped', detail: 'changed meanwhile' };
+      rec = (await loadRecording(ctx.deps, rec.id))!;
+    }
+    const prefix = `${recordingPrefix(rec)}media/`;
+    await uploadFolder(ctx.s3, ctx.bucket, out, prefix, ctx.signal);
+    const ready = await markReady(ctx.deps, rec, {
+      durationSeconds: facts.durationSeconds,
+      warnings,
+      outputPrefix: prefix,
+      renditions: ladder,
+      peaksRate: DEFAULT_PEAKS_RATE,
+    });
+    if (!ready) return { outcome: 'skipped', detail: 'changed meanwhile' };
+    await libraryChanged(ctx.deps, rec.studioId); // a published class's card shows the new poster
+    await cleanScratch(dir);
+    return { outcome: 'done', detail: `${ladder.length} renditions` };
+  } finally {
+    stopHeartbeat();
   }
-  await report(95, true);
-  const prefix = `${recordingPrefix(rec)}media/`;
-  await ctx.deps.db.update(recordings).set({ step: 'upload-outputs', updatedAt: new Date() }).where(eq(recordings.id, rec.id));
-  await uploadFolder(ctx.s3, ctx.bucket, out, prefix, ctx.signal);
-
-  await ctx.deps.db.transaction(async (tx) => {
-    await tx
-      .update(recordings)
-      .set({
-        state: 'ready',
-        step: null,
-        progress: 100,
-        warnings,
-        outputPrefix: prefix,
-        renditions: ladder,
-        peaksRate: DEFAULT_PEAKS_RATE,
-        readyAt: new Date(),
-        updatedAt: new Date(),
-      })
-      .where(eq(recordings.id, rec.id));
-    // A newer upload replaces the current recording only now that it is ready (members see no gap);
-    // an older recording finishing late does not push out a newer current one.
-    await tx
-      .update(lessons)
-      .set({ currentRecordingId: rec.id, mediaSeconds: facts.durationSeconds, updatedAt: new Date() })
-      .where(
-        and(
-          eq(lessons.id, rec.lessonId),
-          or(
-            isNull(lessons.currentRecordingId),
-            lt(sql`(select created_at from recordings where id = ${lessons.currentRecordingId})`, rec.createdAt),
-          ),
-        ),
-      );
-  });
-  await libraryChanged(ctx.deps, rec.studioId); // a published class's card shows the new poster
-  await cleanScratch(dir);
-  return { outcome: 'done', detail: `${ladder.length} renditions` };
 };

@@ -4,9 +4,6 @@ import { join, relative } from 'node:path';
 import { pipeline } from 'node:stream/promises';
 import type { Readable } from 'node:stream';
 import { GetObjectCommand, PutObjectCommand, type S3Client } from '@aws-sdk/client-s3';
-import { eq } from 'drizzle-orm';
-import { recordings } from '~/db/schema';
-import type { AppDeps } from '../app';
 
 /** Local scratch folder of one recording inside the worker's work dir. */
 export const recordingDir = (workDir: string, recordingId: string) => join(workDir, recordingId);
@@ -64,20 +61,6 @@ export async function uploadFolder(s3: S3Client, bucket: string, dir: string, pr
   });
   await Promise.all(workers);
   return files;
-}
-
-/** Records the step and percent, at most once a second; the update doubles as a heartbeat. */
-export function progressReporter(deps: AppDeps, recordingId: string, step: string) {
-  let last = 0;
-  return async (percent: number, force = false) => {
-    const now = Date.now();
-    if (!force && now - last < 1000) return;
-    last = now;
-    await deps.db
-      .update(recordings)
-      .set({ step, progress: Math.round(percent * 10) / 10, updatedAt: new Date() })
-      .where(eq(recordings.id, recordingId));
-  };
 }
 
 /** Removes a recording's scratch folder. */

@@ -3,17 +3,16 @@ import type { JobHandler } from './job-context';
 import { chapterThumbnails } from './chapter-thumbnails';
 import { cleanupUploads } from './cleanup-uploads';
 import { publishDue } from './publish-due';
-import { demoRecording } from './demo-recording';
 import { packageRecording } from './package-recording';
 import { probeRecording } from './probe-recording';
+import { recordingStep } from './recording-step';
 import { mailClassPublished } from './mail-class-published';
 import { mailTrialReminders } from './mail-trial-reminders';
 
 /** One handler per job name. */
 export const JOB_HANDLERS: { [N in JobName]: JobHandler<N> } = {
-  'recording.probe': probeRecording,
-  'recording.package': packageRecording,
-  'recording.demo': demoRecording,
+  'recording.probe': recordingStep(probeRecording),
+  'recording.package': recordingStep(packageRecording),
   'uploads.cleanup': cleanupUploads,
   'lessons.publish-due': publishDue,
   'version.thumbnails': chapterThumbnails,

@@ -2,10 +2,8 @@
  * The only module that spawns ffmpeg/ffprobe. Argument lists come from the pure builders in
  * src/lib/media; this module runs them, parses `-progress` output, and reads probe JSON and PCM.
  *
- * It uses node:child_process rather than fluent-ffmpeg: fluent-ffmpeg rebuilds the argument list
- * itself (splitting values that contain spaces, see facts.md), parses progress from stderr with an
- * estimated percent, and reshapes ffprobe output; we need the exact arguments our builders pinned,
- * ffmpeg's own `-progress` figures and ffprobe's JSON as documented.
+ * It uses node:child_process, not a wrapper library: see docs/decisions/ffmpeg-runner-without-fluent-ffmpeg.md
+ * (what runs is exactly the argument list the builders return and the unit tests pin).
  */
 import { spawn } from 'node:child_process';
 import { settings } from '../env';

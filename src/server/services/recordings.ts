@@ -12,9 +12,11 @@ import { getSignedUrl } from '@aws-sdk/s3-request-presigner';
 import { lessons, recordings } from '~/db/schema';
 import { fileExtension, type CreateRecordingInput, type RecordingOutput, type SignUploadInput } from '~/lib/api/recording-schemas';
 import { AppError, notFound } from '../errors';
+import { canHappen, canRetry } from '~/lib/media/recording-lifecycle';
 import type { AppDeps } from '../app';
+import { applyEvent, bindUploadId, insertRecording, statusOf, type RecordingRow } from './recording-lifecycle';
 
-export type RecordingRow = typeof recordings.$inferSelect;
+export type { RecordingRow };
 
 /** Storage and limits a recording service needs. */
 export interface MediaDeps extends AppDeps {
@@ -52,7 +54,7 @@ export function toRecordingOutput(r: RecordingRow, currentId: string | null): Re
     width: r.width,
     height: r.height,
     isCurrent: r.id === currentId,
-    canRetry: r.state === 'failed' && !!r.uploadId && r.failureReason !== CANCELLED_REASON,
+    canRetry: canRetry(statusOf(r)),
     posterUrl: ready ? `/media/${r.id}/poster.jpg` : null,
     playlistUrl: ready ? `/media/${r.id}/hls/master.m3u8` : null,
     peaksUrl: ready ? `/media/${r.id}/peaks.bin` : null,
@@ -105,21 +107,18 @@ export async function createRecording(
   }
   const id = crypto.randomUUID();
   const ext = fileExtension(input.fileName);
-  const [row] = await deps.db
-    .insert(recordings)
-    .values({
-      id,
-      studioId,
-      lessonId,
-      createdBy: userId,
-      fileName: input.fileName,
-      contentType: input.contentType,
-      sizeBytes: input.sizeBytes,
-      sourceKey: `${recordingPrefix({ studioId, lessonId, id })}source.${ext}`,
-      step: 'upload',
-    })
-    .returning();
-  return toRecordingOutput(row!, lesson.currentRecordingId);
+  const row = await insertRecording(deps, {
+    id,
+    studioId,
+    lessonId,
+    createdBy: userId,
+    fileName: input.fileName,
+    contentType: input.contentType,
+    sizeBytes: input.sizeBytes,
+    sourceKey: `${recordingPrefix({ studioId, lessonId, id })}source.${ext}`,
+    source: 'upload',
+  });
+  return toRecordingOutput(row, lesson.currentRecordingId);
 }
 
 /**
@@ -134,7 +133,7 @@ export async function signUpload(
 ): Promise<{ url: string; key: string }> {
   const rec = await recordingOf(deps, studioId, recordingId);
   // An abort may arrive after the upload was cancelled on the server: signing it is harmless.
-  const abortingCancelled = req.method === 'DELETE' && rec.state === 'failed' && rec.uploadId === req.uploadId;
+  const abortingCancelled = req.method === 'DELETE' && rec.state === 'cancelled' && rec.uploadId === req.uploadId;
   if (rec.state !== 'uploading' && !abortingCancelled) {
     throw new AppError('conflict', 'This upload has already finished or was cancelled. Start a new upload.');
   }
@@ -153,12 +152,7 @@ export async function signUpload(
   if (rec.uploadId && rec.uploadId !== req.uploadId) throw notFound('That upload');
   if (!rec.uploadId && !abortingCancelled) {
     // Bind the upload id the store gave the browser; a second, different id is refused above.
-    const bound = await deps.db
-      .update(recordings)
-      .set({ uploadId: req.uploadId, updatedAt: new Date() })
-      .where(and(eq(recordings.id, rec.id), eq(recordings.state, 'uploading')))
-      .returning({ id: recordings.id });
-    if (!bound.length) throw notFound('That upload');
+    if (!(await bindUploadId(deps, rec.id, req.uploadId))) throw notFound('That upload');
   }
   const UploadId = req.uploadId;
   switch (req.method) {
@@ -180,14 +174,6 @@ export async function signUpload(
   }
 }
 
-/** Marks a failed recording with a reason the coach can act on. */
-export async function failRecording(deps: AppDeps, recordingId: string, reason: string): Promise<void> {
-  await deps.db
-    .update(recordings)
-    .set({ state: 'failed', failureReason: reason, step: null, updatedAt: new Date() })
-    .where(eq(recordings.id, recordingId));
-}
-
 /**
  * Called by the browser after the store completed the upload: checks the stored object (the
  * size limit is enforced on what arrived, not on what was announced) and queues processing.
@@ -204,24 +190,25 @@ export async function completeUpload(deps: MediaDeps, studioId: string, recordin
     throw new AppError('conflict', 'The upload has not finished yet: the file is not in storage. Wait for 100 %, then try again.');
   }
   if (size > deps.maxUploadBytes) {
-    await failRecording(deps, rec.id, `The file is ${humanSize(size)}; the limit is ${humanSize(deps.maxUploadBytes)}.`);
+    await applyEvent(deps, rec, 'upload-refused', { failureReason: `The file is ${humanSize(size)}; the limit is ${humanSize(deps.maxUploadBytes)}.` });
   } else if (size === 0) {
-    await failRecording(deps, rec.id, 'This file is empty (0 bytes). Check the export and upload the recording again.');
-  } else {
-    await deps.db
-      .update(recordings)
-      .set({ state: 'processing', sizeBytes: size, step: 'probe', progress: 0, updatedAt: new Date() })
-      .where(and(eq(recordings.id, rec.id), eq(recordings.state, 'uploading')));
+    await applyEvent(deps, rec, 'upload-refused', { failureReason: 'This file is empty (0 bytes). Check the export and upload the recording again.' });
+  } else if (await applyEvent(deps, rec, 'upload-finished', { sizeBytes: size })) {
     await deps.enqueue('recording.probe', rec.id);
   }
   return toRecordingOutput(await recordingOf(deps, studioId, recordingId), lesson.currentRecordingId);
 }
 
-/** Starts a failed recording's processing again from the probe. */
+/** Starts processing again from the probe, for a recording whose processing was interrupted on our side. */
 export async function retryRecording(deps: MediaDeps, studioId: string, recordingId: string): Promise<RecordingOutput> {
   const rec = await recordingOf(deps, studioId, recordingId);
-  if (rec.state !== 'failed' || !rec.uploadId || rec.failureReason === CANCELLED_REASON) {
-    throw new AppError('conflict', 'Only a recording that failed after its upload finished can be retried. Upload the file again instead.');
+  if (!canHappen('retried', statusOf(rec))) {
+    throw new AppError(
+      'conflict',
+      rec.state === 'failed'
+        ? 'Processing this file again would fail the same way. Fix what the message says, then upload the file again.'
+        : 'Only a recording whose processing was interrupted can be retried. Upload the file again instead.',
+    );
   }
   // The stored file must still be there and within the limit: a retry never skips those checks.
   const head = await deps.s3.send(new HeadObjectCommand({ Bucket: deps.bucket, Key: rec.sourceKey })).catch(() => null);
@@ -229,25 +216,19 @@ export async function retryRecording(deps: MediaDeps, studioId: string, recordin
   if (size === 0 || size > deps.maxUploadBytes) {
     throw new AppError('conflict', 'The uploaded file is missing, empty or over the size limit, so processing it again would not help. Upload the file again.');
   }
-  await deps.db
-    .update(recordings)
-    .set({ state: 'processing', step: 'probe', progress: 0, failureReason: null, updatedAt: new Date() })
-    .where(eq(recordings.id, rec.id));
-  await deps.enqueue('recording.probe', rec.id);
+  if (await applyEvent(deps, rec, 'retried')) await deps.enqueue('recording.probe', rec.id);
   const lesson = await lessonOf(deps, studioId, rec.lessonId);
   return toRecordingOutput(await recordingOf(deps, studioId, recordingId), lesson.currentRecordingId);
 }
 
-/** Why a cancelled recording failed; the clean-up job recognises it by this reason. */
-export const CANCELLED_REASON = 'You cancelled this upload. Add the file again to upload it.';
-
 /**
- * Marks an unfinished upload as cancelled. The browser aborts the multipart upload itself (a
- * signed DELETE); the clean-up job aborts it later should the browser not have managed to.
+ * Marks an unfinished upload as cancelled (its own state: the clean-up job selects by it). The
+ * browser aborts the multipart upload itself (a signed DELETE); the clean-up job aborts it later
+ * should the browser not have managed to.
  */
 export async function cancelUpload(deps: MediaDeps, studioId: string, recordingId: string): Promise<RecordingOutput> {
   const rec = await recordingOf(deps, studioId, recordingId);
-  if (rec.state === 'uploading') await failRecording(deps, rec.id, CANCELLED_REASON);
+  if (canHappen('upload-cancelled', statusOf(rec))) await applyEvent(deps, rec, 'upload-cancelled');
   const lesson = await lessonOf(deps, studioId, rec.lessonId);
   return toRecordingOutput(await recordingOf(deps, studioId, recordingId), lesson.currentRecordingId);
 }

@@ -2,6 +2,7 @@ import { useState, useSyncExternalStore } from 'react';
 import type { RecordingOutput } from '~/lib/api/recording-schemas';
 import { formatClock } from '~/lib/time/format-time';
 import {
+  CANCELLED_NOTE,
   clampPercent,
   formatDuration,
   formatResolution,
@@ -119,6 +120,7 @@ function RecordingItem({ rec, uploadingHere, onRetry }: { rec: RecordingOutput }
           )}
 
           {rec.state === 'failed' && <FailedNote rec={rec} onRetry={onRetry} />}
+          {rec.state === 'cancelled' && <p className="text-sm text-ink-soft">{CANCELLED_NOTE}</p>}
 
           {rec.warnings.length > 0 && (
             <ul className="flex flex-col gap-1 text-sm" aria-label="Things to check">

@@ -1,5 +1,6 @@
 import type { RecordingOutput } from '~/lib/api/recording-schemas';
 import { formatClock } from '~/lib/time/format-time';
+import type { RecordingStep } from '~/lib/media/recording-lifecycle';
 
 /**
  * How a recording's state reads on the class page. `stalled` is not a server state: it is an
@@ -21,21 +22,23 @@ export const STATUS_LOOKS: Record<StatusKind, StatusLook> = {
   processing: { label: 'Processing', badge: 'bg-sun/25 text-ink', bar: 'bg-sun', icon: 'gear' },
   ready: { label: 'Ready', badge: 'bg-mint/10 text-mint-deep', bar: 'bg-mint', icon: 'check' },
   failed: { label: 'Failed', badge: 'bg-error/10 text-error', bar: 'bg-error', icon: 'alert' },
+  cancelled: { label: 'Cancelled', badge: 'bg-slate/20 text-ink-soft', bar: 'bg-slate', icon: 'pause' },
   stalled: { label: 'Not finished', badge: 'bg-slate/20 text-ink-soft', bar: 'bg-slate', icon: 'pause' },
 };
 
-const STEP_NAMES: Record<string, string> = {
+const STEP_NAMES: Record<RecordingStep, string> = {
   upload: 'Uploading',
   probe: 'Checking the file',
   package: 'Preparing streams',
   'upload-outputs': 'Saving the streams',
-  generate: 'Making the demo recording',
 };
 
-/** The pipeline step in the coach's words; an unknown step shows as "Working on it". */
-export function stepName(step: string | null): string {
-  if (!step) return 'Working on it';
-  return STEP_NAMES[step] ?? 'Working on it';
+/** What the coach reads under a cancelled upload. */
+export const CANCELLED_NOTE = 'You cancelled this upload. Add the file again to upload it.';
+
+/** The pipeline step in the coach's words. */
+export function stepName(step: RecordingStep | null): string {
+  return step ? STEP_NAMES[step] : 'Working on it';
 }
 
 /** Which look a recording gets, given the recording this window is uploading (if any). */

@@ -1,17 +1,6 @@
-import type { Segment } from '../timeline/timeline-schema';
+import { KIND_COLOURS } from '~/lib/editor/segment-style';
+import type { Segment } from '~/lib/timeline/timeline-schema';
 import type { DemoSpan } from './demo-video-args';
-
-/** Background colour per segment kind (design brief palette). */
-export const KIND_COLOURS: Record<Segment['kind'], string> = {
-  work: '#E4572E',
-  rest: '#2E86AB',
-  warmup: '#F2A541',
-  cooldown: '#6C5B7B',
-  'round-break': '#8A94A6',
-  talk: '#C9C2B6',
-  intro: '#C9C2B6',
-  outro: '#C9C2B6',
-};
 
 const KIND_LABELS: Record<Segment['kind'], string> = {
   work: 'WORK',
