@@ -28,7 +28,7 @@ export async function pagesByRole(): Promise<Record<DemoRole, string[]>> {
 export const PUBLIC_PAGES = ['/', '/sign-in', '/sign-up', '/forgot-password'];
 
 /** A browser context signed in as a demo role through the sign-in form. */
-export async function signedInContext(browser: Browser, role: DemoRole, viewport: { width: number; height: number }, options: { reducedMotion?: 'reduce' } = {}): Promise<{ context: BrowserContext; page: Page }> {
+export async function signedInContext(browser: Browser, role: DemoRole, viewport: { width: number; height: number }, options: { reducedMotion?: 'reduce' | 'no-preference' } = {}): Promise<{ context: BrowserContext; page: Page }> {
   const context = await browser.newContext({ viewport, ...options });
   const page = await context.newPage();
   await page.goto(BASE() + '/sign-in');

@@ -45,6 +45,8 @@ export function IntervalClock({ clock, note }: { clock: ClockState; note: Exerci
           stroke={colour}
           strokeWidth="12"
           strokeLinecap="round"
+          // With prefers-reduced-motion the ring stands still (global.css); the digits carry the time.
+          data-clock-ring-progress
           strokeDasharray={circumference}
           strokeDashoffset={circumference * (1 - share)}
           transform="rotate(-90 64 64)"

@@ -77,7 +77,7 @@ function CircuitEditor(p: BlockEditorProps & { block: Circuit }) {
               <div className="flex flex-wrap gap-1 self-end pb-1">
                 <button type="button" className={smallButton} onClick={() => setStations(moveItem(b.stations, i, i - 1))} disabled={i === 0} aria-label={`Move station ${i + 1} up`}>↑</button>
                 <button type="button" className={smallButton} onClick={() => setStations(moveItem(b.stations, i, i + 1))} disabled={i === b.stations.length - 1} aria-label={`Move station ${i + 1} down`}>↓</button>
-                <button type="button" className={smallButton} onClick={() => setStations(duplicateItem(b.stations, i))} aria-label={`Duplicate station ${i + 1}`}>Copy</button>
+                <button type="button" className={smallButton} onClick={() => setStations(duplicateItem(b.stations, i))} aria-label={`Copy station ${i + 1}`}>Copy</button>
                 <button type="button" className={smallButton} onClick={() => setStations(removeItem(b.stations, i))} aria-label={`Remove station ${i + 1}`}>Remove</button>
               </div>
             </li>

@@ -21,7 +21,8 @@ function CheckSummary({ result }: { result: CheckResult | null }) {
           </>
         )}
       </p>
-      <div className="mt-2 max-h-64 overflow-y-auto">
+      {/* Scrolls on its own, so it takes keyboard focus to scroll without a mouse (WCAG 2.1.1). */}
+      <div className="mt-2 max-h-64 overflow-y-auto" tabIndex={0} role="region" aria-label="Work and rest per block and round">
         <table className="w-full text-sm tabular">
           <caption className="sr-only">Work and rest per block and round, marked against planned</caption>
           <thead>

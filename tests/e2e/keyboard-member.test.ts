@@ -1,0 +1,100 @@
+/**
+ * A member without a mouse: signs in, filters the library, opens a class, plays it and jumps
+ * between chapters with the keyboard only. Every stop the Tab key makes shows a visible focus
+ * indicator (WCAG 2.2 SC 2.4.7 Focus Visible).
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Browser, Locator, Page } from 'playwright-core';
+import { BASE, DEMO, DEMO_PASSWORD } from '../helpers/api-client';
+import { launchBrowser, SHOTS } from '../helpers/browser';
+import { ensureDeskBreakPublished } from '../helpers/demo-class';
+
+let browser: Browser;
+beforeAll(async () => {
+  await ensureDeskBreakPublished();
+  browser = await launchBrowser();
+}, 360_000);
+afterAll(() => browser?.close());
+
+/** What has focus, and whether it shows it (an outline or a ring). */
+const focused = (page: Page) =>
+  page.evaluate(() => {
+    const e = document.activeElement as HTMLElement | null;
+    if (!e || e === document.body) return { what: 'body', visible: false };
+    const cs = getComputedStyle(e);
+    const outline = cs.outlineStyle !== 'none' && parseFloat(cs.outlineWidth) >= 1;
+    const ring = cs.boxShadow !== 'none';
+    return { what: `${e.tagName.toLowerCase()} “${(e.getAttribute('aria-label') ?? e.textContent ?? '').trim().slice(0, 40)}”`, visible: outline || ring };
+  });
+
+/** Presses Tab until the target has focus, checking the focus is visible at every stop. */
+async function tabTo(page: Page, target: Locator, stops: string[], max = 80) {
+  for (let i = 0; i < max; i++) {
+    await page.keyboard.press('Tab');
+    const f = await focused(page);
+    stops.push(f.what);
+    expect(f.visible, `focus not visible on ${f.what}`).toBe(true);
+    if (await target.evaluate((el) => el === document.activeElement)) return;
+  }
+  throw new Error(`Tab never reached the target; stops: ${stops.slice(-10).join(' → ')}`);
+}
+
+describe('keyboard only', () => {
+  it('signs in, filters, opens a class, plays and jumps chapters without a mouse', async () => {
+    const context = await browser.newContext({ viewport: { width: 1366, height: 900 } });
+    const page = await context.newPage();
+    const stops: string[] = [];
+    await page.goto(BASE() + '/sign-in');
+    await tabTo(page, page.getByLabel('E-mail'), stops);
+    await page.keyboard.type(DEMO.member);
+    await tabTo(page, page.getByLabel('Password'), stops);
+    await page.keyboard.type(DEMO_PASSWORD);
+    await page.keyboard.press('Enter');
+    await page.waitForURL(BASE() + '/library');
+
+    await tabTo(page, page.getByLabel('Low impact'), stops);
+    await page.keyboard.press('Space');
+    await tabTo(page, page.getByLabel('Under 15 min'), stops);
+    await page.keyboard.press('Space');
+    await tabTo(page, page.getByRole('button', { name: 'Show classes' }), stops);
+    await page.keyboard.press('Enter');
+    await page.waitForURL(/impact=low/);
+    expect(await page.getByLabel('Low impact').isChecked()).toBe(true);
+
+    await tabTo(page, page.locator('[data-class-card="desk-break-mobility"] a').first(), stops);
+    await page.keyboard.press('Enter');
+    await page.waitForURL(/\/classes\/desk-break-mobility/);
+    await page.waitForFunction(() => !document.querySelector('astro-island[ssr]'));
+
+    const understand = page.getByRole('button', { name: /I understand/ });
+    if (await understand.count()) {
+      // The caution takes focus itself, so Enter answers it.
+      expect(await understand.evaluate((el) => el === document.activeElement)).toBe(true);
+      await page.keyboard.press('Enter');
+    }
+    await page.getByTestId('interval-clock').waitFor();
+    const video = page.getByTestId('class-video');
+    await video.evaluate((v: HTMLVideoElement) => {
+      v.muted = true;
+      v.pause();
+    });
+
+    // Into the chapter list, then the player's keys: K plays, N and P jump chapters.
+    await tabTo(page, page.locator('[data-chapter="1"]'), stops);
+    await page.keyboard.press('k');
+    await page.waitForFunction(() => !(document.querySelector('video') as HTMLVideoElement).paused);
+    await page.keyboard.press('k');
+    await page.waitForFunction(() => (document.querySelector('video') as HTMLVideoElement).paused);
+    const current = () => page.locator('[data-chapter][aria-current="step"]').getAttribute('data-chapter');
+    const before = Number(await current());
+    await page.keyboard.press('n');
+    await expect.poll(async () => Number(await current())).toBe(before + 1);
+    await page.keyboard.press('n');
+    await expect.poll(async () => Number(await current())).toBe(before + 2);
+    await page.keyboard.press('p');
+    await expect.poll(async () => Number(await current())).toBe(before + 1);
+    await page.screenshot({ path: `${SHOTS}/keyboard-player.png` });
+    console.log(`keyboard stops (${stops.length}): ${stops.join(' → ')}`);
+    await context.close();
+  });
+});
