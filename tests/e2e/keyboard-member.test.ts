@@ -21,10 +21,14 @@ const focused = (page: Page) =>
   page.evaluate(() => {
     const e = document.activeElement as HTMLElement | null;
     if (!e || e === document.body) return { what: 'body', visible: false };
-    const cs = getComputedStyle(e);
-    const outline = cs.outlineStyle !== 'none' && parseFloat(cs.outlineWidth) >= 1;
-    const ring = cs.boxShadow !== 'none';
-    return { what: `${e.tagName.toLowerCase()} “${(e.getAttribute('aria-label') ?? e.textContent ?? '').trim().slice(0, 40)}”`, visible: outline || ring };
+    const shows = (el: Element) => {
+      const cs = getComputedStyle(el);
+      return (cs.outlineStyle !== 'none' && parseFloat(cs.outlineWidth) >= 1) || cs.boxShadow !== 'none';
+    };
+    // A video's focus can sit on its own control bar inside the browser's shadow DOM, which a page
+    // cannot style or read: there the frame around the video (its parent) must show a ring.
+    const frame = e.tagName === 'VIDEO' ? e.parentElement : null;
+    return { what: `${e.tagName.toLowerCase()} “${(e.getAttribute('aria-label') ?? e.textContent ?? '').trim().slice(0, 40)}”`, visible: shows(e) || (!!frame && shows(frame)) };
   });
 
 /** Presses Tab until the target has focus, checking the focus is visible at every stop. */
@@ -33,7 +37,8 @@ async function tabTo(page: Page, target: Locator, stops: string[], max = 80) {
     await page.keyboard.press('Tab');
     const f = await focused(page);
     stops.push(f.what);
-    expect(f.visible, `focus not visible on ${f.what}`).toBe(true);
+    // "body": focus went past the last control to the browser's own UI; the next Tab comes back.
+    if (f.what !== 'body') expect(f.visible, `focus not visible on ${f.what}; stops: ${stops.slice(-6).join(' → ')}`).toBe(true);
     if (await target.evaluate((el) => el === document.activeElement)) return;
   }
   throw new Error(`Tab never reached the target; stops: ${stops.slice(-10).join(' → ')}`);

@@ -154,7 +154,9 @@ export default function ClassPlayer(props: PlayerProps) {
   return (
     <div className="grid gap-6 lg:grid-cols-[2fr_1fr]" onKeyDown={onKeyDown}>
       <div>
-        <div className="relative overflow-hidden rounded-[10px] bg-ink" tabIndex={-1}>
+        {/* A ring around the frame whenever the video or its own controls have focus: Chromium
+            focuses the control bar inside the video, where the page's outline cannot reach. */}
+        <div className="relative overflow-hidden rounded-[10px] bg-ink focus-within:ring-3 focus-within:ring-sun" tabIndex={-1}>
           <video
             ref={video}
             className="aspect-video w-full"
