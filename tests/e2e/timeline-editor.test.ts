@@ -1,8 +1,8 @@
 // The timeline editor's story through the real app, database, job worker, ffmpeg and Chromium:
 // the demo draft *Hill Sprints Prep* gets its recording from the real demo pipeline, then Priya
 // (editor) opens it, sees the timing check's findings, fixes them (apply fix, drag, keyboard
-// nudge, lay out from the plan), saves and reloads; a second person saving first leads to the
-// 409 choice. Screenshots go to test-results/screenshots/editor-*.png.
+// nudge, leave the skipped station out of the plan), saves and reloads; a second person saving
+// first leads to the 409 choice; the coach then publishes it from the class page. Screenshots go to test-results/screenshots/editor-*.png.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { startQueue } from '~/server/queue';
@@ -83,7 +83,7 @@ const selectedTimes = (page: Page) => page.locator('[data-selected-times]').text
 const segmentRows = (page: Page) => page.locator('[data-segment-id]').evaluateAll((els) => els.map((e) => e.textContent));
 
 describe('the timeline editor on Hill Sprints Prep', () => {
-  it('lists the deliberate mistakes, fixes them by apply fix, drag, nudge and lay out, saves and reloads as saved', async () => {
+  it('lists the deliberate mistakes, fixes them by apply fix, drag, nudge and leaving the skipped station out of the plan, saves and reloads as saved', async () => {
     const { context, page } = await signInPage(DEMO.editor, { width: 1280, height: 800 });
     const pageErrors: string[] = [];
     page.on('pageerror', (e) => pageErrors.push(e.message));
@@ -140,21 +140,24 @@ describe('the timeline editor on Hill Sprints Prep', () => {
     await page.keyboard.press('Control+Shift+z');
     await expect.poll(() => selectedTimes(page)).toMatch(/^10:55\.0 – /);
 
-    // 4. The missing station: put the playhead on the warm-up's start and lay the plan out.
+    // 4. The missing station: the demo recording really skipped it (round 3, station 2), so the
+    // finding's "Leave it out of this class" records that in the plan; the later marks already
+    // follow the video, and the check passes.
     await page.getByRole('button', { name: 'Zoom out' }).click();
+    const missing = page.locator('[data-finding="missing-station"]');
+    expect(await missing.getByRole('button', { name: 'Mark it here' }).count()).toBe(1);
+    await missing.getByRole('button', { name: 'Leave it out of this class' }).click();
+    await page.locator('[data-plan-message]').filter({ hasText: 'out of round 3' }).waitFor();
+    await expect.poll(() => findingCodes(page)).not.toContain('error missing-station');
+    await expect.poll(() => errorCount(page)).toBe(0);
+    await expect(page.locator('[data-check-summary]').textContent()).resolves.toMatch(/^0 errors/);
+    const plan = (await (await api.get(`/api/lessons/${lessonId}/plan`)).json()) as { plan: { blocks: { roundChanges?: { round: number; skipStations?: number[] }[] }[] } };
+    expect(plan.plan.blocks[1]!.roundChanges).toEqual([{ round: 3, skipStations: [2] }]);
+    // The plan section on the same page follows the change.
+    await expect.poll(() => page.locator('[data-round-change]').count()).toBe(1);
     await page.locator('[data-segment-list] summary').click();
     await page.locator('[data-segment-id]', { hasText: /^Warm-up/ }).click();
     await expect.poll(() => page.locator('[data-playhead]').textContent()).toMatch(/^0:15\.0/);
-    await page.keyboard.press('l');
-    await page.locator('[data-notice]').filter({ hasText: 'Laid out' }).waitFor({ state: 'attached' });
-    await expect.poll(() => findingCodes(page)).not.toContain('error missing-station');
-    // The demo recording really skipped that station, so the planned class (20:00) runs 45 s past
-    // its end: the check says so, and its suggested fix ends the cool-down with the recording.
-    expect(await page.locator('[data-finding][data-severity="error"]').evaluateAll((els) => els.map((e) => e.getAttribute('data-finding')))).toEqual(['outside-media']);
-    await page.getByRole('button', { name: /^Apply all fixes/ }).click();
-    await expect.poll(() => errorCount(page)).toBe(0);
-    expect(await findingCodes(page)).toContain('warning block-length'); // the cool-down is short in the recording
-    await expect(page.locator('[data-check-summary]').textContent()).resolves.toMatch(/^0 errors/);
     // Kinds by keyboard: the segment under the playhead becomes talk (6), then warm-up again (4).
     await page.keyboard.press('6');
     await expect.poll(() => selectedTimes(page)).toMatch(/^0:15\.0 – 4:15\.0/);
@@ -243,6 +246,22 @@ describe('the timeline editor on Hill Sprints Prep', () => {
     expect((await timelineOf(lessonId)).version).toBe(after.version);
     await first.context.close();
     await second.context.close();
+  });
+
+  it('ends published: the coach acknowledges the remaining warning and publishes from the class page', async () => {
+    const { context, page } = await signInPage(DEMO.coach, { width: 1280, height: 800 });
+    await openEditor(page);
+    expect(await errorCount(page)).toBe(0);
+    const panel = page.getByTestId('publish-panel');
+    // Advertised 25 min for a class of about 19 min: a warning the coach acknowledges.
+    await panel.getByLabel('I reviewed these warnings; publish anyway.').check();
+    await panel.getByRole('button', { name: 'Publish now' }).click();
+    await page.waitForURL(/published=/);
+    await page.getByTestId('publish-panel').getByText(/Live in the library as version 1/).waitFor();
+    const lesson = (await (await api.get(`/api/lessons/${lessonId}`)).json()) as { state: string };
+    expect(lesson.state).toBe('published');
+    await page.screenshot({ path: `${SHOTS}/editor-published.png`, fullPage: true });
+    await context.close();
   });
 
   it('works without a ready recording: timeline over the class length and a plain note', async () => {

@@ -47,6 +47,8 @@ export type EditorAction =
   | { type: 'delete' }
   | { type: 'select-boundary'; from: number; direction: 1 | -1 }
   | { type: 'layout-from-plan'; plan: Plan; at: number }
+  | { type: 'insert-segment'; segment: Omit<Segment, 'id'>; notice?: string }
+  | { type: 'set-media-seconds'; seconds: number }
   | { type: 'apply-fix'; finding: Finding }
   | { type: 'apply-fixes'; findings: readonly Finding[] }
   | { type: 'undo' }
@@ -104,6 +106,33 @@ function selectedSegment(state: EditorState, id?: string): Segment | undefined {
 
 function replaceSegment(t: Timeline, next: Segment): Timeline {
   return { ...t, segments: t.segments.map((s) => (s.id === next.id ? next : s)) };
+}
+
+/**
+ * Puts `segment` at its times, over whatever is marked there: segments it covers go, segments
+ * it cuts into are trimmed (one that spans it is split in two). Pieces shorter than
+ * MIN_SEGMENT_SECONDS are dropped. Returns the timeline and the new segment's id.
+ */
+export function insertSegment(t: Timeline, segment: Omit<Segment, 'id'>, mediaSeconds = Infinity): { timeline: Timeline; id: string } {
+  const start = roundToMillis(clamp(segment.startSeconds, 0, mediaSeconds));
+  const end = roundToMillis(clamp(segment.endSeconds, start, mediaSeconds));
+  const id = freshId(t, 'm');
+  const kept: Segment[] = [];
+  let n = 0;
+  for (const s of t.segments) {
+    if (s.endSeconds <= start + SAME_TIME || s.startSeconds >= end - SAME_TIME) {
+      kept.push(s);
+      continue;
+    }
+    if (s.startSeconds < start && start - s.startSeconds >= MIN_SEGMENT_SECONDS) kept.push({ ...s, endSeconds: start });
+    if (s.endSeconds > end && s.endSeconds - end >= MIN_SEGMENT_SECONDS) {
+      // The right-hand piece keeps the id when there is no left-hand piece.
+      const leftKept = s.startSeconds < start && start - s.startSeconds >= MIN_SEGMENT_SECONDS;
+      const pieceId = leftKept ? freshId({ segments: [...t.segments, ...kept, { ...s, id }], cues: t.cues }, `m${++n}-`) : s.id;
+      kept.push({ ...s, id: pieceId, startSeconds: end });
+    }
+  }
+  return { timeline: { segments: [...kept, { ...segment, id, startSeconds: start, endSeconds: end }], cues: t.cues }, id };
 }
 
 /**
@@ -297,6 +326,15 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
       const timeline = layoutFromPlan(state.timeline, action.plan, action.at);
       const count = expandPlan(action.plan, 0).segments.length;
       return commit(state, timeline, null, `Laid out ${count} planned segments from the playhead. Nudge them to the recording.`);
+    }
+    case 'set-media-seconds':
+      return action.seconds === state.mediaSeconds ? state : { ...state, mediaSeconds: action.seconds };
+    case 'insert-segment': {
+      if (action.segment.endSeconds - action.segment.startSeconds < MIN_SEGMENT_SECONDS) {
+        return { ...state, notice: 'There is no room for that segment here.' };
+      }
+      const { timeline, id } = insertSegment(state.timeline, action.segment, state.mediaSeconds);
+      return commit(state, timeline, { type: 'segment', id, edge: null }, action.notice ?? null);
     }
     case 'apply-fix': {
       try {

@@ -44,6 +44,23 @@ export interface Finding {
   message: string;
   /** A suggested fix: one change, or several applied together. */
   fix?: FixChange | FixChange[];
+  /**
+   * `missing-station` only: the planned work interval that is not marked, so the editor can
+   * mark it at the playhead or leave it out of the plan.
+   */
+  missing?: MissingWork;
+}
+
+export interface MissingWork {
+  blockIndex: number;
+  /** 0-based station of a circuit. */
+  stationIndex?: number;
+  /** 1-based round of a circuit, or set of intervals. */
+  round?: number;
+  set?: number;
+  exercise?: string;
+  /** Planned length of the work interval. */
+  seconds: number;
 }
 
 export interface RoundTotals {

@@ -227,6 +227,14 @@ export function matchPlan(plan: Plan, schedule: ExpectedSchedule, view: Timeline
         atSeconds: anchorTime(u),
         segmentIds: [],
         message: `${sentence(plannedName(p))} is not marked; it should come around ${at(anchorTime(u))}. Mark its work interval.`,
+        missing: {
+          blockIndex: p.blockIndex,
+          ...(p.stationIndex !== undefined ? { stationIndex: p.stationIndex } : {}),
+          ...(p.round !== undefined ? { round: p.round } : {}),
+          ...(p.set !== undefined ? { set: p.set } : {}),
+          ...(p.exercise !== undefined ? { exercise: p.exercise } : {}),
+          seconds: p.seconds,
+        },
       });
     }
   });

@@ -46,6 +46,17 @@ const finding = z
     segmentIds: z.array(z.string()),
     message: z.string(),
     fix: z.union([fixChange, z.array(fixChange)]).optional(),
+    missing: z
+      .object({
+        blockIndex: z.number().int(),
+        stationIndex: z.number().int().optional(),
+        round: z.number().int().optional(),
+        set: z.number().int().optional(),
+        exercise: z.string().optional(),
+        seconds: z.number(),
+      })
+      .optional()
+      .describe('missing-station only: the planned work interval that is not marked.'),
   })
   .meta({ id: 'Finding' });
 const checkResult = z

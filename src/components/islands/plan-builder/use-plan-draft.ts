@@ -2,10 +2,10 @@
  * The plan being built: blocks (each with a stable key for React and dragging), tolerances and
  * options; the schema's messages per field on every change; saving against the class version.
  */
-import { useMemo, useRef, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { DEFAULT_PLAN_OPTIONS, DEFAULT_TOLERANCES, planSchema, type Plan, type PlanInput } from '~/lib/plan/plan-schema';
 import { duplicateItem, emptyPlan, messagesByPath, moveItem, newBlock, removeItem, type BlockKind, type DraftBlock } from '~/lib/plan/plan-editing';
-import { announcePlanSaved } from '../plan-events';
+import { announcePlanSaved, onPlanSaved } from '../plan-events';
 import { savePlan } from './plan-api';
 
 export interface DraftItem {
@@ -49,9 +49,24 @@ export function usePlanDraft(lessonId: string, initial: Plan | null, initialVers
   const [serverFields, setServerFields] = useState<Record<string, string>>({});
 
   const asPlan = useMemo(() => draftToPlan(draft), [draft]);
+  const dirtyRef = useRef(false);
+  // The editor may change the plan (leaving a station out): follow it unless this form holds
+  // unsaved changes, whose save will then meet the 409 and offer a reload.
+  useEffect(
+    () =>
+      onPlanSaved(lessonId, (saved) => {
+        if (saved.version === version.current || dirtyRef.current) return;
+        version.current = saved.version;
+        const next = toDraft(saved.plan);
+        setDraft(next);
+        setSavedJson(JSON.stringify(draftToPlan(next)));
+      }),
+    [lessonId],
+  );
   const parsed = useMemo(() => planSchema.safeParse(asPlan), [asPlan]);
   const fields = useMemo(() => ({ ...serverFields, ...(parsed.success ? {} : messagesByPath(parsed.error.issues)) }), [parsed, serverFields]);
   const dirty = JSON.stringify(asPlan) !== savedJson;
+  dirtyRef.current = dirty;
 
   const update = (change: (d: PlanDraft) => PlanDraft) => {
     setServerFields({});

@@ -13,11 +13,14 @@ export interface FindingsPanelProps {
   hasPlan: boolean;
   onShow(finding: Finding): void;
   onApplyFix(finding: Finding): void;
+  /** A missing station: mark it at the playhead, or leave it out of the plan. */
+  onMarkHere?(finding: Finding): void;
+  onLeaveOut?(finding: Finding): void;
   onApplyAll(): void;
 }
 
 /** The timing check's findings, by time: click one to go there; apply its suggested fix. */
-function FindingsPanel({ result, hasPlan, onShow, onApplyFix, onApplyAll }: FindingsPanelProps) {
+function FindingsPanel({ result, hasPlan, onShow, onApplyFix, onMarkHere, onLeaveOut, onApplyAll }: FindingsPanelProps) {
   if (!hasPlan) {
     return (
       <section aria-labelledby="findings-title" className="rounded-[10px] border border-stone/70 p-4">
@@ -66,6 +69,20 @@ function FindingsPanel({ result, hasPlan, onShow, onApplyFix, onApplyAll }: Find
                   )}
                 </div>
                 <p className="mt-1 text-sm">{f.message}</p>
+                {f.missing && (
+                  <div className="mt-2 flex flex-wrap gap-2">
+                    {onMarkHere && (
+                      <button type="button" onClick={() => onMarkHere(f)} className="rounded-[10px] border border-ink px-3 py-0.5 text-sm font-bold hover:bg-ink hover:text-paper" title="Adds the work interval at the playhead with its planned length">
+                        Mark it here
+                      </button>
+                    )}
+                    {onLeaveOut && f.missing.round !== undefined && f.missing.stationIndex !== undefined && (
+                      <button type="button" onClick={() => onLeaveOut(f)} className="rounded-[10px] border border-ink px-3 py-0.5 text-sm font-bold hover:bg-ink hover:text-paper" title="Records in the plan that this round skips the station">
+                        Leave it out of this class
+                      </button>
+                    )}
+                  </div>
+                )}
               </li>
             );
           })}

@@ -2,7 +2,7 @@ import { useEffect, useState } from 'react';
 import type { Peaks } from '~/lib/media/peaks';
 import { SEGMENT_KIND_ORDER, SEGMENT_KIND_LABELS } from '~/lib/editor/segment-style';
 import { diffTimelines } from '~/lib/editor/timeline-diff';
-import { loadEditorData, loadPeaks, type EditorData } from './editor-api';
+import { loadEditorData, loadPeaks, loadRecordingState, type EditorData } from './editor-api';
 import { useEditorController } from './controller/use-editor-controller';
 import { ZOOM_LEVELS } from './controller/editor-commands';
 import MediaTimeline from './MediaTimeline';
@@ -43,6 +43,27 @@ export default function TimelineEditor({ lessonId }: TimelineEditorProps) {
     };
   }, [lessonId]);
 
+  // A recording that becomes ready while the editor is open is loaded in place (no reload, the
+  // marks stay): poll its state every few seconds until then.
+  const waiting = loaded.status === 'ready' && loaded.data.recording === null;
+  useEffect(() => {
+    if (!waiting) return;
+    let stopped = false;
+    const timer = setInterval(() => {
+      loadRecordingState(lessonId)
+        .then(async ({ recording, preparing }) => {
+          const peaks = recording?.peaksUrl ? await loadPeaks(recording.peaksUrl).catch(() => null) : null;
+          if (stopped) return;
+          setLoaded((l) => (l.status === 'ready' ? { ...l, data: { ...l.data, recording, preparing }, peaks: recording ? peaks : l.peaks } : l));
+        })
+        .catch(() => undefined); // a missed poll is retried by the next one
+    }, 4000);
+    return () => {
+      stopped = true;
+      clearInterval(timer);
+    };
+  }, [waiting, lessonId]);
+
   if (loaded.status === 'loading') return <p className="text-ink-soft" role="status">Loading the timeline…</p>;
   if (loaded.status === 'error') return <p role="alert" className="rounded-[10px] bg-error/10 p-3 font-semibold text-error">{loaded.message}</p>;
   return <Editor lessonId={lessonId} data={loaded.data} peaks={loaded.peaks} />;
@@ -82,8 +103,9 @@ function Editor({ lessonId, data, peaks }: { lessonId: string; data: EditorData;
         onMediaError={c.setMediaError}
         noRecordingNote={noRecordingNote(data.preparing)}
         toolbar={<EditorToolbar c={c} />}
-        beside={<FindingsPanel result={c.check} hasPlan={c.plan !== null} onShow={h.onShowFinding} onApplyFix={h.onApplyFix} onApplyAll={h.onApplyAll} />}
+        beside={<FindingsPanel result={c.check} hasPlan={c.plan !== null} onShow={h.onShowFinding} onApplyFix={h.onApplyFix} onMarkHere={h.onMarkHere} onLeaveOut={(f) => void h.onLeaveOut(f)} onApplyAll={h.onApplyAll} />}
       />
+      {c.planMessage && <p role="status" className="rounded-[10px] bg-info/10 p-3 text-sm font-semibold" data-plan-message>{c.planMessage}</p>}
       <p className="sr-only" aria-live="polite" data-notice>{state.notice ?? ''}</p>
       {state.notice && <p className="text-sm text-ink-soft" aria-hidden="true">{state.notice}</p>}
       {c.helpOpen && <ShortcutHelp onClose={() => c.setHelpOpen(false)} />}

@@ -27,6 +27,8 @@ export interface EditorRecording {
 export interface EditorData {
   lesson: { id: string; title: string; advertisedMinutes: number; mediaSeconds: number | null };
   plan: Plan | null;
+  /** The class version the plan was read at (a plan change from the editor sends it back). */
+  planVersion: number;
   version: number;
   timeline: Timeline;
   recording: EditorRecording | null;
@@ -45,14 +47,22 @@ export function pickRecording(list: readonly EditorRecording[]): EditorRecording
 export async function loadEditorData(lessonId: string): Promise<EditorData> {
   const [lesson, planView, stored, recs] = await Promise.all([
     call<EditorData['lesson']>('GET', lessonPath(lessonId)),
-    call<{ plan: unknown }>('GET', `${lessonPath(lessonId)}/plan`),
+    call<{ plan: unknown; version: number }>('GET', `${lessonPath(lessonId)}/plan`),
     loadTimeline(lessonId),
     call<{ recordings: EditorRecording[] }>('GET', `${lessonPath(lessonId)}/recordings`),
   ]);
   const parsedPlan = planView.plan ? planSchema.safeParse(planView.plan) : null;
   const recording = pickRecording(recs.recordings);
   const preparing = recording ? null : recs.recordings.find((r) => r.state === 'uploading' || r.state === 'processing') ?? null;
-  return { lesson, plan: parsedPlan?.success ? parsedPlan.data : null, ...stored, recording, preparing };
+  return { lesson, plan: parsedPlan?.success ? parsedPlan.data : null, planVersion: planView.version, ...stored, recording, preparing };
+}
+
+/** The recording to mark (if one is ready now) and one still being prepared, for polling. */
+export async function loadRecordingState(lessonId: string): Promise<Pick<EditorData, 'recording' | 'preparing'>> {
+  const recs = await call<{ recordings: EditorRecording[] }>('GET', `${lessonPath(lessonId)}/recordings`);
+  const recording = pickRecording(recs.recordings);
+  const preparing = recording ? null : recs.recordings.find((r) => r.state === 'uploading' || r.state === 'processing') ?? null;
+  return { recording, preparing };
 }
 
 export async function loadTimeline(lessonId: string): Promise<{ version: number; timeline: Timeline }> {

@@ -14,7 +14,9 @@ import { editorReducer, initialEditorState, type Edge, type Selection } from '~/
 import { edgeTargets, planAnchor, plannedBoundaries, snapTime } from '~/lib/editor/snapping';
 import type { ShortcutCommand } from '~/lib/editor/shortcuts';
 import type { EditorData } from '../editor-api';
-import { onPlanSaved } from '../../plan-events';
+import { announcePlanSaved, onPlanSaved } from '../../plan-events';
+import { savePlan } from '../../plan-builder/plan-api';
+import { leaveStationOut } from '~/lib/plan/leave-out';
 import { createPlayheadStore } from '../playhead-store';
 import type { MediaTimelineHandle } from '../MediaTimeline';
 import { runCommand, ZOOM_LEVELS, type CommandArgs, type CommandContext } from './editor-commands';
@@ -45,10 +47,21 @@ function exerciseNames(plan: Plan | null, segments: readonly { exercise?: string
 export function useEditorController(lessonId: string, data: EditorData, peaks: Peaks | null) {
   // The plan section on the same page may save a new plan while the editor is open.
   const [plan, setPlan] = useState<Plan | null>(data.plan);
-  useEffect(() => onPlanSaved(lessonId, (saved) => setPlan(saved.plan)), [lessonId]);
+  const planVersion = useRef(data.planVersion);
+  const [planMessage, setPlanMessage] = useState<string | null>(null);
+  useEffect(
+    () =>
+      onPlanSaved(lessonId, (saved) => {
+        setPlan(saved.plan);
+        planVersion.current = saved.version;
+      }),
+    [lessonId],
+  );
   const mediaSeconds = useMemo(() => mediaSecondsOf(data), [data]);
   const [state, dispatch] = useReducer(editorReducer, undefined, () => initialEditorState(data.timeline, mediaSeconds));
   const stateRef = useLatest(state);
+  // A recording that arrives while the editor is open brings its own length.
+  useEffect(() => dispatch({ type: 'set-media-seconds', seconds: mediaSeconds }), [mediaSeconds]);
   const [playhead] = useState(createPlayheadStore);
   const media = useRef<MediaTimelineHandle>(null);
   const rootRef = useRef<HTMLDivElement>(null);
@@ -114,6 +127,47 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
     else if (f.cueIds?.[0]) dispatch({ type: 'select', selection: { type: 'cue', id: f.cueIds[0] } });
   }, []);
   const onApplyFix = useCallback((f: Finding) => dispatch({ type: 'apply-fix', finding: f }), []);
+  // A planned interval the recording lacks: mark it at the playhead with its planned length...
+  const onMarkHere = useCallback((f: Finding) => {
+    const m = f.missing;
+    if (!m) return;
+    const at = playhead.get();
+    dispatch({
+      type: 'insert-segment',
+      segment: {
+        kind: 'work',
+        startSeconds: at,
+        endSeconds: at + m.seconds,
+        ...(m.exercise ? { exercise: m.exercise } : {}),
+        ...(m.round !== undefined ? { round: m.round } : {}),
+        ...(m.set !== undefined ? { set: m.set } : {}),
+      },
+      notice: 'Marked at the playhead with its planned length. Undo takes it back.',
+    });
+  }, [playhead]);
+  // ...or record in the plan that this round skips it, so the check and the chapters follow the video.
+  const onLeaveOut = useCallback(async (f: Finding) => {
+    const m = f.missing;
+    if (!m || !plan || m.round === undefined || m.stationIndex === undefined) return;
+    const changed = leaveStationOut(plan, m.blockIndex, m.round, m.stationIndex);
+    if (!changed.ok) return setPlanMessage(changed.message);
+    setPlanMessage(null);
+    try {
+      const out = await savePlan(lessonId, planVersion.current, changed.plan);
+      if (out.ok) {
+        planVersion.current = out.version;
+        setPlan(out.plan);
+        announcePlanSaved({ lessonId, plan: out.plan, version: out.version });
+        setPlanMessage(`The plan now leaves ${m.exercise ?? 'that station'} out of round ${m.round}.`);
+      } else if (out.conflict) {
+        setPlanMessage('Someone changed this class after you opened it, so the plan was not changed. Reload the page, then try again.');
+      } else {
+        setPlanMessage(out.message);
+      }
+    } catch (err) {
+      setPlanMessage(err instanceof Error ? err.message : 'The plan could not be changed. Try again in a moment.');
+    }
+  }, [lessonId, plan]);
   const onApplyAll = useCallback(() => {
     if (check) dispatch({ type: 'apply-fixes', findings: check.findings });
   }, [check]);
@@ -160,7 +214,8 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
     seek,
     selectedSegment,
     selectedCue,
-    handlers: { onEdgeDragged, onCueDragged, onShowFinding, onApplyFix, onApplyAll, onSelect, onPickSegment, onPickCue, onZoomStep },
+    planMessage,
+    handlers: { onEdgeDragged, onCueDragged, onShowFinding, onApplyFix, onMarkHere, onLeaveOut, onApplyAll, onSelect, onPickSegment, onPickCue, onZoomStep },
   };
 }
 
