@@ -3,25 +3,32 @@
 // create the class, build its plan in the Plan section (typing, field messages in the schema's
 // words, reorder by keyboard and by drag, duplicate, remove), save, and meet a stale save.
 // Screenshots go to test-results/screenshots/authoring-*.png.
+import { mkdtemp, rm } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { type ApiClient, BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
+import { makeClip } from '../helpers/media-files';
 
 let browser: Browser;
 let api: ApiClient;
 let classUrl = '';
+let dir = '';
 /** Clicks and key presses the story needed, counted as it goes (reported in the note). */
 const effort = { clicks: 0, keys: 0 };
 
 beforeAll(async () => {
   api = await signedIn(DEMO.coach);
   browser = await launchBrowser();
+  dir = await mkdtemp(path.join(tmpdir(), 'authoring-story-'));
 }, 60_000);
 
 afterAll(async () => {
   console.log(`authoring story effort: ${effort.clicks} clicks, ${effort.keys} keys typed or pressed`);
   await browser?.close();
+  if (dir) await rm(dir, { recursive: true, force: true });
 });
 
 async function signInPage(email: string, viewport = { width: 1366, height: 900 }): Promise<{ context: BrowserContext; page: Page }> {
@@ -126,15 +133,46 @@ describe('a coach authors a class from an empty one', () => {
     // Live total against the advertised 20 min ± 10 %: 5:00 + 10:00 + 3:00 = 18:00, within.
     await expect.poll(() => plan.locator('[data-planned-total]').textContent()).toBe('18:00');
     expect(await plan.locator('[data-length-ok]').count()).toBe(1);
+
+    // A Tabata block from the built-in formats, added to the plan, its move named, moved above the cool-down.
+    await page.getByLabel('Start from a template or copy the plan of another class').selectOption({ label: 'Tabata 8 × 20/10 s' });
+    effort.clicks += 2;
+    await click(page.getByRole('button', { name: 'Add its blocks' }));
+    expect(await blockKinds(page)).toEqual(['warmup', 'circuit', 'cooldown', 'intervals']);
+    const tabata = page.locator('[data-plan-block="intervals"]');
+    expect(await tabata.locator('[data-field-error]').first().textContent()).toBe('The exercise needs a name.');
+    await type(page, tabata.getByLabel('Exercise'), 'Skater hop');
+    await click(page.getByRole('button', { name: 'Move Intervals (block 4) up' }));
+    expect(await blockKinds(page)).toEqual(['warmup', 'circuit', 'intervals', 'cooldown']);
+    // 8 × 20 s work and 7 × 10 s rest (this plan ends blocks on work): 230 s.
+    expect(await tabata.locator('[data-block-length]').textContent()).toBe('3:50');
+
+    // A ladder round: round 3 of the circuit works 50 s instead of 40 at each of its 3 stations (+30 s).
+    await click(circuit.getByRole('button', { name: 'Change a round' }));
+    const change = circuit.locator('[data-round-change]');
+    await type(page, change.getByLabel('Round', { exact: true }), '3');
+    await type(page, change.getByLabel('Work (s)', { exact: true }), '50');
+    expect(await circuit.locator('[data-block-length]').textContent()).toBe('10:30');
+    // 5:00 + 10:30 + 3:50 + 3:00 = 22:20: past 20 min + 10 %, and the page says so before any check.
+    await expect.poll(() => plan.locator('[data-planned-total]').textContent()).toBe('22:20');
+    expect(await plan.locator('[data-length-warning]').count()).toBe(1);
+    await type(page, page.locator('[data-plan-block="warmup"]').getByLabel('Length (seconds)'), '280');
+    await expect.poll(() => plan.locator('[data-planned-total]').textContent()).toBe('22:00');
+    expect(await plan.locator('[data-length-ok]').count()).toBe(1);
     await page.screenshot({ path: `${SHOTS}/authoring-plan-desktop.png`, fullPage: true });
 
     expect(await page.locator('[data-editor]').getByText('Add a plan, then come back').count()).toBe(1);
     await click(page.getByRole('button', { name: 'Save plan' }));
     await expect.poll(() => plan.locator('[data-plan-save-state]').getAttribute('data-plan-save-state')).toBe('saved');
     const stored = await planOf(lessonId);
-    expect(stored.plan?.blocks.map((b) => b.kind)).toEqual(['warmup', 'circuit', 'cooldown']);
+    expect(stored.plan?.blocks.map((b) => b.kind)).toEqual(['warmup', 'circuit', 'intervals', 'cooldown']);
     expect(stored.plan?.blocks[1]?.stations?.map((s) => s.exercise)).toEqual(['Goblet squat', 'Push-up', 'Sideways lunge test move']);
-    expect(stored.schedule?.totals.classSeconds).toBe(18 * 60);
+    expect(stored.schedule?.totals.classSeconds).toBe(22 * 60);
+
+    // The plan becomes one of the studio's templates.
+    await type(page, page.getByLabel('Save this plan as a studio template'), 'Sides and ladders test template');
+    await click(page.getByRole('button', { name: 'Save as template' }));
+    await page.getByText('Saved “Sides and ladders test template” to this studio’s templates.').waitFor();
     // The timeline editor on the same page now checks against the new plan.
     await expect.poll(() => page.locator('[data-editor]').getByText('Add a plan, then come back').count()).toBe(0);
     expect(pageErrors).toEqual([]);
@@ -160,4 +198,37 @@ describe('a coach authors a class from an empty one', () => {
     await a.context.close();
     await b.context.close();
   }, 120_000);
+
+  it('uploads a generated recording; the open editor loads it once ready, without a reload', async () => {
+    // A short generated clip (invented test media): the story stops at the editor picking it up.
+    const clip = path.join(dir, 'class.mp4');
+    await makeClip(clip, { seconds: 20, size: '320x180' });
+    const { context, page } = await signInPage(DEMO.coach);
+    await page.goto(classUrl);
+    await page.locator('[data-editor]').waitFor();
+    await page.locator('[data-no-recording]').waitFor();
+    let navigations = 0;
+    page.on('framenavigated', (f) => {
+      if (f === page.mainFrame()) navigations += 1;
+    });
+    await page.locator('.uppy-Dashboard-input').first().waitFor({ state: 'attached' });
+    await page.setInputFiles('.uppy-Dashboard-input', clip);
+    await click(page.locator('.uppy-StatusBar-actionBtn--upload'));
+    // The editor notices the recording when the worker has made it ready, and shows the video.
+    await page.locator('[data-editor] video').waitFor({ timeout: 180_000 });
+    await page.locator('[data-editor-ready="true"]').waitFor({ timeout: 60_000 });
+    await expect.poll(() => page.locator('[data-editor] video').evaluate((v: HTMLVideoElement) => v.readyState), { timeout: 30_000 }).toBeGreaterThanOrEqual(1);
+    expect(await page.locator('[data-playhead]').textContent()).toMatch(/\/ 0:20\.0/);
+    expect(navigations).toBe(0);
+    // A segment of any kind at the playhead (0:00), 30 s long but clamped to the 20 s recording; undo takes it back.
+    await page.getByLabel('Kind to insert').selectOption('warmup');
+    await click(page.getByRole('button', { name: 'Insert here' }));
+    await page.locator('[data-segment-list] summary').click();
+    await expect.poll(() => page.locator('[data-segment-id]').allTextContents()).toEqual([expect.stringMatching(/^Warm-up/)]);
+    expect(await page.locator('[data-selected-times]').textContent()).toMatch(/^0:00\.0 – 0:20\.0/);
+    await click(page.getByRole('button', { name: 'Undo' }));
+    await expect.poll(() => page.locator('[data-segment-id]').count()).toBe(0);
+    await page.screenshot({ path: `${SHOTS}/authoring-recording-ready.png`, fullPage: true });
+    await context.close();
+  }, 300_000);
 });

@@ -7,6 +7,7 @@ import { useEditorController } from './controller/use-editor-controller';
 import { ZOOM_LEVELS } from './controller/editor-commands';
 import MediaTimeline from './MediaTimeline';
 import EditorToolbar from './EditorToolbar';
+import InsertSegmentTool from './InsertSegmentTool';
 import SaveBar from './SaveBar';
 import DraftOffer from './DraftOffer';
 import FindingsPanel from './FindingsPanel';
@@ -102,7 +103,7 @@ function Editor({ lessonId, data, peaks }: { lessonId: string; data: EditorData;
         onReady={() => c.setReady(true)}
         onMediaError={c.setMediaError}
         noRecordingNote={noRecordingNote(data.preparing)}
-        toolbar={<EditorToolbar c={c} />}
+        toolbar={<EditorToolbar c={c} extra={<InsertSegmentTool c={c} />} />}
         beside={<FindingsPanel result={c.check} hasPlan={c.plan !== null} onShow={h.onShowFinding} onApplyFix={h.onApplyFix} onMarkHere={h.onMarkHere} onLeaveOut={(f) => void h.onLeaveOut(f)} onApplyAll={h.onApplyAll} />}
       />
       {c.planMessage && <p role="status" className="rounded-[10px] bg-info/10 p-3 text-sm font-semibold" data-plan-message>{c.planMessage}</p>}
