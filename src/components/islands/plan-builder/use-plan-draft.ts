@@ -6,6 +6,7 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import { DEFAULT_PLAN_OPTIONS, DEFAULT_TOLERANCES, planSchema, type Plan, type PlanInput } from '~/lib/plan/plan-schema';
 import { duplicateItem, emptyPlan, messagesByPath, moveItem, newBlock, removeItem, type BlockKind, type DraftBlock } from '~/lib/plan/plan-editing';
 import { announcePlanSaved, onPlanSaved } from '../plan-events';
+import { useLatest } from '../use-latest';
 import { savePlan } from './plan-api';
 
 export interface DraftItem {
@@ -49,7 +50,10 @@ export function usePlanDraft(lessonId: string, initial: Plan | null, initialVers
   const [serverFields, setServerFields] = useState<Record<string, string>>({});
 
   const asPlan = useMemo(() => draftToPlan(draft), [draft]);
-  const dirtyRef = useRef(false);
+  const parsed = useMemo(() => planSchema.safeParse(asPlan), [asPlan]);
+  const fields = useMemo(() => ({ ...serverFields, ...(parsed.success ? {} : messagesByPath(parsed.error.issues)) }), [parsed, serverFields]);
+  const dirty = JSON.stringify(asPlan) !== savedJson;
+  const dirtyRef = useLatest(dirty);
   // The editor may change the plan (leaving a station out): follow it unless this form holds
   // unsaved changes, whose save will then meet the 409 and offer a reload.
   useEffect(
@@ -61,12 +65,8 @@ export function usePlanDraft(lessonId: string, initial: Plan | null, initialVers
         setDraft(next);
         setSavedJson(JSON.stringify(draftToPlan(next)));
       }),
-    [lessonId],
+    [lessonId, dirtyRef],
   );
-  const parsed = useMemo(() => planSchema.safeParse(asPlan), [asPlan]);
-  const fields = useMemo(() => ({ ...serverFields, ...(parsed.success ? {} : messagesByPath(parsed.error.issues)) }), [parsed, serverFields]);
-  const dirty = JSON.stringify(asPlan) !== savedJson;
-  dirtyRef.current = dirty;
 
   const update = (change: (d: PlanDraft) => PlanDraft) => {
     setServerFields({});

@@ -1,14 +1,14 @@
 import { useId, useState } from 'react';
 import { SEGMENT_KIND_LABELS, SEGMENT_KIND_ORDER } from '~/lib/editor/segment-style';
 import type { SegmentKind } from '~/lib/timeline/timeline-schema';
-import type { EditorController } from './controller/use-editor-controller';
+import type { EditorView } from './controller/use-editor-controller';
 import { toolButton } from './tool-button';
 
 /** How long an inserted segment is at first (drag its edges to fit); a plain starting value. */
 export const INSERT_SECONDS = 30;
 
 /** Inserts a segment of any kind at the playhead, over whatever is marked there (undoable). */
-export default function InsertSegmentTool({ c }: { c: EditorController }) {
+export default function InsertSegmentTool({ c }: { c: EditorView }) {
   const [kind, setKind] = useState<SegmentKind>('work');
   const id = useId();
   const insert = () => {
