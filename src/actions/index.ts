@@ -1,8 +1,10 @@
 import { classActions } from './class-actions';
+import { membershipActions } from './membership-actions';
 import { studioActions } from './studio-actions';
 
 /** Every form door of the app; each calls one use case (see docs/decisions/0001-form-doors.md). */
 export const server = {
   ...classActions,
   ...studioActions,
+  ...membershipActions,
 };

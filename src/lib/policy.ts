@@ -44,7 +44,7 @@ export const POLICY = {
   'billing.manage': { roles: OWNER, refusal: 'Only the studio owner can change prices and promo codes.' },
   'members.view': { roles: OWNER, refusal: 'Only the studio owner sees the members and their memberships.' },
   'mail.preview': { roles: OWNER, refusal: 'Only the studio owner sees the e-mail the studio sends.' },
-  'membership.manage': { roles: MEMBER, refusal: 'Memberships belong to members; staff accounts do not need one.' },
+  'membership.manage': { roles: MEMBER, refusal: 'Staff accounts watch every class already; memberships are for members.' },
 } as const satisfies Record<string, Rule>;
 
 export type Action = keyof typeof POLICY;

@@ -18,6 +18,7 @@ import { billingDeps } from '~/server/payments/billing-deps';
 import { inviteToTeam, withdrawInvitation } from '~/server/use-cases/team';
 import { createPromo, setPromoCodeActive, updateMembershipSettings } from '~/server/use-cases/studio-billing';
 import { confirmCheckout } from '~/server/use-cases/confirm-checkout';
+import { cancelMembership, resumeMembership, startMembership } from '~/server/use-cases/membership';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);
 let studioId = '';
@@ -63,6 +64,9 @@ const writes: [string, Role[], (actor: Actor) => Promise<unknown>][] = [
   ['createPromo', ['coach', 'editor', 'member'], (a) => createPromo(a, billing(), { code: 'REFUSED', percentOff: 10, expiresAt: null })],
   ['setPromoCodeActive', ['coach', 'editor', 'member'], (a) => setPromoCodeActive(a, billing(), { id: '00000000-0000-4000-8000-000000000000', active: false })],
   ['confirmCheckout', ['owner', 'coach', 'editor'], (a) => confirmCheckout(a, billing())],
+  ['startMembership', ['owner', 'coach', 'editor'], (a) => startMembership(a, billing(), { promoCode: undefined, payer: { email: 'refused@members.example', name: 'Refused' } })],
+  ['cancelMembership', ['owner', 'coach', 'editor'], (a) => cancelMembership(a, billing())],
+  ['resumeMembership', ['owner', 'coach', 'editor'], (a) => resumeMembership(a, billing())],
 ];
 
 const cases = writes.flatMap(([name, refused, call]) => refused.map((role) => [name, role, call] as const));

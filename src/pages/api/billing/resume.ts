@@ -1,11 +1,8 @@
 import type { APIRoute } from 'astro';
 import { endpoint, json } from '~/server/http/api';
-import { requireCan } from '~/server/http/guards';
+import { requireActor } from '~/server/http/guards';
 import { billingDeps } from '~/server/payments/billing-deps';
-import { setCancelAtPeriodEnd } from '~/server/services/billing';
+import { resumeMembership } from '~/server/use-cases/membership';
 
 /** Takes back a cancellation before the period ends. */
-export const POST: APIRoute = endpoint(async ({ locals }) => {
-  const { user, studio } = requireCan(locals, 'membership.manage');
-  return json(await setCancelAtPeriodEnd(billingDeps(), studio.studioId, user.id, false));
-});
+export const POST: APIRoute = endpoint(async ({ locals }) => json(await resumeMembership(requireActor(locals), billingDeps())));
