@@ -1,4 +1,5 @@
 import { classActions } from './class-actions';
+import { accountActions } from './account-actions';
 import { membershipActions } from './membership-actions';
 import { studioActions } from './studio-actions';
 
@@ -7,4 +8,5 @@ export const server = {
   ...classActions,
   ...studioActions,
   ...membershipActions,
+  ...accountActions,
 };
