@@ -3,7 +3,7 @@
 // create the class, build its plan in the Plan section (typing, field messages in the schema's
 // words, reorder by keyboard and by drag, duplicate, remove), save, and meet a stale save.
 // Screenshots go to test-results/screenshots/authoring-*.png.
-import { mkdtemp, rm } from 'node:fs/promises';
+import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -11,6 +11,8 @@ import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { type ApiClient, BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
 import { makeClip } from '../helpers/media-files';
+import { timelineToCsv } from '~/lib/timeline/timeline-csv';
+import { readTimelineFile } from '~/lib/editor/timeline-file';
 
 let browser: Browser;
 let api: ApiClient;
@@ -173,9 +175,17 @@ describe('a coach authors a class from an empty one', () => {
     await type(page, page.getByLabel('Save this plan as a studio template'), 'Sides and ladders test template');
     await click(page.getByRole('button', { name: 'Save as template' }));
     await page.getByText('Saved “Sides and ladders test template” to this studio’s templates.').waitFor();
+    // Phone width: the plan section fits without sideways scrolling.
+    await page.setViewportSize({ width: 390, height: 844 });
+    await page.locator('[data-plan-section]').screenshot({ path: `${SHOTS}/authoring-plan-phone.png` });
+    const fits = await page.locator('[data-plan-section]').evaluate((el) => ({ scroll: el.scrollWidth, client: el.clientWidth, right: el.getBoundingClientRect().right }));
+    expect(fits.scroll).toBeLessThanOrEqual(fits.client);
+    expect(fits.right).toBeLessThanOrEqual(390);
+    await page.setViewportSize({ width: 1366, height: 900 });
     // The timeline editor on the same page now checks against the new plan.
     await expect.poll(() => page.locator('[data-editor]').getByText('Add a plan, then come back').count()).toBe(0);
     expect(pageErrors).toEqual([]);
+    console.log(`authoring story effort, empty class to saved plan and template: ${effort.clicks} clicks, ${effort.keys} keys`);
     await context.close();
   }, 120_000);
 
@@ -228,6 +238,40 @@ describe('a coach authors a class from an empty one', () => {
     expect(await page.locator('[data-selected-times]').textContent()).toMatch(/^0:00\.0 – 0:20\.0/);
     await click(page.getByRole('button', { name: 'Undo' }));
     await expect.poll(() => page.locator('[data-segment-id]').count()).toBe(0);
+
+    // Import a CSV (invented marks written by the app's own CSV writer): a preview first, then
+    // replace, then undo. An empty file and a bare WEBVTT header are refused and change nothing.
+    const csv = path.join(dir, 'marks.csv');
+    await writeFile(csv, timelineToCsv({
+      segments: [
+        { id: 'w1', kind: 'warmup', startSeconds: 0, endSeconds: 8 },
+        { id: 'k1', kind: 'work', startSeconds: 8, endSeconds: 18, exercise: 'Goblet squat', round: 1 },
+      ],
+      cues: [],
+    }));
+    await page.setInputFiles('[data-import-input]', csv);
+    effort.clicks += 1;
+    await expect.poll(() => page.locator('[data-import-counts]').textContent()).toBe('2 added, 0 removed, 0 moved or changed');
+    expect(await page.locator('[data-segment-id]').count()).toBe(0); // nothing replaced yet
+    await click(page.getByRole('button', { name: 'Replace the marks' }));
+    await expect.poll(() => page.locator('[data-segment-id]').count()).toBe(2);
+    await click(page.getByRole('button', { name: 'Undo' }));
+    await expect.poll(() => page.locator('[data-segment-id]').count()).toBe(0);
+    for (const [name, text, message] of [
+      ['empty.csv', '', 'The file is empty.'],
+      ['bare.vtt', 'WEBVTT\n', 'The file has no segments'],
+    ] as const) {
+      await writeFile(path.join(dir, name), text);
+      await page.setInputFiles('[data-import-input]', path.join(dir, name));
+      await expect.poll(() => page.locator('[data-import-problem]').textContent()).toContain(message);
+      expect(await page.locator('[data-import-preview]').count()).toBe(0);
+    }
+    // Export: the marks on screen as CSV, read back by the same importer.
+    await page.setInputFiles('[data-import-input]', csv);
+    await click(page.getByRole('button', { name: 'Replace the marks' }));
+    const [download] = await Promise.all([page.waitForEvent('download'), click(page.getByRole('button', { name: 'Export CSV' }))]);
+    const exported = readTimelineFile(await readFile((await download.path())!, 'utf8'));
+    expect(exported.ok && exported.timeline.segments.map((x) => [x.id, x.startSeconds, x.endSeconds])).toEqual([['w1', 0, 8], ['k1', 8, 18]]);
     await page.screenshot({ path: `${SHOTS}/authoring-recording-ready.png`, fullPage: true });
     await context.close();
   }, 300_000);

@@ -8,6 +8,7 @@ import { ZOOM_LEVELS } from './controller/editor-commands';
 import MediaTimeline from './MediaTimeline';
 import EditorToolbar from './EditorToolbar';
 import InsertSegmentTool from './InsertSegmentTool';
+import TimelineFileTools from './TimelineFileTools';
 import SaveBar from './SaveBar';
 import DraftOffer from './DraftOffer';
 import FindingsPanel from './FindingsPanel';
@@ -106,6 +107,7 @@ function Editor({ lessonId, data, peaks }: { lessonId: string; data: EditorData;
         toolbar={<EditorToolbar c={c} extra={<InsertSegmentTool c={c} />} />}
         beside={<FindingsPanel result={c.check} hasPlan={c.plan !== null} onShow={h.onShowFinding} onApplyFix={h.onApplyFix} onMarkHere={h.onMarkHere} onLeaveOut={(f) => void h.onLeaveOut(f)} onApplyAll={h.onApplyAll} />}
       />
+      <TimelineFileTools c={c} fileName={`timeline-${data.lesson.title.replace(/[^\p{L}\p{N}]+/gu, '-').toLowerCase()}`} />
       {c.planMessage && <p role="status" className="rounded-[10px] bg-info/10 p-3 text-sm font-semibold" data-plan-message>{c.planMessage}</p>}
       <p className="sr-only" aria-live="polite" data-notice>{state.notice ?? ''}</p>
       {state.notice && <p className="text-sm text-ink-soft" aria-hidden="true">{state.notice}</p>}
