@@ -56,8 +56,8 @@ export class SignedUpload {
 }
 
 /** Uploads a whole buffer in parts of `partSize` (the last may be smaller) and reports completion to the API. */
-export async function uploadWhole(api: ApiClient, lessonId: string, fileName: string, data: Uint8Array, partSize = 5 * 1024 * 1024) {
-  const created = await api.post(`/api/lessons/${lessonId}/recordings`, { fileName, sizeBytes: data.length, contentType: 'video/mp4' });
+export async function uploadWhole(api: ApiClient, lessonId: string, fileName: string, data: Uint8Array, partSize = 5 * 1024 * 1024, contentType = 'video/mp4') {
+  const created = await api.post(`/api/lessons/${lessonId}/recordings`, { fileName, sizeBytes: data.length, contentType });
   if (created.status !== 201) throw new Error(`create answered ${created.status}: ${await created.text()}`);
   const rec = await created.json();
   const up = new SignedUpload(api, rec.id);

@@ -153,10 +153,12 @@ describe('buildPosterArgs and buildPeaksArgs', () => {
     ]);
   });
 
-  it('decodes the first audio stream to mono s16le at 8 kHz on stdout', () => {
+  it('measures loudness and decodes the first audio stream to mono s16le at 8 kHz on stdout', () => {
     expect(buildPeaksArgs({ input: 'in.mp4' })).toEqual([
-      '-hide_banner', '-nostdin', '-loglevel', 'error', '-i', 'in.mp4', '-map', '0:a:0', '-vn', '-ac', '1', '-ar', '8000',
-      '-c:a', 'pcm_s16le', '-f', 's16le', 'pipe:1',
+      '-hide_banner', '-nostdin', '-nostats', '-loglevel', 'info', '-i', 'in.mp4', '-map', '0:a:0', '-vn',
+      // ITU-R BS.1770-4 / EBU R 128 integrated loudness, summary printed at info level.
+      '-af', 'ebur128=framelog=verbose',
+      '-ac', '1', '-ar', '8000', '-c:a', 'pcm_s16le', '-f', 's16le', 'pipe:1',
     ]);
   });
 

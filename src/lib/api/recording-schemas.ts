@@ -7,6 +7,9 @@ export const ACCEPTED_EXTENSIONS = ['mp4', 'm4v', 'mov', 'webm', 'mkv'] as const
 /** MIME types browsers report for those containers ('' when the browser does not know, as with MKV). */
 export const ACCEPTED_TYPES = ['video/mp4', 'video/x-m4v', 'video/quicktime', 'video/webm', 'video/x-matroska', 'application/octet-stream', ''];
 
+/** Sound-only files by extension: they have no picture, which is what the coach needs to hear. */
+export const SOUND_EXTENSIONS = ['m4a', 'mp3', 'wav', 'aac', 'ogg', 'oga', 'opus', 'flac', 'wma'] as const;
+
 export const fileExtension = (name: string) => (name.match(/\.([A-Za-z0-9]+)$/)?.[1] ?? '').toLowerCase();
 
 export const createRecordingInput = z
@@ -17,7 +20,13 @@ export const createRecordingInput = z
   })
   .superRefine((v, ctx) => {
     const ext = fileExtension(v.fileName);
-    if (!(ACCEPTED_EXTENSIONS as readonly string[]).includes(ext) || !ACCEPTED_TYPES.includes(v.contentType)) {
+    if ((SOUND_EXTENSIONS as readonly string[]).includes(ext)) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['fileName'],
+        message: `"${v.fileName}" is a sound file: it has no picture. Upload the video recording of the class (MP4, MOV, WebM or MKV).`,
+      });
+    } else if (!(ACCEPTED_EXTENSIONS as readonly string[]).includes(ext) || !ACCEPTED_TYPES.includes(v.contentType)) {
       ctx.addIssue({
         code: 'custom',
         path: ['fileName'],
@@ -56,7 +65,9 @@ export const recordingOutput = z
     progress: z.number(),
     failureReason: z.string().nullable(),
     warnings: z.array(z.string()),
-    durationSeconds: z.number().nullable(),
+    durationSeconds: z.number().nullable().describe('The length used everywhere: what the video packets cover, when the container disagrees.'),
+    containerSeconds: z.number().nullable().describe('The length the file claims, when it differs from durationSeconds by more than a second or is missing.'),
+    loudnessLufs: z.number().nullable().describe('Integrated loudness (ITU-R BS.1770-4 / EBU R 128), LUFS; null without measurable sound.'),
     width: z.number().nullable(),
     height: z.number().nullable(),
     isCurrent: z.boolean(),

@@ -4,6 +4,7 @@
  * Pure: only the runner in src/server/media spawns processes.
  */
 import type { RecordingFacts } from './probe-verdict';
+import { BT709_OUTPUT_TAGS, sdrToneMapFilter, withToneMap } from './tone-map';
 
 /** One HLS variant stream. Sizes are the encoded (displayed) size; bit rates in kbit/s. */
 export interface Rendition {
@@ -106,7 +107,7 @@ export interface PackageArgsInput {
   /** Directory that receives `master.m3u8` and `v<N>/index.m3u8` + `v<N>/seg_NNN.ts`. Must not contain `%`. */
   outputDir: string;
   /** The accepted probe facts (see probeVerdict). */
-  probe: Pick<RecordingFacts, 'width' | 'height' | 'frameRate' | 'hasAudio'>;
+  probe: Pick<RecordingFacts, 'width' | 'height' | 'frameRate' | 'hasAudio' | 'colorTransfer'>;
   /** Segment length in whole seconds, 4–6. Default 4. */
   segmentSeconds?: number;
   /** x264 preset. Default `veryfast` (about 1.3× real time for a 1080p ladder on 2 cores, see facts.md). */
@@ -146,7 +147,9 @@ export function buildPackageArgs(options: PackageArgsInput): string[] {
   const labels = ladder.map((_, i) => `[s${i}]`).join('');
   const scales = ladder.map((r, i) => `[s${i}]scale=${r.width}:${r.height}[v${i}]`);
   // fps= makes variable-frame-rate phone footage constant so -g lands exactly on segment boundaries.
-  const filter = [`[0:v:0]fps=${fps},format=yuv420p,split=${ladder.length}${labels}`, ...scales].join(';');
+  // HDR sources are tone-mapped to BT.709 once, before the split: every rendition gets the mapped picture.
+  const filter = [`[0:v:0]${withToneMap(options.probe.colorTransfer, `fps=${fps},format=yuv420p,split=${ladder.length}${labels}`)}`, ...scales].join(';');
+  const toneMapped = sdrToneMapFilter(options.probe.colorTransfer) !== null;
 
   const args = ['-hide_banner', '-nostdin', '-y', '-loglevel', 'error', '-nostats', '-progress', 'pipe:1'];
   args.push('-i', options.input, '-filter_complex', filter);
@@ -156,6 +159,7 @@ export function buildPackageArgs(options: PackageArgsInput): string[] {
   });
   args.push('-c:v', 'libx264', '-preset', options.preset ?? 'veryfast', '-profile:v', 'high');
   args.push('-g', gop, '-keyint_min', gop, '-sc_threshold', '0');
+  if (toneMapped) args.push(...BT709_OUTPUT_TAGS);
   ladder.forEach((r, i) => {
     args.push(`-b:v:${i}`, `${r.videoKbps}k`, `-maxrate:v:${i}`, `${r.maxrateKbps}k`, `-bufsize:v:${i}`, `${r.bufsizeKbps}k`);
   });
@@ -184,7 +188,7 @@ export interface PosterArgsInput {
   input: string;
   /** Output JPEG path. */
   output: string;
-  probe: Pick<RecordingFacts, 'width' | 'height' | 'durationSeconds'>;
+  probe: Pick<RecordingFacts, 'width' | 'height' | 'durationSeconds' | 'colorTransfer'>;
   /** Where to take the frame, as a fraction of the duration. Default 0.1 (past intros and black frames). */
   atFraction?: number;
   /** Short side of the poster, never above the source. Default 720. */
@@ -202,7 +206,7 @@ export function buildPosterArgs(options: PosterArgsInput): string[] {
     '-i', options.input,
     '-map', '0:v:0',
     '-frames:v', '1',
-    '-vf', `scale=${size.width}:${size.height}`,
+    '-vf', withToneMap(options.probe.colorTransfer, `scale=${size.width}:${size.height}`),
     '-q:v', '3',
     '-f', 'image2', '-update', '1',
     options.output,
@@ -210,7 +214,7 @@ export function buildPosterArgs(options: PosterArgsInput): string[] {
 }
 
 /**
- * Arguments that decode the first audio stream to mono signed 16-bit little-endian PCM at
+ * Arguments that measure the first audio stream's integrated loudness (see loudness.ts) and decode it to mono signed 16-bit little-endian PCM at
  * `sampleRate` on stdout, for computing waveform peaks without writing a temporary file.
  * Pass the probed duration: ffmpeg 5.1 decodes AAC's end padding (≈11 ms here) that the MP4
  * edit list trims from the duration, and `-t` cuts it so peaks match the video exactly.
@@ -219,9 +223,12 @@ export function buildPeaksArgs(options: { input: string; sampleRate?: number; du
   const rate = options.sampleRate ?? PEAKS_PCM_SAMPLE_RATE;
   const limit = options.durationSeconds !== undefined && options.durationSeconds > 0 ? ['-t', options.durationSeconds.toFixed(6)] : [];
   return [
-    '-hide_banner', '-nostdin', '-loglevel', 'error',
+    // Info level for the loudness summary ebur128 prints at the end (its per-frame lines go at verbose).
+    '-hide_banner', '-nostdin', '-nostats', '-loglevel', 'info',
     '-i', options.input,
     '-map', '0:a:0', '-vn',
+    // Integrated loudness (ITU-R BS.1770-4 / EBU R 128) in the same decode, on the original channels and rate.
+    '-af', 'ebur128=framelog=verbose',
     '-ac', '1', '-ar', String(rate),
     ...limit,
     '-c:a', 'pcm_s16le', '-f', 's16le',

@@ -2,6 +2,8 @@
  * Decides whether a probed upload can become lesson media, with reasons a coach can act on.
  * Pure: ffprobe's JSON (or the fact that ffprobe could not read the file) goes in, a verdict comes out.
  */
+import { EBU_R128_TARGET_LUFS } from './loudness';
+import { LENGTH_MISMATCH_SECONDS, TRUNCATED_SHARE } from './media-length';
 
 /** One stream as the pipeline cares about it; everything else ffprobe says is dropped on purpose. */
 export interface ProbeStream {
@@ -19,6 +21,8 @@ export interface ProbeStream {
   channels?: number;
   /** Cover art in audio files shows up as a one-picture "video" stream: it is not a video track. */
   attachedPicture?: boolean;
+  /** Transfer characteristics (`bt709`, `arib-std-b67` = HLG, `smpte2084` = PQ), when tagged. */
+  colorTransfer?: string;
 }
 
 /** The narrow summary of `ffprobe -show_format -show_streams` that the rest of the pipeline uses. */
@@ -55,6 +59,10 @@ export interface RecordingFacts {
   hasAudio: boolean;
   videoCodec: string;
   audioCodec?: string;
+  /** What the container claims, when it differs from `durationSeconds` (or says nothing: null). */
+  containerSeconds?: number | null;
+  /** The picture's transfer characteristics; HDR ones are tone-mapped when packaging. */
+  colorTransfer?: string;
 }
 
 /** The verdict: either usable (maybe with warnings) or refused with one plain-language reason. */
@@ -68,6 +76,11 @@ export interface VerdictOptions {
   audioPeakDb?: number;
   /** Minimum recording length in seconds (10 s per issue 4). */
   minDurationSeconds?: number;
+  /**
+   * The length the video packets really cover (see media-length.ts); null when none could be
+   * read. When given, it is the length used, and the container's claim is only compared with it.
+   */
+  measuredSeconds?: number | null;
 }
 
 /** Audio whose loudest sample stays at or below this level is treated as silent. */
@@ -80,7 +93,9 @@ export const REASONS = {
     'We could not read this file as a video. Export the recording as MP4 (H.264), MOV, WebM or MKV and upload it again.',
   container: (name: string) =>
     `This file type (${name}) is not supported. Export the recording as MP4 (H.264), MOV, WebM or MKV and upload it again.`,
-  noVideo: 'This file has no video track. Upload the video recording of the class, not only its sound.',
+  photo: (kind: string) =>
+    `This file is a photo (${kind}), not a video. Upload the video recording of the class as MP4, MOV, WebM or MKV.`,
+  noVideo: 'This file has no picture, only sound. Upload the video recording of the class, not only its sound.',
   truncated:
     'The file ends early: it looks truncated. Copy or export it again from the camera or editing app and upload it once more.',
   tooShort: (seconds: number, min: number) =>
@@ -91,7 +106,28 @@ export const REASONS = {
 export const WARNINGS = {
   noAudio: 'This recording has no sound track: members will watch it without sound.',
   silentAudio: 'The sound track of this recording is silent: check the microphone before the next recording.',
+  cutShort: (realSeconds: number, claimedSeconds: number) =>
+    `The file says it is ${formatLength(claimedSeconds)} long, but its picture stops at ${formatLength(realSeconds)}: ` +
+    `the end is missing (the copy or export was cut off). The class uses the ${formatLength(realSeconds)} that are there; ` +
+    'upload a complete copy if the end matters.',
+  quiet: (lufs: number) =>
+    `The sound of this recording is very quiet (${lufs.toFixed(0)} LUFS; classes are easy to follow near ${EBU_R128_TARGET_LUFS} LUFS), ` +
+    'so members will have to turn their volume far up. The waveform is shown louder so you can still mark it. ' +
+    'Before the next recording, put the microphone closer or raise its level.',
 } as const;
+
+/** Photo formats as ffprobe names them; a photo renamed .mp4 is read as one of these. */
+const PHOTO_FORMATS: Record<string, string> = {
+  jpeg_pipe: 'JPEG',
+  png_pipe: 'PNG',
+  webp_pipe: 'WebP',
+  gif: 'GIF',
+  gif_pipe: 'GIF',
+  bmp_pipe: 'BMP',
+  tiff_pipe: 'TIFF',
+  heif: 'HEIF',
+  image2: 'picture',
+};
 
 // ffprobe lists every name a demuxer answers to; these demuxers cover MP4, MOV, WebM and MKV.
 const ACCEPTED_FORMAT_NAMES = new Set(['mov', 'mp4', 'matroska', 'webm']);
@@ -114,6 +150,17 @@ export function sniffContainer(head: Uint8Array, sizeBytes: number = head.length
 }
 
 /**
+ * Whether the packets are worth measuring: a readable file in a video container with a picture.
+ * Photos, documents and sound-only files are refused from the header alone.
+ */
+export function needsMeasuring(probe: ProbeSummary | UnreadableProbe): probe is ProbeSummary {
+  if ('unreadable' in probe) return false;
+  const names = probe.formatName.split(',').map((n) => n.trim());
+  if (names.some((n) => PHOTO_FORMATS[n]) || !names.some((n) => ACCEPTED_FORMAT_NAMES.has(n))) return false;
+  return probe.streams.some((s) => s.type === 'video' && !s.attachedPicture);
+}
+
+/**
  * Judges a probe result. Order matters: the first problem a coach can fix is the one we report.
  */
 export function probeVerdict(probe: ProbeSummary | UnreadableProbe, options: VerdictOptions = {}): ProbeVerdict {
@@ -127,6 +174,8 @@ export function probeVerdict(probe: ProbeSummary | UnreadableProbe, options: Ver
   }
 
   const names = probe.formatName.split(',').map((n) => n.trim());
+  const photo = names.map((n) => PHOTO_FORMATS[n]).find(Boolean);
+  if (photo) return { ok: false, reason: REASONS.photo(photo) };
   if (!names.some((n) => ACCEPTED_FORMAT_NAMES.has(n))) {
     return { ok: false, reason: REASONS.container(names[0] || 'unknown') };
   }
@@ -134,10 +183,28 @@ export function probeVerdict(probe: ProbeSummary | UnreadableProbe, options: Ver
   const video = probe.streams.find((s) => s.type === 'video' && !s.attachedPicture);
   if (!video) return { ok: false, reason: REASONS.noVideo };
 
-  const duration = probe.durationSeconds;
-  if (duration === null || !Number.isFinite(duration) || duration <= 0) return { ok: false, reason: REASONS.truncated };
+  const claimed = probe.durationSeconds !== null && Number.isFinite(probe.durationSeconds) && probe.durationSeconds > 0 ? probe.durationSeconds : null;
+  const measured = options.measuredSeconds;
   if (video.frames === 0) return { ok: false, reason: REASONS.truncated };
   if (!video.width || !video.height) return { ok: false, reason: REASONS.truncated };
+  const warnings: string[] = [];
+  let duration: number;
+  let containerSeconds: number | null | undefined;
+  if (measured === undefined) {
+    // Not measured (callers that only read the header): the container's word is all there is.
+    if (claimed === null) return { ok: false, reason: REASONS.truncated };
+    duration = claimed;
+  } else {
+    // The packets decide; a container without a duration (browser WebM) is fine.
+    if (measured === null || measured <= 0) return { ok: false, reason: REASONS.truncated };
+    duration = measured;
+    if (claimed === null) containerSeconds = null;
+    else if (Math.abs(claimed - measured) > LENGTH_MISMATCH_SECONDS) {
+      if (measured < claimed * TRUNCATED_SHARE) return { ok: false, reason: REASONS.truncated };
+      containerSeconds = claimed;
+      warnings.push(WARNINGS.cutShort(measured, claimed));
+    } else duration = claimed; // within a second: keep the container's exact figure
+  }
 
   if (duration < minDuration) return { ok: false, reason: REASONS.tooShort(duration, minDuration) };
 
@@ -145,12 +212,11 @@ export function probeVerdict(probe: ProbeSummary | UnreadableProbe, options: Ver
   // media data should take; a file much smaller than that was cut off after its index (faststart files).
   const indexedBits = probe.streams.reduce((sum, s) => sum + (s.bitRate ?? 0), 0);
   if (probe.sizeBytes !== undefined && indexedBits > 0 && names.includes('mov')) {
-    const expectedBytes = (indexedBits * duration) / 8;
+    const expectedBytes = (indexedBits * (claimed ?? duration)) / 8;
     if (probe.sizeBytes < expectedBytes * 0.9) return { ok: false, reason: REASONS.truncated };
   }
 
   const audio = probe.streams.find((s) => s.type === 'audio');
-  const warnings: string[] = [];
   if (!audio) warnings.push(WARNINGS.noAudio);
   else if (options.audioPeakDb !== undefined && options.audioPeakDb <= SILENT_AUDIO_DB) warnings.push(WARNINGS.silentAudio);
 
@@ -163,6 +229,8 @@ export function probeVerdict(probe: ProbeSummary | UnreadableProbe, options: Ver
   };
   if (video.frameRate !== undefined) summary.frameRate = video.frameRate;
   if (audio) summary.audioCodec = audio.codec;
+  if (containerSeconds !== undefined) summary.containerSeconds = containerSeconds;
+  if (video.colorTransfer) summary.colorTransfer = video.colorTransfer;
   return { ok: true, warnings, summary };
 }
 
@@ -213,6 +281,7 @@ function parseStream(s: Record<string, unknown>): ProbeStream {
   const channels = toNumber(s.channels);
   if (channels !== undefined) stream.channels = channels;
   if (asRecord(s.disposition).attached_pic === 1) stream.attachedPicture = true;
+  if (typeof s.color_transfer === 'string' && s.color_transfer !== 'unknown') stream.colorTransfer = s.color_transfer;
   return stream;
 }
 
@@ -244,6 +313,14 @@ function toNumber(value: unknown): number | undefined {
 
 function asRecord(value: unknown): Record<string, unknown> {
   return value !== null && typeof value === 'object' && !Array.isArray(value) ? (value as Record<string, unknown>) : {};
+}
+
+/** m:ss.s, as coaches read a length with its tenth (28.47 s → 0:28.5). */
+function formatLength(seconds: number): string {
+  const tenths = Math.round(seconds * 10);
+  const m = Math.floor(tenths / 600);
+  const s = (tenths % 600) / 10;
+  return `${m}:${s < 10 ? '0' : ''}${s.toFixed(1)}`;
 }
 
 function formatSeconds(seconds: number): string {

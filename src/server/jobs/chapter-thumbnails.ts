@@ -24,7 +24,7 @@ export const chapterThumbnails: JobHandler<'version.thumbnails'> = async ({ vers
   const source = join(dir, 'source');
   await ensureSource(ctx.s3, ctx.bucket, row.rec.sourceKey, source, row.rec.sizeBytes, ctx.signal);
   for (const c of chapters) {
-    await runFfmpeg(buildChapterThumbnailArgs({ input: source, output: join(out, `${c.index + 1}.jpg`), chapter: c }), { signal: ctx.signal });
+    await runFfmpeg(buildChapterThumbnailArgs({ input: source, output: join(out, `${c.index + 1}.jpg`), chapter: c, colorTransfer: row.rec.colorTransfer }), { signal: ctx.signal });
   }
   await uploadFolder(ctx.s3, ctx.bucket, out, `${recordingPrefix(row.rec)}media/chapters/${versionId}/`, ctx.signal);
   await cleanScratch(dir);

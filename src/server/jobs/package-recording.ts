@@ -1,9 +1,10 @@
 import { mkdir, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { buildPackageArgs, buildPosterArgs, chooseLadder } from '~/lib/media/hls-ladder';
+import { displayGainDb, isTooQuiet, scalePeaks } from '~/lib/media/loudness';
 import { encodePeaks, peaksMaxDb, silentPeaks, DEFAULT_PEAKS_RATE } from '~/lib/media/peaks';
 import { SILENT_AUDIO_DB, WARNINGS } from '~/lib/media/probe-verdict';
-import { computeFilePeaks, runFfmpeg } from '../media/ffmpeg-runner';
+import { analyseAudio, runFfmpeg } from '../media/ffmpeg-runner';
 import { libraryChanged } from '../services/library';
 import { recordingPrefix } from '../services/recordings';
 import { applyEvent, loadRecording, markReady, reportProgress, startHeartbeat } from '../services/recording-lifecycle';
@@ -21,7 +22,14 @@ export const packageRecording: JobHandler<'recording.package'> = async ({ record
     return { outcome: 'skipped', detail: `recording is ${rec ? `${rec.state}/${rec.step}` : 'gone'}` };
   }
   if (!rec.durationSeconds || !rec.width || !rec.height) return { outcome: 'skipped', detail: 'no probe facts' };
-  const facts = { durationSeconds: rec.durationSeconds, width: rec.width, height: rec.height, frameRate: rec.frameRate ?? 30, hasAudio: !!rec.hasAudio };
+  const facts = {
+    durationSeconds: rec.durationSeconds,
+    width: rec.width,
+    height: rec.height,
+    frameRate: rec.frameRate ?? 30,
+    hasAudio: !!rec.hasAudio,
+    colorTransfer: rec.colorTransfer ?? undefined,
+  };
   const dir = recordingDir(ctx.workDir, rec.id);
   const source = join(dir, 'source');
   const out = join(dir, 'media');
@@ -48,13 +56,17 @@ export const packageRecording: JobHandler<'recording.package'> = async ({ record
     });
     await runFfmpeg(buildPosterArgs({ input: source, output: join(out, 'poster.jpg'), probe: facts }), { signal: ctx.signal });
     await reportProgress(ctx.deps, rec.id, step, 92);
-    const peaks = facts.hasAudio
-      ? await computeFilePeaks(source, DEFAULT_PEAKS_RATE, { durationSeconds: facts.durationSeconds, signal: ctx.signal })
-      : silentPeaks(facts.durationSeconds, DEFAULT_PEAKS_RATE);
-    await writeFile(join(out, 'peaks.bin'), encodePeaks(peaks));
+    const audio = facts.hasAudio
+      ? await analyseAudio(source, DEFAULT_PEAKS_RATE, { durationSeconds: facts.durationSeconds, signal: ctx.signal })
+      : { peaks: silentPeaks(facts.durationSeconds, DEFAULT_PEAKS_RATE), integratedLufs: null };
+    // The waveform (and the editor's onset finding, which reads it) is lifted by the measured loudness.
+    await writeFile(join(out, 'peaks.bin'), encodePeaks(scalePeaks(audio.peaks, displayGainDb(audio.integratedLufs))));
     const warnings = [...rec.warnings];
-    if (facts.hasAudio && peaksMaxDb(peaks) <= SILENT_AUDIO_DB && !warnings.includes(WARNINGS.silentAudio)) {
-      warnings.push(WARNINGS.silentAudio);
+    const silent = facts.hasAudio && peaksMaxDb(audio.peaks) <= SILENT_AUDIO_DB;
+    if (silent && !warnings.includes(WARNINGS.silentAudio)) warnings.push(WARNINGS.silentAudio);
+    if (!silent && isTooQuiet(audio.integratedLufs)) {
+      const quiet = WARNINGS.quiet(audio.integratedLufs!);
+      if (!warnings.includes(quiet)) warnings.push(quiet);
     }
     if (rec.step === 'package') {
       if (!(await applyEvent(ctx.deps, rec, 'packaged'))) return { outcome: 'skipped', detail: 'changed meanwhile' };
@@ -64,6 +76,7 @@ export const packageRecording: JobHandler<'recording.package'> = async ({ record
     await uploadFolder(ctx.s3, ctx.bucket, out, prefix, ctx.signal);
     const ready = await markReady(ctx.deps, rec, {
       durationSeconds: facts.durationSeconds,
+      loudnessLufs: audio.integratedLufs,
       warnings,
       outputPrefix: prefix,
       renditions: ladder,

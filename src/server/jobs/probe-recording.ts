@@ -1,6 +1,7 @@
 import { join } from 'node:path';
-import { probeVerdict } from '~/lib/media/probe-verdict';
-import { probeFile } from '../media/ffmpeg-runner';
+import { packetLength } from '~/lib/media/media-length';
+import { needsMeasuring, probeVerdict } from '~/lib/media/probe-verdict';
+import { lastVideoPacketSeconds, probeFile } from '../media/ffmpeg-runner';
 import { applyEvent, loadRecording, reportProgress } from '../services/recording-lifecycle';
 import type { JobHandler } from './job-context';
 import { ensureSource, recordingDir } from './recording-files';
@@ -12,7 +13,14 @@ export const probeRecording: JobHandler<'recording.probe'> = async ({ recordingI
   await reportProgress(ctx.deps, rec.id, 'probe', 0);
   const source = join(recordingDir(ctx.workDir, rec.id), 'source');
   await ensureSource(ctx.s3, ctx.bucket, rec.sourceKey, source, rec.sizeBytes, ctx.signal);
-  const verdict = probeVerdict(await probeFile(source));
+  const probe = await probeFile(source);
+  // The packets, not the container's claim, decide the length: browser WebM claims nothing, a cut file too much.
+  let measuredSeconds: number | null | undefined;
+  if (needsMeasuring(probe)) {
+    const frameRate = probe.streams.find((s) => s.type === 'video' && !s.attachedPicture)?.frameRate;
+    measuredSeconds = packetLength(await lastVideoPacketSeconds(source, ctx.signal), frameRate);
+  }
+  const verdict = probeVerdict(probe, measuredSeconds === undefined ? {} : { measuredSeconds });
   if (!verdict.ok) {
     await applyEvent(ctx.deps, rec, 'refused', { failureReason: verdict.reason });
     return { outcome: 'failed', detail: verdict.reason };
@@ -24,6 +32,8 @@ export const probeRecording: JobHandler<'recording.probe'> = async ({ recordingI
     height: facts.height,
     frameRate: facts.frameRate ?? null,
     hasAudio: facts.hasAudio,
+    containerSeconds: facts.containerSeconds ?? null,
+    colorTransfer: facts.colorTransfer ?? null,
     warnings: verdict.warnings,
   });
   if (moved) await ctx.send('recording.package', { recordingId: rec.id }, `recording.package:${rec.id}`);

@@ -18,6 +18,8 @@ import {
   type UnreadableProbe,
 } from '~/lib/media/probe-verdict';
 import { createProgressParser, type FfmpegProgress } from '~/lib/media/progress';
+import { parseIntegratedLoudness } from '~/lib/media/loudness';
+import { buildMeasureArgs } from '~/lib/media/media-length';
 
 /** Program paths (src/server/env.ts). */
 export const FFMPEG_PATH = settings().FFMPEG_PATH;
@@ -135,6 +137,26 @@ async function readHead(path: string, bytes: number): Promise<Uint8Array> {
   }
 }
 
+/**
+ * Where the first video stream's last packet starts, in seconds, read without decoding (see
+ * media-length.ts); null when no packet could be read.
+ */
+export async function lastVideoPacketSeconds(path: string, signal?: AbortSignal): Promise<number | null> {
+  let last = 0;
+  try {
+    await runFfmpeg(buildMeasureArgs(path), {
+      ...(signal ? { signal } : {}),
+      onProgress: (p) => {
+        last = Math.max(last, p.outTimeSeconds);
+      },
+    });
+  } catch (error) {
+    if (error instanceof FfmpegError && error.exitCode !== null) return null; // the packets cannot be read at all
+    throw error;
+  }
+  return last > 0 ? last : null;
+}
+
 /** Options of {@link computeFilePeaks} and {@link readPeaks}. */
 export interface PeaksReadOptions {
   /** The probed duration: peaks then cover exactly that (see buildPeaksArgs). */
@@ -147,6 +169,14 @@ export interface PeaksReadOptions {
  * classes). Rejects with {@link FfmpegError} when the file has no audio; use `silentPeaks` then.
  */
 export async function computeFilePeaks(path: string, rate = 100, options: PeaksReadOptions = {}): Promise<Peaks> {
+  return (await analyseAudio(path, rate, options)).peaks;
+}
+
+/**
+ * One decode of the first audio stream gives both its peaks and its integrated loudness in LUFS
+ * (ITU-R BS.1770-4 via ffmpeg's ebur128; null when nothing is above the gates).
+ */
+export async function analyseAudio(path: string, rate = 100, options: PeaksReadOptions = {}): Promise<{ peaks: Peaks; integratedLufs: number | null }> {
   const sampleRate = PEAKS_PCM_SAMPLE_RATE;
   const acc = createPeaksAccumulator(sampleRate, rate);
   let carry: Buffer | null = null; // an odd byte left between chunks
@@ -165,8 +195,8 @@ export async function computeFilePeaks(path: string, rate = 100, options: PeaksR
   const args = options.durationSeconds === undefined
     ? buildPeaksArgs({ input: path, sampleRate })
     : buildPeaksArgs({ input: path, sampleRate, durationSeconds: options.durationSeconds });
-  await runFfmpeg(args, run);
-  return acc.finish();
+  const { stderrTail } = await runFfmpeg(args, run);
+  return { peaks: acc.finish(), integratedLufs: parseIntegratedLoudness(stderrTail) };
 }
 
 /** The encoded peaks file (see peaks.ts) for a recording's first audio stream. */

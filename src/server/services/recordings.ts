@@ -51,6 +51,8 @@ export function toRecordingOutput(r: RecordingRow, currentId: string | null): Re
     failureReason: r.failureReason,
     warnings: r.warnings,
     durationSeconds: r.durationSeconds,
+    containerSeconds: r.containerSeconds,
+    loudnessLufs: r.loudnessLufs,
     width: r.width,
     height: r.height,
     isCurrent: r.id === currentId,
