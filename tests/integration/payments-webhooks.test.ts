@@ -5,9 +5,9 @@
  * that events may be repeated and may arrive out of order.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import { createDb } from '~/server/db';
-import { webhookEvents } from '~/db/schema';
+import { studios, subscriptions, users, webhookEvents } from '~/db/schema';
 import type { ApiClient } from '../helpers/api-client';
 import { advance, holdWebhooks, membership, newMember, registerWebhook, subscribe, testStripe, waitForMembership, WEBHOOK_SECRET } from '../helpers/payments';
 
@@ -60,6 +60,34 @@ describe('POST /api/payments/webhook', () => {
     expect(await db.select().from(webhookEvents).where(eq(webhookEvents.id, forged.id))).toEqual([]);
   });
 
+  it('refuses a signature dated beyond the tolerance in the future as well as in the past', async () => {
+    const before = await membership(member);
+    const sub = await stripe.subscriptions.retrieve(subId);
+    const event = { id: `evt_future_${Date.now()}`, object: 'event', type: 'customer.subscription.updated', created: Math.floor(Date.now() / 1000), data: { object: { ...sub, status: 'canceled' } } };
+    const payload = JSON.stringify(event);
+    const ahead = stripe.webhooks.generateTestHeaderString({ payload, secret: WEBHOOK_SECRET, timestamp: Math.floor(Date.now() / 1000) + 3600 });
+    const res = await postEvent(member, payload, ahead);
+    expect(res.status).toBe(400);
+    expect((await res.json()).error.message).toMatch(/dated in the future/);
+    expect(await membership(member)).toEqual(before);
+    expect(await db.select().from(webhookEvents).where(eq(webhookEvents.id, event.id))).toEqual([]);
+  });
+
+  it('never creates a subscription for someone who is not a member of that studio', async () => {
+    // Someone with an account but no membership in this studio.
+    const strangerId = `stranger-${Date.now()}`;
+    await db.insert(users).values({ id: strangerId, email: `${strangerId}@test.example`, name: 'Stranger', passwordHash: 'not used' });
+    const [fernhill] = await db.select().from(studios).where(eq(studios.slug, 'fernhill'));
+    const sub = await stripe.subscriptions.retrieve(subId);
+    const stranger = { ...sub, id: `sub_stranger_${Date.now()}`, status: 'active', metadata: { studioId: fernhill!.id, userId: strangerId } };
+    const event = { id: `evt_stranger_${Date.now()}`, object: 'event', type: 'customer.subscription.created', created: Math.floor(Date.now() / 1000), data: { object: stranger } };
+    const payload = JSON.stringify(event);
+    const res = await postEvent(member, payload, stripe.webhooks.generateTestHeaderString({ payload, secret: WEBHOOK_SECRET }));
+    expect(res.status).toBe(200);
+    expect(await res.json()).toMatchObject({ applied: false, reason: 'not a member of that studio' });
+    expect(await db.select().from(subscriptions).where(and(eq(subscriptions.userId, strangerId), eq(subscriptions.studioId, fernhill!.id)))).toEqual([]);
+  });
+
   it('applies the same event once, however often it arrives', async () => {
     await holdWebhooks(true);
     await advance(subId, 'end_trial');
@@ -96,5 +124,32 @@ describe('POST /api/payments/webhook', () => {
     await new Promise((r) => setTimeout(r, 1500)); // let the older events arrive too
     expect(await membership(member)).toEqual(m);
     expect(m).toMatchObject({ status: 'canceled', entitled: false, cancelAtPeriodEnd: false });
+  });
+});
+
+describe('event order', () => {
+  it('ends in the provider’s state when two events of the same second arrive reversed', async () => {
+    // A member of its own, so the other tests' subscription keeps its trial.
+    const { client: payer } = await newMember('same-second');
+    const sub2 = await subscribe(payer);
+    await waitForMembership(payer, (m) => m.status === 'trialing', 'trialing');
+    await advance(sub2, 'end_trial');
+    await waitForMembership(payer, (m) => m.status === 'active', 'active');
+    await holdWebhooks(true);
+    await advance(sub2, 'fail_payment'); // past_due
+    await advance(sub2, 'pay'); // active again
+    expect((await stripe.subscriptions.retrieve(sub2)).status).toBe('active');
+    const held = (await eventsFor(sub2, ['customer.subscription.updated'])).slice(-2);
+    expect(held.map((e) => (e.data.object as { status: string }).status)).toEqual(['past_due', 'active']);
+    // Both stamped with the same second, as happens when the provider sends them back to back;
+    // delivered newest first. Ordering by the event's time cannot tell them apart.
+    const second = held[1]!.created;
+    for (const e of [held[1]!, held[0]!]) {
+      const payload = JSON.stringify({ ...e, created: second });
+      const res = await postEvent(payer, payload, stripe.webhooks.generateTestHeaderString({ payload, secret: WEBHOOK_SECRET }));
+      expect(res.status).toBe(200);
+    }
+    expect((await membership(payer)).status).toBe('active');
+    await holdWebhooks(false);
   });
 });

@@ -1,6 +1,6 @@
 import { and, eq } from 'drizzle-orm';
 import type Stripe from 'stripe';
-import { studios, subscriptions, users, webhookEvents } from '~/db/schema';
+import { memberships, subscriptions, webhookEvents } from '~/db/schema';
 import { SUBSCRIPTION_STATUSES } from '~/lib/api/billing-schemas';
 import { webhookEventSchema } from '~/lib/billing/webhook-event-schema';
 import { AppError } from '../errors';
@@ -12,16 +12,24 @@ type Tx = Parameters<Parameters<BillingDeps['db']['transaction']>[0]>[0];
 type Status = (typeof SUBSCRIPTION_STATUSES)[number];
 const LIVE: string[] = ['trialing', 'active', 'past_due'];
 
+/** How far a signature's time may be from ours, either way (the SDK's default tolerance). */
+export const WEBHOOK_TOLERANCE_SECONDS = 300;
+
 /**
- * Verifies a webhook with the SDK (signature and a 5-minute timestamp tolerance) and applies it.
- * A forged or stale signature changes nothing and answers 400.
+ * Verifies a webhook with the SDK (signature, and a timestamp at most 5 minutes old) and applies
+ * it. The SDK accepts any timestamp in the future, so one dated ahead is refused here: a forged or
+ * stale signature, either way, changes nothing and answers 400.
  */
 export async function receiveWebhook(deps: BillingDeps, payload: string, signature: string | null, secret: string) {
   let event: Stripe.Event;
   try {
-    event = deps.stripe.webhooks.constructEvent(payload, signature ?? '', secret);
+    event = deps.stripe.webhooks.constructEvent(payload, signature ?? '', secret, WEBHOOK_TOLERANCE_SECONDS);
   } catch {
     throw new AppError('invalid_input', 'The webhook signature does not match, so the event was not applied.');
+  }
+  const signedAt = Number(/(?:^|,)\s*t=(\d+)/.exec(signature ?? '')?.[1]);
+  if (!(signedAt <= Math.floor(Date.now() / 1000) + WEBHOOK_TOLERANCE_SECONDS)) {
+    throw new AppError('invalid_input', 'The webhook signature is dated in the future, so the event was not applied.');
   }
   if (!webhookEventSchema.safeParse(event).success) {
     throw new AppError('invalid_input', 'The event is signed but does not have the shape its type promises, so it was not applied.');
@@ -48,14 +56,35 @@ export async function applyEvent(deps: BillingDeps, event: Stripe.Event): Promis
 
 type ApplyResult = { applied: boolean; reason?: string; paymentFailed?: { userId: string; studioId: string }; accessChangedIn?: string };
 
+/**
+ * The subscription as the provider holds it now. Events can arrive in any order and several in
+ * one second, so the event's own copy may be stale; the provider's documentation advises fetching
+ * the object. A subscription the provider no longer knows falls back to the event's copy; the
+ * provider being unreachable answers 503, and the provider sends the event again later.
+ */
+async function currentSubscription(deps: BillingDeps, id: string, fallback?: Stripe.Subscription): Promise<Stripe.Subscription> {
+  try {
+    return await deps.stripe.subscriptions.retrieve(id);
+  } catch (err) {
+    const e = err as { statusCode?: number; code?: string };
+    if (fallback && (e.statusCode === 404 || e.code === 'resource_missing')) return fallback;
+    throw new AppError('unavailable', 'The payment service could not be reached to read the subscription; the event will be retried.');
+  }
+}
+
 async function applyInTransaction(deps: BillingDeps, event: Stripe.Event): Promise<ApplyResult> {
   // Fetched before the transaction so no network call holds it open.
   let fetched: Stripe.Subscription | null = null;
   if (event.type === 'checkout.session.completed') {
     const session = event.data.object;
     if (session.mode === 'subscription' && session.subscription) {
-      fetched = typeof session.subscription === 'string' ? await deps.stripe.subscriptions.retrieve(session.subscription) : session.subscription;
+      const sub = session.subscription;
+      fetched = await currentSubscription(deps, typeof sub === 'string' ? sub : sub.id, typeof sub === 'string' ? undefined : sub);
     }
+  }
+  if (event.type.startsWith('customer.subscription.')) {
+    const sub = event.data.object as Stripe.Subscription;
+    fetched = await currentSubscription(deps, sub.id, sub);
   }
   return deps.db.transaction(async (tx) => {
     const [fresh] = await tx.insert(webhookEvents).values({ id: event.id, type: event.type }).onConflictDoNothing().returning({ id: webhookEvents.id });
@@ -65,12 +94,13 @@ async function applyInTransaction(deps: BillingDeps, event: Stripe.Event): Promi
       case 'checkout.session.completed': {
         if (!fetched) return { applied: false, reason: 'not a subscription checkout' };
         const session = event.data.object;
-        return applySubscription(tx, fetched, at, { userId: session.client_reference_id ?? undefined, studioId: session.metadata?.studioId });
+        return applySubscription(tx, fetched, at, { userId: session.client_reference_id ?? undefined, studioId: session.metadata?.studioId }, { current: true });
       }
       case 'customer.subscription.created':
       case 'customer.subscription.updated':
       case 'customer.subscription.deleted':
-        return applySubscription(tx, event.data.object, at);
+        // The provider's current state, whatever order the events came in.
+        return applySubscription(tx, fetched!, at, {}, { current: true });
       case 'invoice.payment_failed': {
         const subId = subscriptionIdOf(event.data.object);
         if (subId) {
@@ -98,18 +128,26 @@ function subscriptionIdOf(invoice: Stripe.Invoice): string | null {
   return typeof sub === 'string' ? sub : (sub?.id ?? null);
 }
 
-async function applySubscription(tx: Tx, sub: Stripe.Subscription, at: Date, hint: { userId?: string; studioId?: string } = {}) {
+async function applySubscription(
+  tx: Tx,
+  sub: Stripe.Subscription,
+  at: Date,
+  hint: { userId?: string; studioId?: string } = {},
+  { current = false } = {},
+) {
   const studioId = hint.studioId ?? sub.metadata?.studioId;
   const userId = hint.userId ?? sub.metadata?.userId;
   let [row] = await tx.select().from(subscriptions).where(eq(subscriptions.providerSubscriptionId, sub.id)).for('update');
   if (!row) {
     if (!studioId || !userId || !/^[0-9a-f-]{36}$/i.test(studioId)) return { applied: false, reason: 'no studio or member named' };
-    const [known] = await tx
-      .select({ id: users.id })
-      .from(users)
-      .innerJoin(studios, eq(studios.id, studioId))
-      .where(eq(users.id, userId));
-    if (!known) return { applied: false, reason: 'unknown member or studio' };
+    // Only someone who belongs to that studio can hold its subscription (metadata is whatever the
+    // checkout was given; a subscription made elsewhere must not grant a stranger access).
+    const [member] = await tx
+      .select({ userId: memberships.userId })
+      .from(memberships)
+      .where(and(eq(memberships.studioId, studioId), eq(memberships.userId, userId)))
+      .limit(1);
+    if (!member) return { applied: false, reason: 'not a member of that studio' };
     [row] = await tx.select().from(subscriptions).where(and(eq(subscriptions.studioId, studioId), eq(subscriptions.userId, userId))).for('update');
     // A late event about an ended subscription must not replace the member's newer, running one.
     if (row?.providerSubscriptionId && row.providerSubscriptionId !== sub.id && LIVE.includes(row.status) && !LIVE.includes(sub.status)) {
@@ -117,7 +155,9 @@ async function applySubscription(tx: Tx, sub: Stripe.Subscription, at: Date, hin
     }
     if (row?.providerSubscriptionId && row.providerSubscriptionId !== sub.id) row = { ...row, lastEventAt: null };
   }
-  if (row?.lastEventAt && at < row.lastEventAt) return { applied: false, reason: 'older than the last event applied' };
+  // A state fetched from the provider just now is never older than what is stored; an event's
+  // own copy (checkout fallback, membership sync) may be.
+  if (!current && row?.lastEventAt && at < row.lastEventAt) return { applied: false, reason: 'older than the last event applied' };
 
   const status = (SUBSCRIPTION_STATUSES as readonly string[]).includes(sub.status) ? (sub.status as Status) : 'incomplete';
   const item = sub.items?.data?.[0];
@@ -130,7 +170,7 @@ async function applySubscription(tx: Tx, sub: Stripe.Subscription, at: Date, hin
     currentPeriodEnd: periodEnd ? new Date(periodEnd * 1000) : null,
     cancelAtPeriodEnd: status !== 'canceled' && (sub.cancel_at_period_end || sub.cancel_at != null),
     pastDueSince: status === 'past_due' ? (row?.status === 'past_due' && row.pastDueSince ? row.pastDueSince : new Date()) : null,
-    lastEventAt: at,
+    lastEventAt: row?.lastEventAt && row.lastEventAt > at ? row.lastEventAt : at,
     updatedAt: new Date(),
     promoCode: sub.metadata?.promoCode || (row?.providerSubscriptionId === sub.id ? row.promoCode : null),
   };
