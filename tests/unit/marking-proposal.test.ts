@@ -141,3 +141,15 @@ describe('boundary candidates (invented events)', () => {
     expect(findBoundaryCandidates([word(1), word(3), word(5), word(7)])).toEqual([]);
   });
 });
+
+describe('review order of uncertain boundaries', () => {
+  const b = (atSeconds: number, confidence: number) => ({ atSeconds, confidence, evidence: 'plan' as const });
+  const list = [b(10, 0.9), b(20, 0.2), b(30, 0.95), b(40, 0.5)];
+  it('goes to the next uncertain boundary after the one under review, then wraps', async () => {
+    const { nextUncertainIndex } = await import('~/lib/marking/review');
+    expect(nextUncertainIndex(list, -1, 0.6)).toBe(1);
+    expect(nextUncertainIndex(list, 20, 0.6)).toBe(3);
+    expect(nextUncertainIndex(list, 40, 0.6)).toBe(1);
+    expect(nextUncertainIndex([b(10, 0.9)], -1, 0.6)).toBeNull();
+  });
+});

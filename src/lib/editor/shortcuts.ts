@@ -18,6 +18,7 @@ export type ShortcutCommand =
   | 'undo'
   | 'redo'
   | 'layout'
+  | 'next-uncertain'
   | 'toggle-snap'
   | 'zoom-in'
   | 'zoom-out'
@@ -47,6 +48,7 @@ export const SHORTCUTS: readonly Shortcut[] = [
   { command: 'undo', keys: 'Ctrl + Z', description: 'Undo (as far back as this session goes)' },
   { command: 'redo', keys: 'Ctrl + Shift + Z or Ctrl + Y', description: 'Redo' },
   { command: 'layout', keys: 'L', description: 'Lay out the plan from the playhead' },
+  { command: 'next-uncertain', keys: 'U', description: 'With a "Mark it for me" proposal open: play 3 s around the next uncertain boundary' },
   { command: 'toggle-snap', keys: 'N', description: 'Snapping on or off (hold Alt while dragging to place freely)' },
   { command: 'zoom-in', keys: '+', description: 'Zoom in' },
   { command: 'zoom-out', keys: '−', description: 'Zoom out' },
@@ -96,6 +98,8 @@ export function commandForKey(e: KeyInput): { command: ShortcutCommand; index?: 
       return { command: 'delete' };
     case 'l':
       return { command: 'layout' };
+    case 'u':
+      return { command: 'next-uncertain' };
     case 'n':
       return { command: 'toggle-snap' };
     case '+':

@@ -17,6 +17,7 @@ import SegmentInspector from './SegmentInspector';
 import SegmentList from './SegmentList';
 import ShortcutHelp from './ShortcutHelp';
 import ConflictDialog from './ConflictDialog';
+import { MarkItForMeButton, ProposalLayer } from './MarkItForMe';
 
 export interface TimelineEditorProps {
   lessonId: string;
@@ -104,11 +105,12 @@ function Editor({ lessonId, data, peaks }: { lessonId: string; data: EditorData;
         onReady={() => c.setReady(true)}
         onMediaError={c.setMediaError}
         noRecordingNote={noRecordingNote(data.preparing)}
-        toolbar={<EditorToolbar c={c} extra={<InsertSegmentTool c={c} />} />}
+        toolbar={<EditorToolbar c={c} extra={<><InsertSegmentTool c={c} /><MarkItForMeButton c={c} /></>} />}
         beside={<FindingsPanel result={c.check} hasPlan={c.plan !== null} onShow={h.onShowFinding} onApplyFix={h.onApplyFix} onMarkHere={h.onMarkHere} onLeaveOut={(f) => void h.onLeaveOut(f)} onApplyAll={h.onApplyAll} />}
       />
       <TimelineFileTools c={c} fileName={`timeline-${data.lesson.title.replace(/[^\p{L}\p{N}]+/gu, '-').toLowerCase()}`} />
       {c.planMessage && <p role="status" className="rounded-[10px] bg-info/10 p-3 text-sm font-semibold" data-plan-message>{c.planMessage}</p>}
+      <ProposalLayer c={c} />
       <p className="sr-only" aria-live="polite" data-notice>{state.notice ?? ''}</p>
       {state.notice && <p className="text-sm text-ink-soft" aria-hidden="true">{state.notice}</p>}
       {c.helpOpen && <ShortcutHelp onClose={() => c.setHelpOpen(false)} />}

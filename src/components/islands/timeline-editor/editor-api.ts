@@ -2,6 +2,7 @@
 import { planSchema, type Plan } from '~/lib/plan/plan-schema';
 import { timelineContentSchema, type Timeline } from '~/lib/timeline/timeline-schema';
 import { decodePeaks, type Peaks } from '~/lib/media/peaks';
+import { proposalOutput, type ProposalOutput } from '~/lib/api/marking-schemas';
 import { apiCall, ApiError } from '../api-client';
 
 /** Calls our API; the messages remind that the marks stay on this device. */
@@ -90,4 +91,9 @@ export async function loadPeaks(url: string): Promise<Peaks> {
   const res = await fetch(url, { credentials: 'same-origin' });
   if (!res.ok) throw new ApiError('The waveform could not be loaded. Reload the page to try again.', res.status, 'peaks');
   return decodePeaks(new Uint8Array(await res.arrayBuffer()));
+}
+
+/** "Mark it for me": the proposed timeline (nothing is saved). The API's message explains a 409 or 422. */
+export async function requestProposal(lessonId: string): Promise<ProposalOutput> {
+  return proposalOutput.parse(await call<unknown>('POST', `${lessonPath(lessonId)}/timeline/propose`, {}));
 }

@@ -28,6 +28,8 @@ export interface CommandContext {
   setHelpOpen(update: (open: boolean) => boolean): void;
   focusExercise(): void;
   save(): void;
+  /** Plays around the next uncertain boundary of an open "Mark it for me" proposal (no-op without one). */
+  nextUncertain(): void;
 }
 
 export interface CommandArgs {
@@ -61,6 +63,7 @@ const jumpBoundary = (direction: 1 | -1): Handler => (c) => {
 };
 
 export const EDITOR_COMMANDS: Record<ShortcutCommand, Handler> = {
+  'next-uncertain': (c) => c.nextUncertain(),
   'play-pause': (c) => {
     if (!c.hasRecording) c.dispatch({ type: 'select', selection: c.state().selection });
     c.media.current?.playPause();

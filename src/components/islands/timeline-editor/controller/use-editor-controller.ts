@@ -23,6 +23,7 @@ import { runCommand, ZOOM_LEVELS, type CommandArgs, type CommandContext } from '
 import { useEditorKeys } from './use-editor-keys';
 import { useTimelineSave } from './use-timeline-save';
 import { useLatest } from '../../use-latest';
+import { useProposal } from './use-proposal';
 
 /** The media length the editor works over: the recording's, else the class's, else the marks'. */
 function mediaSecondsOf(data: EditorData): number {
@@ -86,6 +87,7 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
   const snapPoint = (t: number, bypass: boolean) => snapTime(t, { onsets, planned }, { enabled: snapOn, bypass, maxDistance: snapDistance() }).time;
 
   const seek = (t: number) => media.current?.seek(t);
+  const proposal = useProposal(lessonId, dispatch, media, playhead);
 
   const context: CommandContext = {
     state: () => stateRef.current,
@@ -100,6 +102,7 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
     setHelpOpen,
     focusExercise: () => setTimeout(() => exerciseInput.current?.focus(), 0),
     save: () => void saving.save(),
+    nextUncertain: () => proposal.nextUncertain(),
   };
   const run = (command: ShortcutCommand, args?: CommandArgs) => runCommand(context, command, args);
   const runRef = useLatest(run);
@@ -212,6 +215,7 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
     saving,
     run,
     seek,
+    proposal,
     selectedSegment,
     selectedCue,
     planMessage,
