@@ -13,6 +13,7 @@ import { storage } from './server/storage';
 import { assertRegistryComplete, JOB_HANDLERS } from './server/jobs/registry';
 import type { JobContext, JobOutcome } from './server/jobs/job-context';
 import { recoverLostSteps } from './server/services/recording-lifecycle';
+import { recordingsWithoutEvents } from './server/services/recording-events';
 
 assertRegistryComplete();
 const options = settings();
@@ -76,12 +77,23 @@ const sweep = async () => {
   for (const r of recovered) console.log(`recovering ${r.recordingId} from its ${r.step} step (${r.why})`);
 };
 await sweep();
+await queueMissingAudioEvents();
 const sweeper = setInterval(() => void sweep().catch((e) => console.error('recovery sweep failed:', e)), Math.min(30, staleSeconds / 2) * 1000);
 await boss.schedule('uploads.cleanup', '17 * * * *', {});
 await boss.schedule('lessons.publish-due', '* * * * *', {});
 await boss.schedule('mail.trial-reminders', '41 * * * *', {});
 
 console.log(`worker ready (${JOB_NAMES.join(', ')}${options.DEMO_DATA ? ', demo recordings' : ''}), scratch ${workDir}`);
+
+/**
+ * One-off catch-up: ready recordings from before "Mark it for me" (or heard by an older analyser)
+ * get their audio events. The key makes several workers starting together queue each once.
+ */
+async function queueMissingAudioEvents(): Promise<void> {
+  const missing = await recordingsWithoutEvents(deps.db);
+  for (const r of missing) await sendJob(boss, 'recording.audio-events', { recordingId: r.id }, `recording.audio-events:${r.id}`);
+  if (missing.length > 0) console.log(`queued audio events for ${missing.length} earlier recordings`);
+}
 
 async function stop(signal: string) {
   console.log(`worker stopping (${signal})`);

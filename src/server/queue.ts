@@ -7,6 +7,7 @@ import PgBoss from 'pg-boss';
 export interface JobPayloads {
   'recording.probe': { recordingId: string };
   'recording.package': { recordingId: string };
+  'recording.audio-events': { recordingId: string };
   'uploads.cleanup': Record<string, never>;
   'lessons.publish-due': Record<string, never>;
   'version.thumbnails': { versionId: string };
@@ -17,6 +18,7 @@ export type JobName = keyof JobPayloads;
 export const JOB_NAMES: JobName[] = [
   'recording.probe',
   'recording.package',
+  'recording.audio-events',
   'uploads.cleanup',
   'lessons.publish-due',
   'version.thumbnails',
@@ -29,6 +31,8 @@ export const JOB_NAMES: JobName[] = [
 const QUEUE_OPTIONS: Record<JobName, PgBoss.Queue> = {
   'recording.probe': { name: 'recording.probe', retryLimit: 3, retryDelay: 10, retryBackoff: true, expireInSeconds: 600 },
   'recording.package': { name: 'recording.package', retryLimit: 3, retryDelay: 30, retryBackoff: true, expireInSeconds: 4 * 3600 },
+  // Decoding and hearing the audio takes seconds to a few minutes; a retry re-downloads the source.
+  'recording.audio-events': { name: 'recording.audio-events', retryLimit: 3, retryDelay: 30, retryBackoff: true, expireInSeconds: 3600 },
   'uploads.cleanup': { name: 'uploads.cleanup', retryLimit: 1, expireInSeconds: 600 },
   'lessons.publish-due': { name: 'lessons.publish-due', retryLimit: 1, expireInSeconds: 300 },
   'version.thumbnails': { name: 'version.thumbnails', retryLimit: 3, retryDelay: 20, retryBackoff: true, expireInSeconds: 3600 },

@@ -85,6 +85,8 @@ export const packageRecording: JobHandler<'recording.package'> = async ({ record
     if (!ready) return { outcome: 'skipped', detail: 'changed meanwhile' };
     await libraryChanged(ctx.deps, rec.studioId); // a published class's card shows the new poster
     await cleanScratch(dir);
+    // "Mark it for me" needs the recording's audio events; hearing them does not hold up readiness.
+    await ctx.send('recording.audio-events', { recordingId: rec.id }, `recording.audio-events:${rec.id}`);
     return { outcome: 'done', detail: `${ladder.length} renditions` };
   } finally {
     stopHeartbeat();

@@ -6,6 +6,7 @@ import { publishDue } from './publish-due';
 import { packageRecording } from './package-recording';
 import { probeRecording } from './probe-recording';
 import { recordingStep } from './recording-step';
+import { analyzeAudioEvents } from './analyze-audio-events';
 import { mailClassPublished } from './mail-class-published';
 import { mailTrialReminders } from './mail-trial-reminders';
 
@@ -13,6 +14,7 @@ import { mailTrialReminders } from './mail-trial-reminders';
 export const JOB_HANDLERS: { [N in JobName]: JobHandler<N> } = {
   'recording.probe': recordingStep(probeRecording),
   'recording.package': recordingStep(packageRecording),
+  'recording.audio-events': analyzeAudioEvents,
   'uploads.cleanup': cleanupUploads,
   'lessons.publish-due': publishDue,
   'version.thumbnails': chapterThumbnails,

@@ -1,11 +1,11 @@
-import type { EditorController } from './controller/use-editor-controller';
+import type { EditorView } from './controller/use-editor-controller';
 import { formatEditorTime } from '~/lib/time/format-time';
 import { toolButton } from './tool-button';
 
 const EVIDENCE_WORDS = { tone: 'timer beep', whistle: 'whistle', voice: 'spoken count', energy: 'music change', plan: 'no sound; placed by the plan' } as const;
 
 /** The toolbar button: also offered on an empty timeline right after upload. */
-export function MarkItForMeButton({ c }: { c: EditorController }) {
+export function MarkItForMeButton({ c }: { c: EditorView }) {
   const missing = !c.plan ? 'Add the class plan first' : !c.data.recording ? 'Available once a recording is ready' : null;
   return (
     <button
@@ -25,7 +25,7 @@ export function MarkItForMeButton({ c }: { c: EditorController }) {
  * The proposal as a layer over the recording's length: every proposed boundary, the uncertain
  * ones highlighted; U (or the button) plays 3 s around the next uncertain one; Accept adopts it.
  */
-export function ProposalLayer({ c }: { c: EditorController }) {
+export function ProposalLayer({ c }: { c: EditorView }) {
   const s = c.proposal.state;
   if (s.status === 'error') {
     return (
