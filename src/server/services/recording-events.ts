@@ -111,11 +111,11 @@ async function readEvents(db: DbOrTx, recordingId: string, page?: { offset: numb
  */
 export async function proposeClassTimeline(deps: Pick<AppDeps, 'db'>, studioId: string, lessonId: string): Promise<ProposalOutput> {
   const loaded = await loadClass(deps.db, studioId, lessonId);
-  if (!loaded.recording?.ready || !loaded.recording.durationSeconds) {
-    throw new AppError('conflict', 'This class has no ready recording yet. Upload the recording and wait until it has been processed, then press "Mark it for me" again.');
-  }
   if (!loaded.plan) {
     throw new AppError('unprocessable', 'This class has no plan yet. "Mark it for me" places the plan’s parts on the recording: add the plan first.');
+  }
+  if (!loaded.recording?.ready || !loaded.recording.durationSeconds) {
+    throw new AppError('conflict', 'This class has no ready recording yet. Upload the recording and wait until it has been processed, then press "Mark it for me" again.');
   }
   const recordingId = loaded.recording.id;
   const [analysis] = await deps.db
