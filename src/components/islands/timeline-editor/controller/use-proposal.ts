@@ -9,6 +9,7 @@ import { nextUncertainIndex, REVIEW_PLAY_SECONDS } from '~/lib/marking/review';
 import { requestProposal } from '../editor-api';
 import type { MediaTimelineHandle } from '../MediaTimeline';
 import type { PlayheadStore } from '../playhead-store';
+import { useLatest } from '../../use-latest';
 
 export type ProposalState =
   | { status: 'idle' }
@@ -18,8 +19,7 @@ export type ProposalState =
 
 export function useProposal(lessonId: string, dispatch: Dispatch<EditorAction>, media: RefObject<MediaTimelineHandle | null>, playhead: PlayheadStore) {
   const [state, setState] = useState<ProposalState>({ status: 'idle' });
-  const stateRef = useRef(state);
-  stateRef.current = state;
+  const stateRef = useLatest(state);
   const stopTimer = useRef<ReturnType<typeof setTimeout> | null>(null);
 
   const request = async () => {
