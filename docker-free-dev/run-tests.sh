@@ -4,14 +4,15 @@
 source "$(dirname "$0")/lib.sh"
 cd "$ROOT"
 
-# The design's own checks come first: astro check + tsc, and ESLint (layering rules included).
-# ROUNDMARK_SKIP_STATIC_CHECKS=1 skips them when re-running one test file locally; never under CI.
+bash docker-free-dev/ensure-system.sh
+
+# The design's own checks come first (after the packages they need are installed): astro check +
+# tsc, and ESLint (layering rules included). ROUNDMARK_SKIP_STATIC_CHECKS=1 skips them when
+# re-running one test file locally; never under CI.
 if [ "${CI:-}" = "true" ] || [ "${ROUNDMARK_SKIP_STATIC_CHECKS:-0}" != "1" ]; then
   npm run -s typecheck || { echo "npm test: typecheck failed (astro check + tsc)" >&2; exit 1; }
   npm run -s lint || { echo "npm test: lint failed" >&2; exit 1; }
 fi
-
-bash docker-free-dev/ensure-system.sh
 bash docker-free-dev/services.sh up
 
 # A fresh schema per run: drop and recreate the test database, then apply the committed migrations.
