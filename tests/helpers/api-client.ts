@@ -1,4 +1,10 @@
-/** A small HTTP client for tests: keeps the session cookie and sends the Origin header Astro checks. */
+/**
+ * A small HTTP client for tests: keeps the session cookie and sends the Origin header Astro checks.
+ * Every answer from /api/** is held to the OpenAPI document (tests/helpers/openapi-contract.ts):
+ * an undocumented status or a body that does not match its schema fails the test.
+ */
+import { assertDocumentedResponse } from './openapi-contract';
+
 export const BASE = () => process.env.TEST_BASE_URL ?? `http://127.0.0.1:${process.env.ROUNDMARK_TEST_PORT ?? '4399'}`;
 export const DEMO_PASSWORD = 'fernhill-demo-2026'; // demo data, printed in the README
 
@@ -33,6 +39,7 @@ export class ApiClient {
       const pair = c.split(';')[0]!;
       this.cookie = pair.endsWith('=') ? '' : pair;
     }
+    await assertDocumentedResponse(BASE(), method, path, res);
     return res;
   }
 

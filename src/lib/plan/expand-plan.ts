@@ -2,45 +2,45 @@
  * Expands a plan into the expected schedule: the ordered segments a correctly marked
  * recording would have, with planned start times from a chosen start, and the totals.
  */
+import { z } from 'zod';
 import { circuitRound, type Plan, type PlanBlock } from './plan-schema';
 
 /** Kinds a plan can produce (a subset of the timeline's segment kinds). */
-export type PlannedKind = 'warmup' | 'work' | 'rest' | 'round-break' | 'cooldown' | 'talk';
+export const PLANNED_KINDS = ['warmup', 'work', 'rest', 'round-break', 'cooldown', 'talk'] as const;
+export type PlannedKind = (typeof PLANNED_KINDS)[number];
 
 /** One expected segment. Zero-length rests and round breaks are not emitted. */
-export interface PlannedSegment {
-  /** Position in the schedule, 0-based. */
-  index: number;
-  kind: PlannedKind;
-  blockIndex: number;
-  blockKind: PlanBlock['kind'];
-  /** Station position within a circuit (0-based); for intervals always 0. */
-  stationIndex?: number;
-  exercise?: string;
-  /** 1-based round of a circuit. */
-  round?: number;
-  /** 1-based set of an intervals block. */
-  set?: number;
-  startSeconds: number;
-  seconds: number;
-}
+export const plannedSegmentSchema = z
+  .object({
+    index: z.number().int().describe('Position in the schedule, 0-based'),
+    kind: z.enum(PLANNED_KINDS),
+    blockIndex: z.number().int(),
+    blockKind: z.enum(['warmup', 'circuit', 'intervals', 'cooldown', 'talk'] satisfies PlanBlock['kind'][]),
+    stationIndex: z.number().int().optional().describe('Station position within a circuit (0-based); for intervals always 0'),
+    exercise: z.string().optional(),
+    round: z.number().int().optional().describe('1-based round of a circuit'),
+    set: z.number().int().optional().describe('1-based set of an intervals block'),
+    startSeconds: z.number(),
+    seconds: z.number(),
+  })
+  .meta({ id: 'PlannedSegment' });
+export type PlannedSegment = z.infer<typeof plannedSegmentSchema>;
 
-export interface ScheduleTotals {
-  workSeconds: number;
-  restSeconds: number;
-  roundBreakSeconds: number;
-  warmupSeconds: number;
-  cooldownSeconds: number;
-  talkSeconds: number;
-  /** First planned start to last planned end. */
-  classSeconds: number;
-}
+export const scheduleTotalsSchema = z.object({
+  workSeconds: z.number(),
+  restSeconds: z.number(),
+  roundBreakSeconds: z.number(),
+  warmupSeconds: z.number(),
+  cooldownSeconds: z.number(),
+  talkSeconds: z.number(),
+  classSeconds: z.number().describe('First planned start to last planned end'),
+});
+export type ScheduleTotals = z.infer<typeof scheduleTotalsSchema>;
 
-export interface ExpectedSchedule {
-  startSeconds: number;
-  segments: PlannedSegment[];
-  totals: ScheduleTotals;
-}
+export const expectedScheduleSchema = z
+  .object({ startSeconds: z.number(), segments: z.array(plannedSegmentSchema), totals: scheduleTotalsSchema })
+  .meta({ id: 'ExpectedSchedule' });
+export type ExpectedSchedule = z.infer<typeof expectedScheduleSchema>;
 
 /**
  * Expands `plan` from `startSeconds` (default 0).

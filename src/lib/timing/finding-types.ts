@@ -1,4 +1,5 @@
-/** Shapes of the timing check's result. */
+/** Shapes of the timing check's result: zod schemas (the API documents them) and their types. */
+import { z } from 'zod';
 
 /** Exactly the finding codes of the public API. */
 export const FINDING_CODES = [
@@ -20,97 +21,96 @@ export const FINDING_CODES = [
 ] as const;
 
 export type FindingCode = (typeof FINDING_CODES)[number];
-export type Severity = 'error' | 'warning' | 'info';
+export const SEVERITIES = ['error', 'warning', 'info'] as const;
+export type Severity = (typeof SEVERITIES)[number];
 
 /** Rank used to order findings at the same time: errors first. */
 export const SEVERITY_RANK: Record<Severity, number> = { error: 0, warning: 1, info: 2 };
 
 /** One change a suggested fix makes: set a segment's start or end to `value` seconds. */
-export interface FixChange {
-  segmentId: string;
-  field: 'startSeconds' | 'endSeconds';
-  value: number;
-}
+export const fixChangeSchema = z
+  .object({ segmentId: z.string(), field: z.enum(['startSeconds', 'endSeconds']), value: z.number() })
+  .meta({ id: 'FixChange' });
+export type FixChange = z.infer<typeof fixChangeSchema>;
 
-export interface Finding {
-  code: FindingCode;
-  severity: Severity;
-  /** Where in the recording the finding is, in seconds. */
-  atSeconds: number;
-  segmentIds: string[];
-  /** Ids of cues concerned (cue findings only). */
-  cueIds?: string[];
-  /** Plain-language message: what happened and what to do. */
-  message: string;
-  /** A suggested fix: one change, or several applied together. */
-  fix?: FixChange | FixChange[];
-  /**
-   * `missing-station` only: the planned work interval that is not marked, so the editor can
-   * mark it at the playhead or leave it out of the plan.
-   */
-  missing?: MissingWork;
-}
+/** The planned work interval a `missing-station` finding is about. */
+export const missingWorkSchema = z.object({
+  blockIndex: z.number().int(),
+  stationIndex: z.number().int().optional().describe('0-based station of a circuit'),
+  round: z.number().int().optional().describe('1-based round of a circuit'),
+  set: z.number().int().optional().describe('1-based set of intervals'),
+  exercise: z.string().optional(),
+  seconds: z.number().describe('Planned length of the work interval'),
+});
+export type MissingWork = z.infer<typeof missingWorkSchema>;
 
-export interface MissingWork {
-  blockIndex: number;
-  /** 0-based station of a circuit. */
-  stationIndex?: number;
-  /** 1-based round of a circuit, or set of intervals. */
-  round?: number;
-  set?: number;
-  exercise?: string;
-  /** Planned length of the work interval. */
-  seconds: number;
-}
+export const findingSchema = z
+  .object({
+    code: z.enum(FINDING_CODES),
+    severity: z.enum(SEVERITIES),
+    atSeconds: z.number().describe('Where in the recording the finding is, in seconds'),
+    segmentIds: z.array(z.string()),
+    cueIds: z.array(z.string()).optional().describe('Ids of cues concerned (cue findings only)'),
+    message: z.string().describe('Plain-language message: what happened and what to do'),
+    fix: z.union([fixChangeSchema, z.array(fixChangeSchema)]).optional().describe('A suggested fix: one change, or several applied together'),
+    missing: missingWorkSchema
+      .optional()
+      .describe('missing-station only: the planned work interval that is not marked, so the editor can mark it at the playhead or leave it out of the plan'),
+  })
+  .meta({ id: 'Finding' });
+export type Finding = z.infer<typeof findingSchema>;
 
-export interface RoundTotals {
-  round: number;
-  plannedWorkSeconds: number;
-  markedWorkSeconds: number;
-  plannedRestSeconds: number;
-  markedRestSeconds: number;
-}
+const roundTotalsSchema = z.object({
+  round: z.number().int(),
+  plannedWorkSeconds: z.number(),
+  markedWorkSeconds: z.number(),
+  plannedRestSeconds: z.number(),
+  markedRestSeconds: z.number(),
+});
+export type RoundTotals = z.infer<typeof roundTotalsSchema>;
 
-export interface BlockTotals {
-  blockIndex: number;
-  kind: 'warmup' | 'circuit' | 'intervals' | 'cooldown' | 'talk';
-  plannedSeconds: number;
-  markedSeconds: number;
-  plannedWorkSeconds: number;
-  markedWorkSeconds: number;
-  plannedRestSeconds: number;
-  markedRestSeconds: number;
-  /** Circuits: per round; intervals: per set. */
-  rounds: RoundTotals[];
-}
+const blockTotalsSchema = z.object({
+  blockIndex: z.number().int(),
+  kind: z.enum(['warmup', 'circuit', 'intervals', 'cooldown', 'talk']),
+  plannedSeconds: z.number(),
+  markedSeconds: z.number(),
+  plannedWorkSeconds: z.number(),
+  markedWorkSeconds: z.number(),
+  plannedRestSeconds: z.number(),
+  markedRestSeconds: z.number(),
+  rounds: z.array(roundTotalsSchema).describe('Circuits: per round; intervals: per set'),
+});
+export type BlockTotals = z.infer<typeof blockTotalsSchema>;
 
-export interface KindTotals {
-  workSeconds: number;
-  restSeconds: number;
-  roundBreakSeconds: number;
-  warmupSeconds: number;
-  cooldownSeconds: number;
-  talkSeconds: number;
-  /** First segment start to last segment end. */
-  classSeconds: number;
-}
+const kindTotalsSchema = z.object({
+  workSeconds: z.number(),
+  restSeconds: z.number(),
+  roundBreakSeconds: z.number(),
+  warmupSeconds: z.number(),
+  cooldownSeconds: z.number(),
+  talkSeconds: z.number(),
+  classSeconds: z.number().describe('First segment start to last segment end'),
+});
+export type KindTotals = z.infer<typeof kindTotalsSchema>;
 
-export interface CheckTotals {
-  planned: KindTotals;
-  marked: KindTotals & { introSeconds: number; outroSeconds: number };
-  blocks: BlockTotals[];
-  advertisedSeconds: number | null;
-  /** Marked class length minus advertised length (null without an advertised length). */
-  classVsAdvertisedSeconds: number | null;
-  mediaSeconds: number | null;
-}
+export const checkTotalsSchema = z
+  .object({
+    planned: kindTotalsSchema,
+    marked: kindTotalsSchema.extend({ introSeconds: z.number(), outroSeconds: z.number() }),
+    blocks: z.array(blockTotalsSchema),
+    advertisedSeconds: z.number().nullable(),
+    classVsAdvertisedSeconds: z.number().nullable().describe('Marked class length minus advertised length (null without an advertised length)'),
+    mediaSeconds: z.number().nullable(),
+  })
+  .meta({ id: 'CheckTotals' });
+export type CheckTotals = z.infer<typeof checkTotalsSchema>;
 
-export interface CheckResult {
-  /** True when there is no finding of severity `error`. */
-  ok: boolean;
-  findings: Finding[];
-  totals: CheckTotals;
-}
+export const checkResultSchema = z.object({
+  ok: z.boolean().describe('True when there is no finding of severity `error`'),
+  findings: z.array(findingSchema),
+  totals: checkTotalsSchema,
+});
+export type CheckResult = z.infer<typeof checkResultSchema>;
 
 export interface CheckContext {
   /** Length of the recording; without it `outside-media` is not checked. */

@@ -1,67 +1,16 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
 import { errors, json } from './responses';
-import { planPutSchema, planSchema } from '~/lib/plan/plan-schema';
-import { timelinePutSchema, segmentSchema, cueSchema } from '~/lib/timeline/timeline-schema';
+import { planPutSchema } from '~/lib/plan/plan-schema';
+import { timelinePutSchema } from '~/lib/timeline/timeline-schema';
 import { timelineExportQuery, timelineImportQuery } from '~/lib/api/timeline-file-schemas';
 import { createExerciseInput, exerciseOutput, updateExerciseInput } from '~/lib/api/exercise-schemas';
 import { createPlanTemplateInput, planTemplateListOutput, planTemplateOutput } from '~/lib/api/plan-template-schemas';
-import { FINDING_CODES } from '~/lib/timing/finding-types';
+import { checkResultOutput, planViewOutput, timelineImportOutput, timelineOutput, timelineSavedOutput } from '~/lib/api/timeline-schemas';
 import { createRecordingInput, recordingOutput, signUploadInput } from '~/lib/api/recording-schemas';
 import { progressInput, publishInput } from '~/lib/api/publish-schemas';
 
 const params = z.object({ id: z.string().uuid().describe('Class id') });
-
-const plannedSegment = z.object({
-  index: z.number().int(),
-  kind: z.enum(['warmup', 'work', 'rest', 'round-break', 'cooldown', 'talk']),
-  blockIndex: z.number().int(),
-  blockKind: z.string(),
-  stationIndex: z.number().int().optional(),
-  exercise: z.string().optional(),
-  round: z.number().int().optional(),
-  set: z.number().int().optional(),
-  startSeconds: z.number(),
-  seconds: z.number(),
-});
-const planView = z
-  .object({
-    plan: planSchema.nullable(),
-    version: z.number().int().describe('The class version to send with the next plan write.'),
-    schedule: z
-      .object({ startSeconds: z.number(), segments: z.array(plannedSegment), totals: z.record(z.string(), z.number()) })
-      .nullable(),
-    addedExercises: z.array(z.string()).optional(),
-  })
-  .meta({ id: 'PlanView' });
-const timelineOutput = z
-  .object({ version: z.number().int(), segments: z.array(segmentSchema), cues: z.array(cueSchema) })
-  .meta({ id: 'Timeline' });
-const fixChange = z.object({ segmentId: z.string(), field: z.enum(['startSeconds', 'endSeconds']), value: z.number() });
-const finding = z
-  .object({
-    code: z.enum(FINDING_CODES),
-    severity: z.enum(['error', 'warning', 'info']),
-    atSeconds: z.number(),
-    segmentIds: z.array(z.string()),
-    message: z.string(),
-    fix: z.union([fixChange, z.array(fixChange)]).optional(),
-    missing: z
-      .object({
-        blockIndex: z.number().int(),
-        stationIndex: z.number().int().optional(),
-        round: z.number().int().optional(),
-        set: z.number().int().optional(),
-        exercise: z.string().optional(),
-        seconds: z.number(),
-      })
-      .optional()
-      .describe('missing-station only: the planned work interval that is not marked.'),
-  })
-  .meta({ id: 'Finding' });
-const checkResult = z
-  .object({ ok: z.boolean(), findings: z.array(finding), totals: z.record(z.string(), z.unknown()), version: z.number().int() })
-  .meta({ id: 'CheckResult' });
 
 const recordingParams = z.object({ id: z.string().uuid().describe('Recording id') });
 
@@ -139,12 +88,12 @@ export const apiRoutes: RouteConfig[] = [
   },
   {
     method: 'get', path: '/api/lessons/{id}/plan', summary: 'The class plan with its expected schedule and totals', request: { params },
-    responses: { 200: json(planView, 'Plan (null before one is written)'), ...errors(401, 403, 404) },
+    responses: { 200: json(planViewOutput, 'Plan (null before one is written)'), ...errors(401, 403, 404) },
   },
   {
     method: 'put', path: '/api/lessons/{id}/plan', summary: 'Write the class plan (exercise names new to the studio are added to its list)',
     request: { params, body: json(planPutSchema, 'The plan and the class version it was read at') },
-    responses: { 200: json(planView, 'Stored'), ...errors(400, 401, 403, 404, 409) },
+    responses: { 200: json(planViewOutput, 'Stored'), ...errors(400, 401, 403, 404, 409) },
   },
   {
     method: 'get', path: '/api/lessons/{id}/timeline', summary: 'The draft timeline (version 0 before the first save)', request: { params },
@@ -153,11 +102,11 @@ export const apiRoutes: RouteConfig[] = [
   {
     method: 'put', path: '/api/lessons/{id}/timeline', summary: 'Replace the timeline in one transaction; a stale version answers 409',
     request: { params, body: json(timelinePutSchema, 'Whole timeline') },
-    responses: { 200: json(z.object({ version: z.number().int() }), 'Saved'), ...errors(400, 401, 403, 404, 409) },
+    responses: { 200: json(timelineSavedOutput, 'Saved'), ...errors(400, 401, 403, 404, 409) },
   },
   {
     method: 'post', path: '/api/lessons/{id}/check', summary: 'Run the timing check on the stored plan and timeline', request: { params },
-    responses: { 200: json(checkResult, 'Check result'), ...errors(401, 403, 404, 409) },
+    responses: { 200: json(checkResultOutput, 'Check result'), ...errors(401, 403, 404, 409) },
   },
   {
     method: 'post', path: '/api/lessons/{id}/timeline/import', summary: 'Replace the timeline with a CSV or WebVTT chapters file; a bad file imports nothing',
@@ -167,7 +116,7 @@ export const apiRoutes: RouteConfig[] = [
       body: { description: 'CSV (header row) or WebVTT', content: { 'text/csv': { schema: z.string() }, 'text/vtt': { schema: z.string() } } },
     },
     responses: {
-      200: json(z.object({ version: z.number().int(), segments: z.number().int(), cues: z.number().int() }), 'Imported'),
+      200: json(timelineImportOutput, 'Imported'),
       400: json(z.object({ error: z.object({ code: z.string(), message: z.string(), errors: z.array(z.object({ line: z.number().int(), message: z.string() })) }) }), 'Problems by line; nothing imported'),
       ...errors(401, 403, 404, 409, 413),
     },

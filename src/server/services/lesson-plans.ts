@@ -1,19 +1,14 @@
 import { and, eq, sql } from 'drizzle-orm';
 import { lessons } from '~/db/schema';
 import { planSchema, type Plan } from '~/lib/plan/plan-schema';
-import { expandPlan, type ExpectedSchedule } from '~/lib/plan/expand-plan';
+import { expandPlan } from '~/lib/plan/expand-plan';
+import type { PlanViewOutput } from '~/lib/api/timeline-schemas';
 import { AppError, notFound } from '../errors';
 import type { AppDeps } from '../app';
 import { addMissingExercises } from './exercises';
 
-export interface PlanView {
-  plan: Plan | null;
-  /** The class version a plan edit must send back (shared with the class details). */
-  version: number;
-  schedule: ExpectedSchedule | null;
-  /** Exercise names this save added to the studio's list. */
-  addedExercises?: string[];
-}
+/** The plan as the API shows it (`planViewOutput` in src/lib/api/timeline-schemas.ts). */
+export type PlanView = PlanViewOutput;
 
 /** Exercise names a plan mentions, in order of first use. */
 export function planExerciseNames(plan: Plan): string[] {

@@ -1,5 +1,7 @@
 /** The plan builder's calls to our API (same origin, session cookie). */
 import { planSchema, type Plan, type PlanInput } from '~/lib/plan/plan-schema';
+import type { ExerciseOutput } from '~/lib/api/exercise-schemas';
+import type { PlanViewOutput } from '~/lib/api/timeline-schemas';
 import { apiCall, ApiError } from '../api-client';
 import { pickRecording, type EditorRecording } from '../timeline-editor/editor-api';
 
@@ -15,8 +17,8 @@ export interface PlanBuilderData {
 
 export async function loadPlanBuilder(lessonId: string): Promise<PlanBuilderData> {
   const [view, library, recs] = await Promise.all([
-    apiCall<{ plan: unknown; version: number }>('GET', `${lessonPath(lessonId)}/plan`),
-    apiCall<{ exercises: { name: string }[] }>('GET', '/api/exercises'),
+    apiCall<PlanViewOutput>('GET', `${lessonPath(lessonId)}/plan`),
+    apiCall<{ exercises: ExerciseOutput[] }>('GET', '/api/exercises'),
     apiCall<{ recordings: EditorRecording[] }>('GET', `${lessonPath(lessonId)}/recordings`),
   ]);
   const parsed = view.plan ? planSchema.safeParse(view.plan) : null;
@@ -36,7 +38,7 @@ export type PlanSaveOutcome =
 /** Saves against `version`; a 409 and field errors come back as outcomes, never thrown. */
 export async function savePlan(lessonId: string, version: number, plan: PlanInput): Promise<PlanSaveOutcome> {
   try {
-    const res = await apiCall<{ version: number; plan: Plan; addedExercises?: string[] }>('PUT', `${lessonPath(lessonId)}/plan`, { version, ...plan });
+    const res = await apiCall<PlanViewOutput & { plan: Plan }>('PUT', `${lessonPath(lessonId)}/plan`, { version, ...plan });
     return { ok: true, version: res.version, plan: res.plan, addedExercises: res.addedExercises ?? [] };
   } catch (err) {
     if (err instanceof ApiError && err.status === 409) return { ok: false, conflict: true };
@@ -69,7 +71,7 @@ export async function loadTemplateSources(lessonId: string): Promise<TemplateSou
 
 /** Another class's plan, or null when it has none. */
 export async function loadClassPlan(lessonId: string): Promise<Plan | null> {
-  const view = await apiCall<{ plan: unknown }>('GET', `${lessonPath(lessonId)}/plan`);
+  const view = await apiCall<PlanViewOutput>('GET', `${lessonPath(lessonId)}/plan`);
   const parsed = view.plan ? planSchema.safeParse(view.plan) : null;
   return parsed?.success ? parsed.data : null;
 }

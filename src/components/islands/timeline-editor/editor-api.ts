@@ -3,6 +3,9 @@ import { planSchema, type Plan } from '~/lib/plan/plan-schema';
 import { timelineContentSchema, type Timeline } from '~/lib/timeline/timeline-schema';
 import { decodePeaks, type Peaks } from '~/lib/media/peaks';
 import { proposalOutput, type ProposalOutput } from '~/lib/api/marking-schemas';
+import type { LessonOutput } from '~/lib/api/lesson-schemas';
+import type { RecordingOutput } from '~/lib/api/recording-schemas';
+import type { PlanViewOutput, TimelineOutput, TimelineSavedOutput } from '~/lib/api/timeline-schemas';
 import { apiCall, ApiError } from '../api-client';
 
 /** Calls our API; the messages remind that the marks stay on this device. */
@@ -12,21 +15,11 @@ const call = <T,>(method: 'GET' | 'PUT' | 'POST', path: string, body?: unknown) 
     signedOutMessage: 'Your session has ended. Sign in again in another tab, then save; your marks are kept on this device.',
   });
 
-export interface EditorRecording {
-  id: string;
-  state: string;
-  isCurrent: boolean;
-  durationSeconds: number | null;
-  playlistUrl: string | null;
-  posterUrl: string | null;
-  peaksUrl: string | null;
-  createdAt: string;
-  progress?: number;
-  step?: string | null;
-}
+/** A recording as the API answers it (the shared output schema's type, not a copy). */
+export type EditorRecording = RecordingOutput;
 
 export interface EditorData {
-  lesson: { id: string; title: string; advertisedMinutes: number; mediaSeconds: number | null };
+  lesson: Pick<LessonOutput, 'id' | 'title' | 'advertisedMinutes' | 'mediaSeconds'>;
   plan: Plan | null;
   /** The class version the plan was read at (a plan change from the editor sends it back). */
   planVersion: number;
@@ -47,8 +40,8 @@ export function pickRecording(list: readonly EditorRecording[]): EditorRecording
 
 export async function loadEditorData(lessonId: string): Promise<EditorData> {
   const [lesson, planView, stored, recs] = await Promise.all([
-    call<EditorData['lesson']>('GET', lessonPath(lessonId)),
-    call<{ plan: unknown; version: number }>('GET', `${lessonPath(lessonId)}/plan`),
+    call<LessonOutput>('GET', lessonPath(lessonId)),
+    call<PlanViewOutput>('GET', `${lessonPath(lessonId)}/plan`),
     loadTimeline(lessonId),
     call<{ recordings: EditorRecording[] }>('GET', `${lessonPath(lessonId)}/recordings`),
   ]);
@@ -67,7 +60,7 @@ export async function loadRecordingState(lessonId: string): Promise<Pick<EditorD
 }
 
 export async function loadTimeline(lessonId: string): Promise<{ version: number; timeline: Timeline }> {
-  const data = await call<{ version: number; segments: unknown; cues: unknown }>('GET', `${lessonPath(lessonId)}/timeline`);
+  const data = await call<TimelineOutput>('GET', `${lessonPath(lessonId)}/timeline`);
   return { version: data.version, timeline: timelineContentSchema.parse({ segments: data.segments, cues: data.cues }) };
 }
 
@@ -76,7 +69,7 @@ export type SaveOutcome = { ok: true; version: number } | { ok: false; conflict:
 /** Saves the whole timeline against `version`; a 409 comes back as a conflict, never thrown. */
 export async function saveTimeline(lessonId: string, version: number, timeline: Timeline): Promise<SaveOutcome> {
   try {
-    const res = await call<{ version: number }>('PUT', `${lessonPath(lessonId)}/timeline`, { version, segments: timeline.segments, cues: timeline.cues });
+    const res = await call<TimelineSavedOutput>('PUT', `${lessonPath(lessonId)}/timeline`, { version, segments: timeline.segments, cues: timeline.cues });
     return { ok: true, version: res.version };
   } catch (err) {
     if (err instanceof ApiError && err.status === 409) {
