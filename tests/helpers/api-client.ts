@@ -3,6 +3,7 @@
  * Every answer from /api/** is held to the OpenAPI document (tests/helpers/openapi-contract.ts):
  * an undocumented status or a body that does not match its schema fails the test.
  */
+import { appendFileSync } from 'node:fs';
 import { assertDocumentedResponse } from './openapi-contract';
 
 export const BASE = () => process.env.TEST_BASE_URL ?? `http://127.0.0.1:${process.env.ROUNDMARK_TEST_PORT ?? '4399'}`;
@@ -39,7 +40,11 @@ export class ApiClient {
       const pair = c.split(';')[0]!;
       this.cookie = pair.endsWith('=') ? '' : pair;
     }
-    await assertDocumentedResponse(BASE(), method, path, res);
+    await assertDocumentedResponse(BASE(), method, path, res).catch((e: unknown) => {
+      // CONTRACT_REPORT=<file> lists every mismatch of a run instead of stopping at the first (for surveying drift).
+      if (!process.env.CONTRACT_REPORT) throw e;
+      appendFileSync(process.env.CONTRACT_REPORT, `${e instanceof Error ? e.message : String(e)}\n---\n`);
+    });
     return res;
   }
 

@@ -88,7 +88,7 @@ export function openApiDocument() {
   });
   for (const extra of [...apiRoutes, ...billingRoutes, ...mailRoutes, ...markingRoutes]) add(extra);
 
-  return new OpenApiGeneratorV31(registry.definitions).generateDocument({
+  const document = new OpenApiGeneratorV31(registry.definitions).generateDocument({
     openapi: '3.1.0',
     info: {
       title: 'Roundmark API',
@@ -97,4 +97,20 @@ export function openApiDocument() {
     },
     servers: [{ url: '/' }],
   });
+  stripRegexFlags(document);
+  return document;
+}
+
+/**
+ * zod-to-openapi 9.1 writes a regex with flags as `source/u` (it trims the slashes of
+ * `RegExp#toString()` but not the flags), a pattern no string matches. JSON Schema patterns are
+ * ECMA-262 in unicode mode already, so the source alone is the right pattern.
+ */
+function stripRegexFlags(node: unknown): void {
+  if (Array.isArray(node)) for (const n of node) stripRegexFlags(n);
+  else if (node && typeof node === 'object') {
+    const o = node as Record<string, unknown>;
+    if (typeof o.pattern === 'string') o.pattern = o.pattern.replace(/\/[dgimsuvy]+$/, '');
+    for (const v of Object.values(o)) stripRegexFlags(v);
+  }
 }

@@ -1,6 +1,6 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
-import { errors, json } from './responses';
+import { errorOutput, errors, json } from './responses';
 import { planPutSchema } from '~/lib/plan/plan-schema';
 import { timelinePutSchema } from '~/lib/timeline/timeline-schema';
 import { timelineExportQuery, timelineImportQuery } from '~/lib/api/timeline-file-schemas';
@@ -11,6 +11,11 @@ import { createRecordingInput, recordingOutput, signUploadInput } from '~/lib/ap
 import { progressInput, publishInput } from '~/lib/api/publish-schemas';
 
 const params = z.object({ id: z.string().uuid().describe('Class id') });
+
+/** The usual error body; a file with problems adds them by line. */
+const timelineImportProblems = z.object({
+  error: errorOutput.shape.error.extend({ errors: z.array(z.object({ line: z.number().int(), message: z.string() })).optional() }),
+});
 
 const recordingParams = z.object({ id: z.string().uuid().describe('Recording id') });
 
@@ -117,7 +122,7 @@ export const apiRoutes: RouteConfig[] = [
     },
     responses: {
       200: json(timelineImportOutput, 'Imported'),
-      400: json(z.object({ error: z.object({ code: z.string(), message: z.string(), errors: z.array(z.object({ line: z.number().int(), message: z.string() })) }) }), 'Problems by line; nothing imported'),
+      400: json(timelineImportProblems, 'Invalid input, or problems by line (`errors`); nothing imported'),
       ...errors(401, 403, 404, 409, 413),
     },
   },
