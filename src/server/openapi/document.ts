@@ -24,7 +24,7 @@ export function openApiDocument() {
   add({
     method: 'post', path: '/api/auth/sign-up', summary: 'Create an account (a member of the studio) and sign in', security: [],
     request: { body: json(signUpInput, 'New account') },
-    responses: { 201: json(z.object({ userId: z.string(), home: z.string() }), 'Signed in'), ...errors(400, 409) },
+    responses: { 201: json(z.object({ userId: z.string(), home: z.string() }), 'Signed in'), ...errors(400, 409, 429) },
   });
   add({
     method: 'post', path: '/api/auth/sign-in', summary: 'Sign in; sets the session cookie', security: [],

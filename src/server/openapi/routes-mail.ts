@@ -24,7 +24,7 @@ export const mailRoutes: RouteConfig[] = [
   {
     method: 'post', path: '/api/auth/forgot-password', summary: 'Send a password reset link (valid 1 hour, once); answers the same whether or not the address has an account', security: [],
     request: { body: json(forgotPasswordInput, 'The account’s e-mail address') },
-    responses: { 202: json(forgotPasswordOutput, 'Accepted'), ...errors(400) },
+    responses: { 202: json(forgotPasswordOutput, 'Accepted'), ...errors(400, 429) },
   },
   {
     method: 'post', path: '/api/auth/reset-password', summary: 'Set a new password with a reset link’s token; signs out every session of the account', security: [],

@@ -47,7 +47,7 @@ export const apiRoutes: RouteConfig[] = [
   },
   {
     method: 'get', path: '/api/lessons/{id}/progress', summary: 'Where the member stopped in a class', request: { params },
-    responses: { 200: json(z.object({ positionSeconds: z.number(), finished: z.boolean() }), 'Progress'), ...errors(401) },
+    responses: { 200: json(z.object({ positionSeconds: z.number(), finished: z.boolean() }), 'Progress'), ...errors(401, 404) },
   },
   {
     method: 'post', path: '/api/lessons/{id}/progress', summary: 'Report playback (position, watched spans, event); finishing is decided here',
