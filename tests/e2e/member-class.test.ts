@@ -122,6 +122,10 @@ describe('a member in the library and the player', () => {
     await page.waitForURL(/\/classes\/desk-break-mobility$/);
     await offer.waitFor();
     await page.screenshot({ path: `${SHOTS}/player-resume.png`, fullPage: true });
+    // Playing from the start instead (the K key) answers the offer: it goes away.
+    await page.keyboard.press('k');
+    await offer.waitFor({ state: 'detached' });
+    await video.evaluate((v: HTMLVideoElement) => v.pause());
 
     // A fresh link to a time (a shared chapter link, opened in a new tab) opens there, without the offer.
     const shared = await context.newPage();

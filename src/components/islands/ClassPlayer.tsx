@@ -88,7 +88,11 @@ export default function ClassPlayer(props: PlayerProps) {
       setTime(v.currentTime);
       frame = v.paused ? 0 : requestAnimationFrame(tick);
     };
-    const onPlay = () => (frame = requestAnimationFrame(tick));
+    const onPlay = () => {
+      // Playing answers the resume offer: from here on it would only cover the video.
+      setResumeOffer(false);
+      frame = requestAnimationFrame(tick);
+    };
     const onTime = () => setTime(v.currentTime);
     v.addEventListener('play', onPlay);
     v.addEventListener('seeked', onTime);
