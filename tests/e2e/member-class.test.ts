@@ -122,7 +122,8 @@ describe('a member in the library and the player', () => {
     await page.waitForURL(/\/classes\/desk-break-mobility$/);
     await offer.waitFor();
     await page.screenshot({ path: `${SHOTS}/player-resume.png`, fullPage: true });
-    // Playing from the start instead (the K key) answers the offer: it goes away.
+    // Playing from the start instead (K on the focused player) answers the offer: it goes away.
+    await video.focus();
     await page.keyboard.press('k');
     await offer.waitFor({ state: 'detached' });
     await video.evaluate((v: HTMLVideoElement) => v.pause());
