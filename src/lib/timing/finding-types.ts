@@ -1,5 +1,6 @@
 /** Shapes of the timing check's result: zod schemas (the API documents them) and their types. */
 import { z } from 'zod';
+import { scheduleTotalsSchema } from '../plan/expand-plan';
 
 /** Exactly the finding codes of the public API. */
 export const FINDING_CODES = [
@@ -82,13 +83,8 @@ const blockTotalsSchema = z.object({
 });
 export type BlockTotals = z.infer<typeof blockTotalsSchema>;
 
-const kindTotalsSchema = z.object({
-  workSeconds: z.number(),
-  restSeconds: z.number(),
-  roundBreakSeconds: z.number(),
-  warmupSeconds: z.number(),
-  cooldownSeconds: z.number(),
-  talkSeconds: z.number(),
+// The same seconds per kind as the plan's schedule totals, counted over marked or planned segments.
+const kindTotalsSchema = scheduleTotalsSchema.extend({
   classSeconds: z.number().describe('First segment start to last segment end'),
 });
 export type KindTotals = z.infer<typeof kindTotalsSchema>;
