@@ -6,3 +6,4 @@ export * from './publishing';
 export * from './billing';
 export * from './plan-templates';
 export * from './recording-audio';
+export * from './captions';
