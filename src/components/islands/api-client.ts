@@ -1,3 +1,5 @@
+import type { ErrorOutput } from '~/lib/api/error-schemas';
+
 /**
  * The one small client every island uses for our JSON API (same origin, session cookie).
  * Error answers (`{ error: { code, message, fields? } }`) and network failures become ApiError.
@@ -25,7 +27,8 @@ export interface CallOptions {
   signedOutMessage?: string;
 }
 
-type ErrorBody = { error?: { code?: string; message?: string; fields?: Record<string, string> } } | null;
+/** An error answer, or whatever a proxy in between sent instead (hence everything optional). */
+type ErrorBody = { error?: Partial<ErrorOutput['error']> } | null;
 
 /** Sends JSON and answers the parsed body, or throws an ApiError with a message people can act on. */
 export async function apiCall<T>(method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE', path: string, body?: unknown, options: CallOptions = {}): Promise<T> {

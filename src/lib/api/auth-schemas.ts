@@ -42,3 +42,22 @@ export type ChangePasswordInput = z.infer<typeof changePasswordInput>;
 
 export const roles = ['owner', 'coach', 'editor', 'member'] as const;
 export type Role = (typeof roles)[number];
+
+/** Sign-in and sign-up answer who signed in and where their home page is. */
+export const signedInOutput = z.object({ userId: z.string(), home: z.string().describe('Path of the person’s home page') }).meta({ id: 'SignedIn' });
+export type SignedInOutput = z.infer<typeof signedInOutput>;
+
+export const signOutQuery = z.object({ everywhere: z.enum(['1']).optional().describe('1 ends every session of the account') });
+export const signedOutOutput = z.object({ signedOut: z.boolean() }).meta({ id: 'SignedOut' });
+
+/** `GET /api/me`: the signed-in person and their roles in the current studio (null outside one). */
+export const meOutput = z
+  .object({
+    user: z.object({ id: z.string(), email: z.string(), name: z.string() }),
+    studio: z.object({ studioId: z.string(), studioSlug: z.string(), studioName: z.string(), roles: z.array(z.enum(roles)) }).nullable(),
+  })
+  .meta({ id: 'Me' });
+export type MeOutput = z.infer<typeof meOutput>;
+
+/** `POST /api/me/caution`: the member read the general exercise caution. */
+export const cautionOutput = z.object({ acknowledged: z.boolean() }).meta({ id: 'CautionAcknowledged' });

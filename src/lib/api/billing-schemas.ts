@@ -39,6 +39,7 @@ export const membershipOutput = z
     entitled: z.boolean(),
   })
   .meta({ id: 'Membership' });
+export type MembershipOutput = z.infer<typeof membershipOutput>;
 
 export const billingSettingsOutput = z
   .object({
@@ -93,11 +94,18 @@ export const promoOutput = z
   .meta({ id: 'PromoCode' });
 
 export const MEMBER_SORTS = ['name', 'email', 'status', 'since', 'trialEnd'] as const;
+/**
+ * A query choice where an unknown value falls back to the default (an old bookmark keeps working).
+ * Written as a preprocess rather than `.catch()` so the OpenAPI generator can still show the enum.
+ */
+const lenientChoice = <const T extends readonly [string, ...string[]]>(values: T, fallback: T[number]) =>
+  z.preprocess((v) => ((values as readonly unknown[]).includes(v) ? v : undefined), z.enum(values).default(fallback));
+
 export const membersQuery = z.object({
-  q: z.string().trim().max(100).regex(...noControlCharacters('The search')).optional().transform((v) => v || undefined),
-  sort: z.enum(MEMBER_SORTS).catch('name').default('name'),
-  dir: z.enum(['asc', 'desc']).catch('asc').default('asc'),
-  format: z.enum(['json', 'csv']).catch('json').default('json'),
+  q: z.string().trim().max(100).regex(...noControlCharacters('The search')).optional().transform((v) => v || undefined).describe('Search in name and e-mail'),
+  sort: lenientChoice(MEMBER_SORTS, 'name'),
+  dir: lenientChoice(['asc', 'desc'], 'asc'),
+  format: lenientChoice(['json', 'csv'], 'json'),
 });
 export type MembersQuery = z.infer<typeof membersQuery>;
 
@@ -113,3 +121,16 @@ export const memberRow = z
   })
   .meta({ id: 'MemberRow' });
 export type MemberRow = z.infer<typeof memberRow>;
+
+export const memberListOutput = z.object({ members: z.array(memberRow) }).meta({ id: 'Members' });
+export const promoListOutput = z.object({ promoCodes: z.array(promoOutput) }).meta({ id: 'PromoCodes' });
+
+/** The payment provider's signature header on a webhook. */
+export const webhookHeaders = z.object({ 'stripe-signature': z.string().describe('t=<unix time>,v1=<HMAC-SHA256 of "t.payload">') });
+/** A webhook event as the provider sends it: we read its id and type; the rest stays as sent. */
+export const webhookEventInput = z.object({ id: z.string(), type: z.string() }).passthrough();
+export const webhookReceivedOutput = z
+  .object({ received: z.literal(true), applied: z.boolean(), reason: z.string().optional() })
+  .meta({ id: 'WebhookReceived' });
+/** `GET /api/billing/members?format=csv`: the same table as a CSV file with a header row. */
+export const membersCsvText = z.string().describe('CSV with a header row; cells that could start a formula are neutralised');

@@ -44,3 +44,6 @@ export const exerciseOutput = z
   })
   .meta({ id: 'Exercise' });
 export type ExerciseOutput = z.infer<typeof exerciseOutput>;
+
+export const exerciseListOutput = z.object({ exercises: z.array(exerciseOutput) }).meta({ id: 'Exercises' });
+export type ExerciseListOutput = z.infer<typeof exerciseListOutput>;

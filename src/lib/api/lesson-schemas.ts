@@ -89,3 +89,6 @@ export type LessonOutput = z.infer<typeof lessonOutput>;
 /** Splits "dumbbells, mat" from a form field into a list. */
 export const commaList = (value: unknown) =>
   typeof value === 'string' ? value.split(',').map((s) => s.trim()).filter(Boolean) : value;
+
+export const lessonListOutput = z.object({ lessons: z.array(lessonOutput) }).meta({ id: 'Lessons' });
+export type LessonListOutput = z.infer<typeof lessonListOutput>;

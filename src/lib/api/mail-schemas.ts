@@ -63,3 +63,5 @@ export const emailPreferencesInput = z
   .object({ newClasses: z.boolean() })
   .meta({ id: 'EmailPreferencesInput' });
 export type EmailPreferencesInput = z.infer<typeof emailPreferencesInput>;
+
+export const invitationListOutput = z.object({ invitations: z.array(invitationOutput) }).meta({ id: 'Invitations' });

@@ -43,3 +43,34 @@ export function localTimeToInstant(local: string | undefined, timezoneOffsetMinu
   const at = new Date(Date.parse(`${local}:00Z`) + timezoneOffsetMinutes * 60_000);
   return Number.isNaN(at.getTime()) ? null : at;
 }
+
+export const publishedOutput = z.object({ versionId: z.string().uuid(), number: z.number().int() }).meta({ id: 'Published' });
+export const scheduledOutput = z.object({ scheduledFor: z.string().describe('ISO 8601 instant') }).meta({ id: 'PublishScheduled' });
+export const unpublishedOutput = z.object({ state: z.literal('draft') });
+export const archivedOutput = z.object({ state: z.literal('archived') });
+
+export const versionOutput = z
+  .object({
+    id: z.string(),
+    number: z.number().int(),
+    publishedAt: z.string().describe('ISO 8601 instant'),
+    warningsAcknowledged: z.boolean(),
+    publishedBy: z.string().nullable().describe('Name of who published it; null when that account is gone'),
+  })
+  .meta({ id: 'Version' });
+export const versionListOutput = z.object({ versions: z.array(versionOutput) }).meta({ id: 'Versions' });
+
+/** `GET …/progress`: where the member stopped. */
+export const progressOutput = z.object({ positionSeconds: z.number(), finished: z.boolean() }).meta({ id: 'Progress' });
+
+/** What the member did in a class they just finished (shown once, at the end). */
+export const finishSummarySchema = z
+  .object({ watchedSeconds: z.number(), workWatchedSeconds: z.number(), workSeconds: z.number(), roundsDone: z.number().int() })
+  .meta({ id: 'FinishSummary' });
+export type FinishSummary = z.infer<typeof finishSummarySchema>;
+
+/** `POST …/progress`: the stored position, and the summary when this report finished the class. */
+export const progressRecordedOutput = progressOutput
+  .extend({ justFinished: z.boolean(), summary: finishSummarySchema.nullable() })
+  .meta({ id: 'ProgressRecorded' });
+export type ProgressRecordedOutput = z.infer<typeof progressRecordedOutput>;

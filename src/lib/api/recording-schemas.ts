@@ -79,3 +79,10 @@ export const recordingOutput = z
   })
   .meta({ id: 'Recording' });
 export type RecordingOutput = z.infer<typeof recordingOutput>;
+
+export const recordingListOutput = z.object({ recordings: z.array(recordingOutput) }).meta({ id: 'Recordings' });
+export type RecordingListOutput = z.infer<typeof recordingListOutput>;
+
+/** A presigned URL for one S3 request, always for the recording's own key. */
+export const signedRequestOutput = z.object({ url: z.string().url(), key: z.string() }).meta({ id: 'SignedUploadRequest' });
+export type SignedRequestOutput = z.infer<typeof signedRequestOutput>;

@@ -9,3 +9,10 @@ import { z } from 'zod';
 export const routeIdSchema = z.guid({ error: 'That page could not be found.' }).describe('Identifier (UUID)');
 
 export const isRouteId = (value: string) => routeIdSchema.safeParse(value).success;
+
+/** The `{id}` path parameter of a route, named for the document. */
+const idParams = (what: string) => z.object({ id: routeIdSchema.describe(`${what} id`) });
+export const lessonIdParams = idParams('Class');
+export const recordingIdParams = idParams('Recording');
+export const promoCodeIdParams = idParams('Promo code');
+export const invitationIdParams = idParams('Invitation');

@@ -19,3 +19,6 @@ export const timelineImportQuery = z
 export const timelineExportQuery = z
   .object({ format: z.enum(['csv', 'vtt'], { error: 'Choose format=csv or format=vtt.' }) })
   .meta({ id: 'TimelineExportQuery' });
+
+/** A timeline file as sent or downloaded: CSV with a header row, or WebVTT chapters. */
+export const timelineFileText = z.string().describe('CSV (header row) or WebVTT chapters');

@@ -1,6 +1,7 @@
 import type { APIRoute } from 'astro';
+import { healthOutput } from '~/lib/api/service-schemas';
 import { app } from '~/server/app';
-import { json } from '~/server/http/api';
+import { answer } from '~/server/http/api';
 import { storage, storageReachable } from '~/server/storage';
 import { databaseReachable } from '~/server/services/health';
 
@@ -10,5 +11,5 @@ export const GET: APIRoute = async () => {
   const { s3, bucket } = storage();
   const store = await storageReachable(s3, bucket);
   const ok = database && store;
-  return json({ ok, database: database ? 'up' : 'down', storage: store ? 'up' : 'down' }, ok ? 200 : 503);
+  return answer(healthOutput, { ok, database: database ? 'up' : 'down', storage: store ? 'up' : 'down' }, ok ? 200 : 503);
 };

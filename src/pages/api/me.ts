@@ -1,10 +1,11 @@
 import type { APIRoute } from 'astro';
-import { endpoint, json } from '~/server/http/api';
+import { meOutput } from '~/lib/api/auth-schemas';
+import { answer, endpoint } from '~/server/http/api';
 import { requireUser } from '~/server/http/guards';
 
 export const GET: APIRoute = endpoint(async ({ locals }) => {
   const { user } = requireUser(locals);
-  return json({
+  return answer(meOutput, {
     user: { id: user.id, email: user.email, name: user.name },
     studio: locals.studio,
   });

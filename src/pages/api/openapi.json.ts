@@ -1,10 +1,12 @@
 import type { APIRoute } from 'astro';
-import { json } from '~/server/http/api';
+import { apiDocumentOutput } from '~/lib/api/service-schemas';
+import { answer } from '~/server/http/api';
 import { openApiDocument } from '~/server/openapi/document';
 
-let cached: unknown;
+/** Built once per process: the schemas do not change while it runs. */
+let cached: Record<string, unknown> | undefined;
 
 export const GET: APIRoute = () => {
-  cached ??= openApiDocument();
-  return json(cached, 200, { 'cache-control': 'public, max-age=300' });
+  cached ??= { ...openApiDocument() };
+  return answer(apiDocumentOutput, cached, 200, { 'cache-control': 'public, max-age=300' });
 };

@@ -1,14 +1,13 @@
 import { OpenAPIRegistry, OpenApiGeneratorV31, type RouteConfig } from '@asteasolutions/zod-to-openapi';
-import { z } from 'zod';
-import { changePasswordInput, signInInput, signUpInput } from '~/lib/api/auth-schemas';
-import { createLessonInput, lessonOutput, updateLessonInput } from '~/lib/api/lesson-schemas';
+import { changePasswordInput, meOutput, signedInOutput, signedOutOutput, signInInput, signOutQuery, signUpInput } from '~/lib/api/auth-schemas';
+import { createLessonInput, lessonListOutput, lessonOutput, updateLessonInput } from '~/lib/api/lesson-schemas';
+import { lessonIdParams } from '~/lib/api/route-params';
+import { apiDocumentOutput, healthOutput } from '~/lib/api/service-schemas';
 import { apiRoutes } from './routes';
 import { errors, json } from './responses';
 import { billingRoutes } from './routes-billing';
 import { mailRoutes } from './routes-mail';
 import { markingRoutes } from './routes-marking';
-
-const lessonId = z.object({ id: z.string().uuid().describe('Class id') });
 
 /** Every API route, described from the same zod schemas the endpoints use. */
 export function openApiDocument() {
@@ -24,17 +23,17 @@ export function openApiDocument() {
   add({
     method: 'post', path: '/api/auth/sign-up', summary: 'Create an account (a member of the studio) and sign in', security: [],
     request: { body: json(signUpInput, 'New account') },
-    responses: { 201: json(z.object({ userId: z.string(), home: z.string() }), 'Signed in'), ...errors(400, 409, 429) },
+    responses: { 201: json(signedInOutput, 'Signed in'), ...errors(400, 409, 429) },
   });
   add({
     method: 'post', path: '/api/auth/sign-in', summary: 'Sign in; sets the session cookie', security: [],
     request: { body: json(signInInput, 'Credentials') },
-    responses: { 200: json(z.object({ userId: z.string(), home: z.string() }), 'Signed in'), ...errors(400, 429) },
+    responses: { 200: json(signedInOutput, 'Signed in'), ...errors(400, 429) },
   });
   add({
     method: 'post', path: '/api/auth/sign-out', summary: 'Sign out this session, or every session with ?everywhere=1',
-    request: { query: z.object({ everywhere: z.enum(['1']).optional() }) },
-    responses: { 200: json(z.object({ signedOut: z.boolean() }), 'Signed out'), ...errors(401) },
+    request: { query: signOutQuery },
+    responses: { 200: json(signedOutOutput, 'Signed out'), ...errors(401) },
   });
   add({
     method: 'post', path: '/api/account/password', summary: 'Change the password (optionally signing out other sessions)',
@@ -43,31 +42,22 @@ export function openApiDocument() {
   });
   add({
     method: 'get', path: '/api/me', summary: 'The signed-in person and their studio roles',
-    responses: {
-      200: json(
-        z.object({
-          user: z.object({ id: z.string(), email: z.string(), name: z.string() }),
-          studio: z.object({ studioId: z.string(), studioSlug: z.string(), studioName: z.string(), roles: z.array(z.string()) }).nullable(),
-        }),
-        'You',
-      ),
-      ...errors(401),
-    },
+    responses: { 200: json(meOutput, 'You'), ...errors(401) },
   });
   add({
     method: 'get', path: '/api/health', summary: 'Database and storage reachability', security: [],
     responses: {
-      200: json(z.object({ ok: z.boolean(), database: z.enum(['up', 'down']), storage: z.enum(['up', 'down']) }), 'All up'),
-      503: json(z.object({ ok: z.boolean(), database: z.enum(['up', 'down']), storage: z.enum(['up', 'down']) }), 'Something is down'),
+      200: json(healthOutput, 'All up'),
+      503: json(healthOutput, 'Something is down'),
     },
   });
   add({
     method: 'get', path: '/api/openapi.json', summary: 'This document', security: [],
-    responses: { 200: { description: 'OpenAPI 3.1 document', content: { 'application/json': { schema: z.object({}).passthrough() } } } },
+    responses: { 200: json(apiDocumentOutput, 'OpenAPI 3.1 document') },
   });
   add({
     method: 'get', path: '/api/lessons', summary: 'The studio’s classes (staff)',
-    responses: { 200: json(z.object({ lessons: z.array(lessonOutput) }), 'Classes'), ...errors(401, 403) },
+    responses: { 200: json(lessonListOutput, 'Classes'), ...errors(401, 403) },
   });
   add({
     method: 'post', path: '/api/lessons', summary: 'Create a draft class (staff)',
@@ -75,15 +65,15 @@ export function openApiDocument() {
     responses: { 201: json(lessonOutput, 'Created'), ...errors(400, 401, 403) },
   });
   add({
-    method: 'get', path: '/api/lessons/{id}', summary: 'One class (staff)', request: { params: lessonId },
+    method: 'get', path: '/api/lessons/{id}', summary: 'One class (staff)', request: { params: lessonIdParams },
     responses: { 200: json(lessonOutput, 'The class'), ...errors(401, 403, 404) },
   });
   add({
-    method: 'patch', path: '/api/lessons/{id}', summary: 'Change class details; send the version you read', request: { params: lessonId, body: json(updateLessonInput, 'Changes') },
+    method: 'patch', path: '/api/lessons/{id}', summary: 'Change class details; send the version you read', request: { params: lessonIdParams, body: json(updateLessonInput, 'Changes') },
     responses: { 200: json(lessonOutput, 'Updated'), ...errors(400, 401, 403, 404, 409) },
   });
   add({
-    method: 'delete', path: '/api/lessons/{id}', summary: 'Delete a draft class (owner, coach)', request: { params: lessonId },
+    method: 'delete', path: '/api/lessons/{id}', summary: 'Delete a draft class (owner, coach)', request: { params: lessonIdParams },
     responses: { 204: { description: 'Deleted' }, ...errors(401, 403, 404, 409) },
   });
   for (const extra of [...apiRoutes, ...billingRoutes, ...mailRoutes, ...markingRoutes]) add(extra);

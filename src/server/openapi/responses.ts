@@ -1,17 +1,5 @@
-import { z } from 'zod';
-
-/** The error body every API route answers with on failure (some add fields, e.g. `currentVersion` on 409). */
-export const errorOutput = z
-  .object({
-    error: z
-      .object({
-        code: z.string().describe('Machine-readable reason, e.g. invalid_input, conflict'),
-        message: z.string().describe('What happened and what to do next, in plain language'),
-        fields: z.record(z.string(), z.string()).optional().describe('Message per invalid field'),
-      })
-      .passthrough(),
-  })
-  .meta({ id: 'Error' });
+import type { z } from 'zod';
+import { errorOutput } from '~/lib/api/error-schemas';
 
 const ERROR_TEXT: Record<number, string> = {
   400: 'Invalid input; `fields` names each problem',

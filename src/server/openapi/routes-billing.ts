@@ -1,18 +1,23 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
-import { z } from 'zod';
 import { errors, json } from './responses';
 import {
   billingSettingsInput,
   billingSettingsOutput,
   checkoutInput,
   checkoutOutput,
-  memberRow,
+  memberListOutput,
+  membersCsvText,
   membershipOutput,
-  MEMBER_SORTS,
+  membersQuery,
   promoCreateInput,
   promoOutput,
+  promoListOutput,
   promoPatchInput,
+  webhookEventInput,
+  webhookHeaders,
+  webhookReceivedOutput,
 } from '~/lib/api/billing-schemas';
+import { promoCodeIdParams } from '~/lib/api/route-params';
 
 
 /** API routes of the billing feature, described from their zod schemas. */
@@ -23,11 +28,11 @@ export const billingRoutes: RouteConfig[] = [
     summary: 'Signed events from the payment provider (Stripe-Signature header); each event id is applied once',
     security: [],
     request: {
-      headers: z.object({ 'stripe-signature': z.string().describe('t=<unix time>,v1=<HMAC-SHA256 of "t.payload">') }),
-      body: { description: 'The event as the provider sent it', content: { 'application/json': { schema: z.object({ id: z.string(), type: z.string() }).passthrough() } } },
+      headers: webhookHeaders,
+      body: { description: 'The event as the provider sent it', content: { 'application/json': { schema: webhookEventInput } } },
     },
     responses: {
-      200: json(z.object({ received: z.literal(true), applied: z.boolean(), reason: z.string().optional() }), 'Received (applied, or ignored as a repeat, older or unrelated event)'),
+      200: json(webhookReceivedOutput, 'Received (applied, or ignored as a repeat, older or unrelated event)'),
       ...errors(400),
     },
   },
@@ -73,7 +78,7 @@ export const billingRoutes: RouteConfig[] = [
     method: 'get',
     path: '/api/billing/promo-codes',
     summary: 'Promo codes with their redemptions (owner)',
-    responses: { 200: json(z.object({ promoCodes: z.array(promoOutput) }), 'Promo codes'), ...errors(401, 403) },
+    responses: { 200: json(promoListOutput, 'Promo codes'), ...errors(401, 403) },
   },
   {
     method: 'post',
@@ -86,7 +91,7 @@ export const billingRoutes: RouteConfig[] = [
     method: 'patch',
     path: '/api/billing/promo-codes/{id}',
     summary: 'Deactivate or reactivate a promo code (owner)',
-    request: { params: z.object({ id: z.string().uuid().describe('Promo code id') }), body: json(promoPatchInput, 'Active or not') },
+    request: { params: promoCodeIdParams, body: json(promoPatchInput, 'Active or not') },
     responses: { 200: json(promoOutput, 'Updated'), ...errors(400, 401, 403, 404, 503) },
   },
   {
@@ -94,17 +99,12 @@ export const billingRoutes: RouteConfig[] = [
     path: '/api/billing/members',
     summary: 'Members with their membership status (owner); format=csv downloads the same table',
     request: {
-      query: z.object({
-        q: z.string().optional().describe('Search in name and e-mail'),
-        sort: z.enum(MEMBER_SORTS).optional(),
-        dir: z.enum(['asc', 'desc']).optional(),
-        format: z.enum(['json', 'csv']).optional(),
-      }),
+      query: membersQuery,
     },
     responses: {
       200: {
         description: 'Members (JSON) or a CSV file',
-        content: { 'application/json': { schema: z.object({ members: z.array(memberRow) }) }, 'text/csv': { schema: z.string() } },
+        content: { 'application/json': { schema: memberListOutput }, 'text/csv': { schema: membersCsvText } },
       },
       ...errors(401, 403),
     },

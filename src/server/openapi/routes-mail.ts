@@ -1,14 +1,15 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
-import { z } from 'zod';
 import { errors, json } from './responses';
 import {
   createInvitationInput,
   forgotPasswordInput,
   forgotPasswordOutput,
+  invitationListOutput,
   invitationOutput,
   resendVerificationOutput,
   resetPasswordInput,
 } from '~/lib/api/mail-schemas';
+import { invitationIdParams } from '~/lib/api/route-params';
 
 
 /** API routes of the mail feature, described from their zod schemas. */
@@ -33,7 +34,7 @@ export const mailRoutes: RouteConfig[] = [
   },
   {
     method: 'get', path: '/api/invitations', summary: 'Invitations not yet accepted, newest first (owner)',
-    responses: { 200: json(z.object({ invitations: z.array(invitationOutput) }), 'Pending invitations'), ...errors(401, 403) },
+    responses: { 200: json(invitationListOutput, 'Pending invitations'), ...errors(401, 403) },
   },
   {
     method: 'post', path: '/api/invitations', summary: 'Invite a coach or an editor by e-mail (owner); replaces a pending invitation to the same address; expires after 7 days',
@@ -42,7 +43,7 @@ export const mailRoutes: RouteConfig[] = [
   },
   {
     method: 'delete', path: '/api/invitations/{id}', summary: 'Withdraw a pending invitation (owner); its link stops working',
-    request: { params: z.object({ id: z.string().uuid().describe('Invitation id') }) },
+    request: { params: invitationIdParams },
     responses: { 204: { description: 'Withdrawn' }, ...errors(401, 403, 404) },
   },
 ];

@@ -1,10 +1,8 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
-import { z } from 'zod';
 import { proposalOutput, proposeInput, recordingEventsOutput, recordingEventsQuery } from '~/lib/api/marking-schemas';
+import { lessonIdParams as lessonParams, recordingIdParams as recordingParams } from '~/lib/api/route-params';
 import { errors, json } from './responses';
 
-const lessonParams = z.object({ id: z.string().uuid().describe('Class id') });
-const recordingParams = z.object({ id: z.string().uuid().describe('Recording id') });
 
 /** Routes of "Mark it for me": the recording's audio events and the proposed timeline. */
 export const markingRoutes: RouteConfig[] = [

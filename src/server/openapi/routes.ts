@@ -1,23 +1,26 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
-import { z } from 'zod';
-import { errorOutput, errors, json } from './responses';
+import { errors, json } from './responses';
 import { planPutSchema } from '~/lib/plan/plan-schema';
 import { timelinePutSchema } from '~/lib/timeline/timeline-schema';
-import { timelineExportQuery, timelineImportQuery } from '~/lib/api/timeline-file-schemas';
-import { createExerciseInput, exerciseOutput, updateExerciseInput } from '~/lib/api/exercise-schemas';
+import { timelineExportQuery, timelineFileText, timelineImportQuery } from '~/lib/api/timeline-file-schemas';
+import { timelineImportErrorOutput } from '~/lib/api/error-schemas';
+import { lessonIdParams as params, recordingIdParams as recordingParams } from '~/lib/api/route-params';
+import { createExerciseInput, exerciseListOutput, exerciseOutput, updateExerciseInput } from '~/lib/api/exercise-schemas';
 import { createPlanTemplateInput, planTemplateListOutput, planTemplateOutput } from '~/lib/api/plan-template-schemas';
 import { checkResultOutput, planViewOutput, timelineImportOutput, timelineOutput, timelineSavedOutput } from '~/lib/api/timeline-schemas';
-import { createRecordingInput, recordingOutput, signUploadInput } from '~/lib/api/recording-schemas';
-import { progressInput, publishInput } from '~/lib/api/publish-schemas';
-
-const params = z.object({ id: z.string().uuid().describe('Class id') });
-
-/** The usual error body; a file with problems adds them by line. */
-const timelineImportProblems = z.object({
-  error: errorOutput.shape.error.extend({ errors: z.array(z.object({ line: z.number().int(), message: z.string() })).optional() }),
-});
-
-const recordingParams = z.object({ id: z.string().uuid().describe('Recording id') });
+import { createRecordingInput, recordingListOutput, recordingOutput, signedRequestOutput, signUploadInput } from '~/lib/api/recording-schemas';
+import {
+  archivedOutput,
+  progressInput,
+  progressOutput,
+  progressRecordedOutput,
+  publishedOutput,
+  publishInput,
+  scheduledOutput,
+  unpublishedOutput,
+  versionListOutput,
+} from '~/lib/api/publish-schemas';
+import { cautionOutput } from '~/lib/api/auth-schemas';
 
 /** Routes of the plan, timeline, check, exercise, recording, publishing and playback features. */
 export const apiRoutes: RouteConfig[] = [
@@ -25,45 +28,45 @@ export const apiRoutes: RouteConfig[] = [
     method: 'post', path: '/api/lessons/{id}/publish', summary: 'Publish a new immutable version (coach, owner); errors block, warnings need acknowledgeWarnings; publishAt schedules (owner)',
     request: { params, body: json(publishInput, 'Publish options') },
     responses: {
-      201: json(z.object({ versionId: z.string().uuid(), number: z.number().int() }), 'Published'),
-      202: json(z.object({ scheduledFor: z.string() }), 'Scheduled'),
+      201: json(publishedOutput, 'Published'),
+      202: json(scheduledOutput, 'Scheduled'),
       ...errors(400, 401, 403, 404, 409),
     },
   },
   {
     method: 'post', path: '/api/lessons/{id}/unpublish', summary: 'Take the class out of the library (versions are kept)', request: { params },
-    responses: { 200: json(z.object({ state: z.literal('draft') }), 'Unpublished'), ...errors(401, 403, 404) },
+    responses: { 200: json(unpublishedOutput, 'Unpublished'), ...errors(401, 403, 404) },
   },
   {
     method: 'post', path: '/api/lessons/{id}/archive', summary: 'Archive the class (versions are kept)', request: { params },
-    responses: { 200: json(z.object({ state: z.literal('archived') }), 'Archived'), ...errors(401, 403, 404) },
+    responses: { 200: json(archivedOutput, 'Archived'), ...errors(401, 403, 404) },
   },
   {
     method: 'get', path: '/api/lessons/{id}/versions', summary: 'Published versions, newest first', request: { params },
     responses: {
-      200: json(z.object({ versions: z.array(z.object({ id: z.string(), number: z.number().int(), publishedAt: z.string(), warningsAcknowledged: z.boolean(), publishedBy: z.string().nullable() })) }), 'Versions'),
+      200: json(versionListOutput, 'Versions'),
       ...errors(401, 403, 404),
     },
   },
   {
     method: 'get', path: '/api/lessons/{id}/progress', summary: 'Where the member stopped in a class', request: { params },
-    responses: { 200: json(z.object({ positionSeconds: z.number(), finished: z.boolean() }), 'Progress'), ...errors(401, 404) },
+    responses: { 200: json(progressOutput, 'Progress'), ...errors(401, 404) },
   },
   {
     method: 'post', path: '/api/lessons/{id}/progress', summary: 'Report playback (position, watched spans, event); finishing is decided here',
     request: { params, body: json(progressInput, 'Playback report') },
     responses: {
-      200: json(z.object({ positionSeconds: z.number(), finished: z.boolean(), justFinished: z.boolean(), summary: z.object({ watchedSeconds: z.number(), workWatchedSeconds: z.number(), workSeconds: z.number(), roundsDone: z.number().int() }).nullable() }), 'Recorded'),
+      200: json(progressRecordedOutput, 'Recorded'),
       ...errors(400, 401, 403, 404),
     },
   },
   {
     method: 'post', path: '/api/me/caution', summary: 'Record that the member read the general exercise caution',
-    responses: { 200: json(z.object({ acknowledged: z.boolean() }), 'Recorded'), ...errors(401) },
+    responses: { 200: json(cautionOutput, 'Recorded'), ...errors(401) },
   },
   {
     method: 'get', path: '/api/lessons/{id}/recordings', summary: 'Recordings of a class, newest first', request: { params },
-    responses: { 200: json(z.object({ recordings: z.array(recordingOutput) }), 'Recordings'), ...errors(401, 403, 404) },
+    responses: { 200: json(recordingListOutput, 'Recordings'), ...errors(401, 403, 404) },
   },
   {
     method: 'post', path: '/api/lessons/{id}/recordings', summary: 'Announce an upload; the server checks type and size and chooses the storage key',
@@ -77,7 +80,7 @@ export const apiRoutes: RouteConfig[] = [
   {
     method: 'post', path: '/api/recordings/{id}/sign', summary: 'Presign one S3 request of the multipart upload (create, part, list parts, complete, abort)',
     request: { params: recordingParams, body: json(signUploadInput, 'The S3 request to sign') },
-    responses: { 200: json(z.object({ url: z.string().url(), key: z.string() }), 'Presigned URL for the recording’s own key'), ...errors(400, 401, 403, 404, 409, 413) },
+    responses: { 200: json(signedRequestOutput, 'Presigned URL for the recording’s own key'), ...errors(400, 401, 403, 404, 409, 413) },
   },
   {
     method: 'post', path: '/api/recordings/{id}/complete', summary: 'Report that the store completed the upload; processing starts', request: { params: recordingParams },
@@ -118,11 +121,11 @@ export const apiRoutes: RouteConfig[] = [
     request: {
       params,
       query: timelineImportQuery,
-      body: { description: 'CSV (header row) or WebVTT', content: { 'text/csv': { schema: z.string() }, 'text/vtt': { schema: z.string() } } },
+      body: { description: 'CSV (header row) or WebVTT', content: { 'text/csv': { schema: timelineFileText }, 'text/vtt': { schema: timelineFileText } } },
     },
     responses: {
       200: json(timelineImportOutput, 'Imported'),
-      400: json(timelineImportProblems, 'Invalid input, or problems by line (`errors`); nothing imported'),
+      400: json(timelineImportErrorOutput, 'Invalid input, or problems by line (`errors`); nothing imported'),
       ...errors(401, 403, 404, 409, 413),
     },
   },
@@ -130,13 +133,13 @@ export const apiRoutes: RouteConfig[] = [
     method: 'get', path: '/api/lessons/{id}/timeline/export', summary: 'Download the timeline as CSV or a WebVTT chapters file',
     request: { params, query: timelineExportQuery },
     responses: {
-      200: { description: 'The file', content: { 'text/csv': { schema: z.string() }, 'text/vtt': { schema: z.string() } } },
+      200: { description: 'The file', content: { 'text/csv': { schema: timelineFileText }, 'text/vtt': { schema: timelineFileText } } },
       ...errors(400, 401, 403, 404, 409),
     },
   },
   {
     method: 'get', path: '/api/exercises', summary: 'The studio’s exercise list',
-    responses: { 200: json(z.object({ exercises: z.array(exerciseOutput) }), 'Exercises'), ...errors(401, 403) },
+    responses: { 200: json(exerciseListOutput, 'Exercises'), ...errors(401, 403) },
   },
   {
     method: 'post', path: '/api/exercises', summary: 'Add an exercise', request: { body: json(createExerciseInput, 'Exercise') },

@@ -1,7 +1,7 @@
 import { and, count, eq, isNotNull, sql } from 'drizzle-orm';
 import Stripe from 'stripe';
 import { billingSettings, promoCodes, studios, subscriptions } from '~/db/schema';
-import type { BillingSettingsInput, CheckoutInput, PromoCreateInput } from '~/lib/api/billing-schemas';
+import type { BillingSettingsInput, CheckoutInput, MembershipOutput, PromoCreateInput } from '~/lib/api/billing-schemas';
 import { formatDay } from '~/lib/billing/membership-words';
 import { AppError, notFound } from '../errors';
 import type { AppDeps } from '../app';
@@ -261,7 +261,7 @@ export async function membershipOf(deps: AppDeps, studioId: string, userId: stri
   const nextAmount = row?.status === 'trialing' && promo ? settings.monthlyPriceMinor - Math.round((settings.monthlyPriceMinor * promo.percentOff) / 100) : settings.monthlyPriceMinor;
   const nextChargeAt = row && isLive(row.status) && !row.cancelAtPeriodEnd ? (row.status === 'trialing' ? row.trialEnd : row.currentPeriodEnd) : null;
   return {
-    status: (has ? row!.status : 'none') as string,
+    status: (has ? row!.status : 'none') as MembershipOutput['status'],
     trialEnd: row?.trialEnd?.toISOString() ?? null,
     currentPeriodEnd: row?.currentPeriodEnd?.toISOString() ?? null,
     cancelAtPeriodEnd: row?.cancelAtPeriodEnd ?? false,
@@ -284,6 +284,11 @@ export async function setCancelAtPeriodEnd(deps: BillingDeps, studioId: string, 
     .update(subscriptions)
     .set({ cancelAtPeriodEnd: sub.cancel_at_period_end || sub.cancel_at != null, updatedAt: new Date() })
     .where(eq(subscriptions.id, row.id));
-  const view = await membershipOf(deps, studioId, userId);
-  return { status: view.status, trialEnd: view.trialEnd, currentPeriodEnd: view.currentPeriodEnd, cancelAtPeriodEnd: view.cancelAtPeriodEnd, promoCode: view.promoCode, entitled: view.entitled };
+  return membershipAnswer(await membershipOf(deps, studioId, userId));
+}
+
+/** The part of the membership view the API answers (the page shows more: next charge, settings). */
+export function membershipAnswer(view: Awaited<ReturnType<typeof membershipOf>>): MembershipOutput {
+  const { status, trialEnd, currentPeriodEnd, cancelAtPeriodEnd, promoCode, entitled } = view;
+  return { status, trialEnd, currentPeriodEnd, cancelAtPeriodEnd, promoCode, entitled };
 }

@@ -1,11 +1,5 @@
 import { useCallback, useEffect, useRef, useState } from 'react';
-
-export interface FinishSummary {
-  watchedSeconds: number;
-  workWatchedSeconds: number;
-  workSeconds: number;
-  roundsDone: number;
-}
+import type { FinishSummary, ProgressRecordedOutput } from '~/lib/api/publish-schemas';
 
 type Event = 'start' | 'progress' | 'seek' | 'chapter' | 'leave';
 
@@ -39,7 +33,7 @@ export function useProgress(lessonId: string, video: React.RefObject<HTMLVideoEl
       try {
         const res = await fetch(url, { method: 'POST', headers: { 'content-type': 'application/json' }, body });
         if (res.ok) {
-          const data = (await res.json()) as { justFinished: boolean; summary: FinishSummary | null };
+          const data = (await res.json()) as ProgressRecordedOutput;
           if (data.justFinished && data.summary) setSummary(data.summary);
         }
       } catch {

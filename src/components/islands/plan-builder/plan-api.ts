@@ -1,9 +1,12 @@
 /** The plan builder's calls to our API (same origin, session cookie). */
 import { planSchema, type Plan, type PlanInput } from '~/lib/plan/plan-schema';
-import type { ExerciseOutput } from '~/lib/api/exercise-schemas';
+import type { ExerciseListOutput } from '~/lib/api/exercise-schemas';
+import type { LessonListOutput } from '~/lib/api/lesson-schemas';
+import type { PlanTemplateOutput } from '~/lib/api/plan-template-schemas';
+import type { RecordingListOutput } from '~/lib/api/recording-schemas';
 import type { PlanViewOutput } from '~/lib/api/timeline-schemas';
 import { apiCall, ApiError } from '../api-client';
-import { pickRecording, type EditorRecording } from '../timeline-editor/editor-api';
+import { pickRecording } from '../timeline-editor/editor-api';
 
 const lessonPath = (id: string) => `/api/lessons/${encodeURIComponent(id)}`;
 
@@ -18,8 +21,8 @@ export interface PlanBuilderData {
 export async function loadPlanBuilder(lessonId: string): Promise<PlanBuilderData> {
   const [view, library, recs] = await Promise.all([
     apiCall<PlanViewOutput>('GET', `${lessonPath(lessonId)}/plan`),
-    apiCall<{ exercises: ExerciseOutput[] }>('GET', '/api/exercises'),
-    apiCall<{ recordings: EditorRecording[] }>('GET', `${lessonPath(lessonId)}/recordings`),
+    apiCall<ExerciseListOutput>('GET', '/api/exercises'),
+    apiCall<RecordingListOutput>('GET', `${lessonPath(lessonId)}/recordings`),
   ]);
   const parsed = view.plan ? planSchema.safeParse(view.plan) : null;
   return {
@@ -47,13 +50,8 @@ export async function savePlan(lessonId: string, version: number, plan: PlanInpu
   }
 }
 
-export interface TemplateChoice {
-  id: string;
-  name: string;
-  description?: string;
-  builtIn: boolean;
-  plan: PlanInput;
-}
+/** A template as the API answers it; its plan is a plan input (built-in ones leave names to fill in). */
+export type TemplateChoice = Omit<PlanTemplateOutput, 'plan'> & { plan: PlanInput };
 
 export interface TemplateSources {
   templates: TemplateChoice[];
@@ -64,7 +62,7 @@ export interface TemplateSources {
 export async function loadTemplateSources(lessonId: string): Promise<TemplateSources> {
   const [t, l] = await Promise.all([
     apiCall<{ templates: TemplateChoice[] }>('GET', '/api/plan-templates'),
-    apiCall<{ lessons: { id: string; title: string }[] }>('GET', '/api/lessons'),
+    apiCall<LessonListOutput>('GET', '/api/lessons'),
   ]);
   return { templates: t.templates, classes: l.lessons.filter((x) => x.id !== lessonId).map((x) => ({ id: x.id, title: x.title })) };
 }

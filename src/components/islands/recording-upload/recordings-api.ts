@@ -3,7 +3,9 @@ import { apiCall } from '../api-client';
 import {
   createRecordingInput,
   type CreateRecordingInput,
+  type RecordingListOutput,
   type RecordingOutput,
+  type SignedRequestOutput,
   type SignUploadInput,
 } from '~/lib/api/recording-schemas';
 
@@ -49,7 +51,7 @@ export const announceRecording = (lessonId: string, input: CreateRecordingInput)
 
 /** Asks the server to presign one S3 request of this recording's multipart upload. */
 export const signRecordingRequest = (recordingId: string, req: SignUploadInput) =>
-  call<{ url: string; key: string }>('POST', `/api/recordings/${encodeURIComponent(recordingId)}/sign`, req);
+  call<SignedRequestOutput>('POST', `/api/recordings/${encodeURIComponent(recordingId)}/sign`, req);
 
 /** Tells the server the store has the whole file; it checks it and starts processing. */
 export const completeRecording = (recordingId: string) =>
@@ -66,7 +68,7 @@ export function useLessonRecordings(lessonId: string, initial: RecordingOutput[]
   return useQuery({
     queryKey: recordingsKey(lessonId),
     queryFn: async ({ signal }) =>
-      (await call<{ recordings: RecordingOutput[] }>('GET', `/api/lessons/${encodeURIComponent(lessonId)}/recordings`, undefined, signal)).recordings,
+      (await call<RecordingListOutput>('GET', `/api/lessons/${encodeURIComponent(lessonId)}/recordings`, undefined, signal)).recordings,
     initialData: initial,
     staleTime: 1_000,
     refetchInterval: poll ? 2_000 : false,

@@ -4,7 +4,7 @@ import { timelineContentSchema, type Timeline } from '~/lib/timeline/timeline-sc
 import { decodePeaks, type Peaks } from '~/lib/media/peaks';
 import { proposalOutput, type ProposalOutput } from '~/lib/api/marking-schemas';
 import type { LessonOutput } from '~/lib/api/lesson-schemas';
-import type { RecordingOutput } from '~/lib/api/recording-schemas';
+import type { RecordingListOutput, RecordingOutput } from '~/lib/api/recording-schemas';
 import type { PlanViewOutput, TimelineOutput, TimelineSavedOutput } from '~/lib/api/timeline-schemas';
 import { apiCall, ApiError } from '../api-client';
 
@@ -43,7 +43,7 @@ export async function loadEditorData(lessonId: string): Promise<EditorData> {
     call<LessonOutput>('GET', lessonPath(lessonId)),
     call<PlanViewOutput>('GET', `${lessonPath(lessonId)}/plan`),
     loadTimeline(lessonId),
-    call<{ recordings: EditorRecording[] }>('GET', `${lessonPath(lessonId)}/recordings`),
+    call<RecordingListOutput>('GET', `${lessonPath(lessonId)}/recordings`),
   ]);
   const parsedPlan = planView.plan ? planSchema.safeParse(planView.plan) : null;
   const recording = pickRecording(recs.recordings);
@@ -53,7 +53,7 @@ export async function loadEditorData(lessonId: string): Promise<EditorData> {
 
 /** The recording to mark (if one is ready now) and one still being prepared, for polling. */
 export async function loadRecordingState(lessonId: string): Promise<Pick<EditorData, 'recording' | 'preparing'>> {
-  const recs = await call<{ recordings: EditorRecording[] }>('GET', `${lessonPath(lessonId)}/recordings`);
+  const recs = await call<RecordingListOutput>('GET', `${lessonPath(lessonId)}/recordings`);
   const recording = pickRecording(recs.recordings);
   const preparing = recording ? null : recs.recordings.find((r) => r.state === 'uploading' || r.state === 'processing') ?? null;
   return { recording, preparing };

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { signInInput } from '~/lib/api/auth-schemas';
+import { signedInOutput, signInInput } from '~/lib/api/auth-schemas';
 import { app } from '~/server/app';
-import { endpoint, json, readJson } from '~/server/http/api';
+import { answer, endpoint, readJson } from '~/server/http/api';
 import { setSessionCookie } from '~/server/http/session-cookie';
 import { homePath } from '~/server/http/guards';
 import { requestAddress } from '~/server/http/client-address';
@@ -13,5 +13,5 @@ export const POST: APIRoute = endpoint(async (ctx) => {
   const deps = app();
   const session = await signIn(deps, input, requestAddress(ctx));
   setSessionCookie(cookies, deps.auth, session);
-  return json({ userId: session.userId, home: homePath({ studio: await resolveStudio(deps, session.userId) }) });
+  return answer(signedInOutput, { userId: session.userId, home: homePath({ studio: await resolveStudio(deps, session.userId) }) });
 });

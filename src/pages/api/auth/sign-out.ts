@@ -1,6 +1,7 @@
 import type { APIRoute } from 'astro';
+import { signedOutOutput } from '~/lib/api/auth-schemas';
 import { app } from '~/server/app';
-import { endpoint, json } from '~/server/http/api';
+import { answer, endpoint } from '~/server/http/api';
 import { clearSessionCookie } from '~/server/http/session-cookie';
 import { requireUser } from '~/server/http/guards';
 import { signOut, signOutEverywhere } from '~/server/services/accounts';
@@ -12,5 +13,5 @@ export const POST: APIRoute = endpoint(async ({ locals, cookies, url }) => {
   if (url.searchParams.get('everywhere') === '1') await signOutEverywhere(deps, user.id);
   else await signOut(deps, session.id);
   clearSessionCookie(cookies, deps.auth);
-  return json({ signedOut: true });
+  return answer(signedOutOutput, { signedOut: true });
 });

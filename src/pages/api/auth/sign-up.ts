@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { signUpInput } from '~/lib/api/auth-schemas';
+import { signedInOutput, signUpInput } from '~/lib/api/auth-schemas';
 import { app } from '~/server/app';
-import { endpoint, json, readJson } from '~/server/http/api';
+import { answer, endpoint, readJson } from '~/server/http/api';
 import { setSessionCookie } from '~/server/http/session-cookie';
 import { requestAddress } from '~/server/http/client-address';
 import { signUp } from '~/server/services/accounts';
@@ -12,5 +12,5 @@ export const POST: APIRoute = endpoint(async (ctx) => {
   const deps = app();
   const { userId, session } = await signUp(deps, input, requestAddress(ctx));
   setSessionCookie(cookies, deps.auth, session);
-  return json({ userId, home: '/library' }, 201);
+  return answer(signedInOutput, { userId, home: '/library' }, 201);
 });

@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { checkoutInput } from '~/lib/api/billing-schemas';
-import { endpoint, json, readJson } from '~/server/http/api';
+import { checkoutInput, checkoutOutput } from '~/lib/api/billing-schemas';
+import { answer, endpoint, readJson } from '~/server/http/api';
 import { requireActor, requireUser } from '~/server/http/guards';
 import { billingDeps } from '~/server/payments/billing-deps';
 import { startMembership } from '~/server/use-cases/membership';
@@ -10,5 +10,5 @@ export const POST: APIRoute = endpoint(async ({ locals, request }) => {
   const actor = requireActor(locals);
   const { user } = requireUser(locals);
   const input = await readJson(request, checkoutInput);
-  return json(await startMembership(actor, billingDeps(), { ...input, payer: { email: user.email, name: user.name } }));
+  return answer(checkoutOutput, await startMembership(actor, billingDeps(), { ...input, payer: { email: user.email, name: user.name } }));
 });

@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
-import { membersQuery } from '~/lib/api/billing-schemas';
+import { memberListOutput, membersQuery } from '~/lib/api/billing-schemas';
 import { membersCsv } from '~/lib/billing/members-csv';
 import { app } from '~/server/app';
-import { endpoint, json, parseWith } from '~/server/http/api';
+import { answer, endpoint, parseWith } from '~/server/http/api';
 import { requireCan } from '~/server/http/guards';
 import { listMembers } from '~/server/services/billing-members';
 
@@ -21,5 +21,5 @@ export const GET: APIRoute = endpoint(async ({ locals, url }) => {
       },
     });
   }
-  return json({ members });
+  return answer(memberListOutput, { members });
 });

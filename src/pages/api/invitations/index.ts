@@ -1,12 +1,12 @@
 import type { APIRoute } from 'astro';
-import { createInvitationInput } from '~/lib/api/mail-schemas';
+import { createInvitationInput, invitationListOutput, invitationOutput, type InvitationOutput } from '~/lib/api/mail-schemas';
 import { app } from '~/server/app';
-import { endpoint, json, readJson } from '~/server/http/api';
+import { answer, endpoint, readJson } from '~/server/http/api';
 import { requireActor, requireCan } from '~/server/http/guards';
 import { teamOverview } from '~/server/services/invitations';
 import { inviteToTeam } from '~/server/use-cases/team';
 
-const view = (i: { id: string; email: string; role: string; expiresAt: Date; createdAt: Date }) => ({
+const view = (i: { id: string; email: string; role: InvitationOutput['role']; expiresAt: Date; createdAt: Date }) => ({
   id: i.id,
   email: i.email,
   role: i.role,
@@ -18,12 +18,12 @@ const view = (i: { id: string; email: string; role: string; expiresAt: Date; cre
 export const GET: APIRoute = endpoint(async ({ locals }) => {
   const { studio } = requireCan(locals, 'team.manage');
   const { pending } = await teamOverview(app(), studio.studioId);
-  return json({ invitations: pending.map(view) });
+  return answer(invitationListOutput, { invitations: pending.map(view) });
 });
 
 /** Invites a coach or an editor by e-mail (owner); the e-mail goes out before this answers. */
 export const POST: APIRoute = endpoint(async ({ locals, request }) => {
   const actor = requireActor(locals);
   const inv = await inviteToTeam(actor, app(), await readJson(request, createInvitationInput));
-  return json(view(inv), 201);
+  return answer(invitationOutput, view(inv), 201);
 });

@@ -1,6 +1,7 @@
 import type { APIRoute } from 'astro';
+import { cautionOutput } from '~/lib/api/auth-schemas';
 import { app } from '~/server/app';
-import { endpoint, json } from '~/server/http/api';
+import { answer, endpoint } from '~/server/http/api';
 import { requireUser } from '~/server/http/guards';
 import { acknowledgeCaution } from '~/server/services/member-classes';
 
@@ -8,5 +9,5 @@ import { acknowledgeCaution } from '~/server/services/member-classes';
 export const POST: APIRoute = endpoint(async ({ locals }) => {
   const { user } = requireUser(locals);
   await acknowledgeCaution(app(), user.id);
-  return json({ acknowledged: true });
+  return answer(cautionOutput, { acknowledged: true });
 });

@@ -1,5 +1,6 @@
 import type { APIRoute } from 'astro';
-import { endpoint, json, readBodyText } from '~/server/http/api';
+import { webhookReceivedOutput } from '~/lib/api/billing-schemas';
+import { answer, endpoint, readBodyText } from '~/server/http/api';
 import { billingDeps } from '~/server/payments/billing-deps';
 import { webhookSecret } from '~/server/payments/stripe-client';
 import { receiveWebhook } from '~/server/services/billing-webhooks';
@@ -10,5 +11,5 @@ import { receiveWebhook } from '~/server/services/billing-webhooks';
  */
 export const POST: APIRoute = endpoint(async ({ request }) => {
   const result = await receiveWebhook(billingDeps(), await readBodyText(request), request.headers.get('stripe-signature'), webhookSecret());
-  return json({ received: true, ...result });
+  return answer(webhookReceivedOutput, { received: true, ...result });
 });

@@ -1,6 +1,7 @@
 import type { APIRoute } from 'astro';
+import { resendVerificationOutput } from '~/lib/api/mail-schemas';
 import { app } from '~/server/app';
-import { endpoint, json } from '~/server/http/api';
+import { answer, endpoint } from '~/server/http/api';
 import { requireUser } from '~/server/http/guards';
 import { sendVerificationLink } from '~/server/services/email-auth';
 
@@ -8,5 +9,5 @@ import { sendVerificationLink } from '~/server/services/email-auth';
 export const POST: APIRoute = endpoint(async ({ locals }) => {
   const { user } = requireUser(locals);
   const status = await sendVerificationLink(app(), user.id);
-  return json({ status }, status === 'sent' ? 202 : 200);
+  return answer(resendVerificationOutput, { status }, status === 'sent' ? 202 : 200);
 });

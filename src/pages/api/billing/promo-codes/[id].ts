@@ -1,6 +1,6 @@
 import type { APIRoute } from 'astro';
-import { promoPatchInput } from '~/lib/api/billing-schemas';
-import { endpoint, json, readJson } from '~/server/http/api';
+import { promoOutput, promoPatchInput } from '~/lib/api/billing-schemas';
+import { answer, endpoint, readJson } from '~/server/http/api';
 import { requireActor } from '~/server/http/guards';
 import { billingDeps } from '~/server/payments/billing-deps';
 import { setPromoCodeActive } from '~/server/use-cases/studio-billing';
@@ -9,5 +9,5 @@ import { setPromoCodeActive } from '~/server/use-cases/studio-billing';
 export const PATCH: APIRoute = endpoint(async ({ locals, params, request }) => {
   const actor = requireActor(locals);
   const { active } = await readJson(request, promoPatchInput);
-  return json(await setPromoCodeActive(actor, billingDeps(), { id: params.id!, active }));
+  return answer(promoOutput, await setPromoCodeActive(actor, billingDeps(), { id: params.id!, active }));
 });

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { promoCreateInput } from '~/lib/api/billing-schemas';
+import { promoCreateInput, promoListOutput, promoOutput } from '~/lib/api/billing-schemas';
 import { app } from '~/server/app';
-import { endpoint, json, readJson } from '~/server/http/api';
+import { answer, endpoint, readJson } from '~/server/http/api';
 import { requireActor, requireCan } from '~/server/http/guards';
 import { billingDeps } from '~/server/payments/billing-deps';
 import { listPromoCodes } from '~/server/services/billing';
@@ -9,11 +9,11 @@ import { createPromo } from '~/server/use-cases/studio-billing';
 
 export const GET: APIRoute = endpoint(async ({ locals }) => {
   const { studio } = requireCan(locals, 'billing.manage');
-  return json({ promoCodes: await listPromoCodes(app(), studio.studioId) });
+  return answer(promoListOutput, { promoCodes: await listPromoCodes(app(), studio.studioId) });
 });
 
 export const POST: APIRoute = endpoint(async ({ locals, request }) => {
   const actor = requireActor(locals);
   const input = await readJson(request, promoCreateInput);
-  return json(await createPromo(actor, billingDeps(), input), 201);
+  return answer(promoOutput, await createPromo(actor, billingDeps(), input), 201);
 });

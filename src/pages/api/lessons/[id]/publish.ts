@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { publishInput } from '~/lib/api/publish-schemas';
+import { publishedOutput, publishInput, scheduledOutput } from '~/lib/api/publish-schemas';
 import { app } from '~/server/app';
-import { endpoint, json, readJson } from '~/server/http/api';
+import { answer, endpoint, readJson } from '~/server/http/api';
 import { requireActor } from '~/server/http/guards';
 import { publishClass } from '~/server/use-cases/publish-class';
 import { schedulePublish } from '~/server/use-cases/schedule-publish';
@@ -12,7 +12,7 @@ export const POST: APIRoute = endpoint(async ({ locals, params, request }) => {
   const input = await readJson(request, publishInput);
   if (input.publishAt) {
     await schedulePublish(actor, app(), { lessonId: params.id!, at: new Date(input.publishAt), acknowledgeWarnings: input.acknowledgeWarnings });
-    return json({ scheduledFor: input.publishAt }, 202);
+    return answer(scheduledOutput, { scheduledFor: input.publishAt }, 202);
   }
-  return json(await publishClass(actor, app(), { lessonId: params.id!, acknowledgeWarnings: input.acknowledgeWarnings }), 201);
+  return answer(publishedOutput, await publishClass(actor, app(), { lessonId: params.id!, acknowledgeWarnings: input.acknowledgeWarnings }), 201);
 });

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { recordingEventsQuery } from '~/lib/api/marking-schemas';
+import { recordingEventsOutput, recordingEventsQuery } from '~/lib/api/marking-schemas';
 import { app } from '~/server/app';
-import { endpoint, json, parseWith } from '~/server/http/api';
+import { answer, endpoint, parseWith } from '~/server/http/api';
 import { requireCan } from '~/server/http/guards';
 import { listRecordingEvents } from '~/server/services/recording-events';
 
@@ -9,5 +9,5 @@ import { listRecordingEvents } from '~/server/services/recording-events';
 export const GET: APIRoute = endpoint(async ({ locals, params, url }) => {
   const { studio } = requireCan(locals, 'class.view');
   const page = parseWith(recordingEventsQuery, Object.fromEntries(url.searchParams));
-  return json(await listRecordingEvents(app(), studio.studioId, params.id!, page));
+  return answer(recordingEventsOutput, await listRecordingEvents(app(), studio.studioId, params.id!, page));
 });

@@ -1,5 +1,6 @@
 import type { APIRoute } from 'astro';
-import { endpoint, json } from '~/server/http/api';
+import { recordingOutput } from '~/lib/api/recording-schemas';
+import { answer, endpoint } from '~/server/http/api';
 import { requireCan } from '~/server/http/guards';
 import { mediaDeps } from '~/server/media-deps';
 import { currentRecordingIdOf } from '~/server/services/lessons';
@@ -10,5 +11,5 @@ export const GET: APIRoute = endpoint(async ({ locals, params }) => {
   const { studio } = requireCan(locals, 'recording.upload');
   const deps = mediaDeps();
   const rec = await recordingOf(deps, studio.studioId, params.id!);
-  return json(toRecordingOutput(rec, await currentRecordingIdOf(deps, rec.lessonId)));
+  return answer(recordingOutput, toRecordingOutput(rec, await currentRecordingIdOf(deps, rec.lessonId)));
 });

@@ -1,10 +1,11 @@
 import type { APIRoute } from 'astro';
+import { timelineImportOutput } from '~/lib/api/timeline-schemas';
 import { MAX_TIMELINE_FILE_BYTES, timelineImportQuery } from '~/lib/api/timeline-file-schemas';
 import { timelineFromCsv } from '~/lib/timeline/timeline-csv';
 import { timelineFromWebVtt } from '~/lib/timeline/timeline-webvtt';
 import { app } from '~/server/app';
 import { AppError } from '~/server/errors';
-import { endpoint, json, parseWith, readBodyText } from '~/server/http/api';
+import { answer, endpoint, parseWith, readBodyText } from '~/server/http/api';
 import { requireActor } from '~/server/http/guards';
 import { saveClassTimeline } from '~/server/use-cases/class-marks';
 
@@ -26,6 +27,6 @@ export const POST: APIRoute = endpoint(async ({ locals, params, request, url }) 
     );
   }
   const saved = await saveClassTimeline(actor, app(), { lessonId: params.id!, version: query.version, timeline: result.timeline });
-  return json({ ...saved, segments: result.timeline.segments.length, cues: result.timeline.cues.length });
+  return answer(timelineImportOutput, { ...saved, segments: result.timeline.segments.length, cues: result.timeline.cues.length });
 });
 

@@ -1,7 +1,7 @@
 import type { APIRoute } from 'astro';
-import { proposeInput } from '~/lib/api/marking-schemas';
+import { proposalOutput, proposeInput } from '~/lib/api/marking-schemas';
 import { app } from '~/server/app';
-import { endpoint, json, readJson } from '~/server/http/api';
+import { answer, endpoint, readJson } from '~/server/http/api';
 import { requireCan } from '~/server/http/guards';
 import { proposeClassTimeline } from '~/server/services/recording-events';
 
@@ -9,5 +9,5 @@ import { proposeClassTimeline } from '~/server/services/recording-events';
 export const POST: APIRoute = endpoint(async ({ locals, params, request }) => {
   const { studio } = requireCan(locals, 'class.edit');
   await readJson(request, proposeInput);
-  return json(await proposeClassTimeline(app(), studio.studioId, params.id!));
+  return answer(proposalOutput, await proposeClassTimeline(app(), studio.studioId, params.id!));
 });
