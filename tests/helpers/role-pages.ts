@@ -13,7 +13,7 @@ export async function pagesByRole(): Promise<Record<DemoRole, string[]>> {
   const lessons = (await (await owner.get('/api/lessons')).json()).lessons as { id: string; slug: string }[];
   const desk = lessons.find((l) => l.slug === 'desk-break-mobility')!;
   const hill = lessons.find((l) => l.slug === 'hill-sprints-prep')!;
-  const staffClassPages = ['/studio', '/studio/classes', `/studio/classes/${desk.id}`, `/studio/classes/${hill.id}`];
+  const staffClassPages = ['/studio', '/studio/classes', '/studio/exercises', `/studio/classes/${desk.id}`, `/studio/classes/${hill.id}`];
   const everyone = ['/library', '/library/history', '/classes/desk-break-mobility', '/account'];
   return {
     owner: [...staffClassPages, `/studio/classes/${desk.id}/insights`, '/studio/members', '/studio/billing', '/studio/team', '/studio/mail', ...everyone],

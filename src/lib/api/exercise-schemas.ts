@@ -47,3 +47,32 @@ export type ExerciseOutput = z.infer<typeof exerciseOutput>;
 
 export const exerciseListOutput = z.object({ exercises: z.array(exerciseOutput) }).meta({ id: 'Exercises' });
 export type ExerciseListOutput = z.infer<typeof exerciseListOutput>;
+
+/** Merging two names into one: `fromId` goes away, classes and templates that named it name `intoId`. */
+export const mergeExercisesInput = z
+  .object({
+    fromId: z.guid({ error: 'Choose the name to merge away.' }),
+    intoId: z.guid({ error: 'Choose the name to keep.' }),
+  })
+  .refine((v) => v.fromId !== v.intoId, { path: ['intoId'], error: 'Choose two different names: one to keep and one to merge into it.' })
+  .meta({ id: 'MergeExercisesInput' });
+export type MergeExercisesInput = z.infer<typeof mergeExercisesInput>;
+
+/** Where an exercise is named: shown before a merge so the person sees what will follow. */
+export const exerciseUsageOutput = z
+  .object({
+    classes: z.array(z.object({ id: z.guid(), title: z.string() })).describe('Classes whose plan or marks name it'),
+    templates: z.array(z.object({ id: z.guid(), name: z.string() })).describe('Studio templates whose plan names it'),
+  })
+  .meta({ id: 'ExerciseUsage' });
+export type ExerciseUsageOutput = z.infer<typeof exerciseUsageOutput>;
+
+export const mergeExercisesOutput = z
+  .object({
+    kept: exerciseOutput,
+    mergedName: z.string(),
+    classesChanged: z.number().int(),
+    templatesChanged: z.number().int(),
+  })
+  .meta({ id: 'MergeExercisesResult' });
+export type MergeExercisesOutput = z.infer<typeof mergeExercisesOutput>;

@@ -16,3 +16,4 @@ export const lessonIdParams = idParams('Class');
 export const recordingIdParams = idParams('Recording');
 export const promoCodeIdParams = idParams('Promo code');
 export const invitationIdParams = idParams('Invitation');
+export const exerciseIdParams = idParams('Exercise');

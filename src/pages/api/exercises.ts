@@ -2,8 +2,9 @@ import type { APIRoute } from 'astro';
 import { createExerciseInput, exerciseListOutput, exerciseOutput, updateExerciseInput } from '~/lib/api/exercise-schemas';
 import { app } from '~/server/app';
 import { answer, endpoint, readJson } from '~/server/http/api';
-import { requireCan } from '~/server/http/guards';
-import { createExercise, listExercises, updateExercise } from '~/server/services/exercises';
+import { requireActor, requireCan } from '~/server/http/guards';
+import { listExercises } from '~/server/services/exercises';
+import { addExercise, editExercise } from '~/server/use-cases/exercises';
 
 export const GET: APIRoute = endpoint(async ({ locals }) => {
   const { studio } = requireCan(locals, 'exercise.edit');
@@ -11,11 +12,11 @@ export const GET: APIRoute = endpoint(async ({ locals }) => {
 });
 
 export const POST: APIRoute = endpoint(async ({ locals, request }) => {
-  const { studio } = requireCan(locals, 'exercise.edit');
-  return answer(exerciseOutput, await createExercise(app(), studio.studioId, await readJson(request, createExerciseInput)), 201);
+  const actor = requireActor(locals);
+  return answer(exerciseOutput, await addExercise(actor, app(), await readJson(request, createExerciseInput)), 201);
 });
 
 export const PATCH: APIRoute = endpoint(async ({ locals, request }) => {
-  const { studio } = requireCan(locals, 'exercise.edit');
-  return answer(exerciseOutput, await updateExercise(app(), studio.studioId, await readJson(request, updateExerciseInput)));
+  const actor = requireActor(locals);
+  return answer(exerciseOutput, await editExercise(actor, app(), await readJson(request, updateExerciseInput)));
 });

@@ -4,8 +4,16 @@ import { planPutSchema } from '~/lib/plan/plan-schema';
 import { timelinePutSchema } from '~/lib/timeline/timeline-schema';
 import { timelineExportQuery, timelineFileText, timelineImportQuery } from '~/lib/api/timeline-file-schemas';
 import { timelineImportErrorOutput } from '~/lib/api/error-schemas';
-import { lessonIdParams as params, recordingIdParams as recordingParams } from '~/lib/api/route-params';
-import { createExerciseInput, exerciseListOutput, exerciseOutput, updateExerciseInput } from '~/lib/api/exercise-schemas';
+import { exerciseIdParams, lessonIdParams as params, recordingIdParams as recordingParams } from '~/lib/api/route-params';
+import {
+  createExerciseInput,
+  exerciseListOutput,
+  exerciseOutput,
+  exerciseUsageOutput,
+  mergeExercisesInput,
+  mergeExercisesOutput,
+  updateExerciseInput,
+} from '~/lib/api/exercise-schemas';
 import { createPlanTemplateInput, planTemplateListOutput, planTemplateOutput } from '~/lib/api/plan-template-schemas';
 import { checkResultOutput, planViewOutput, timelineImportOutput, timelineOutput, timelineSavedOutput } from '~/lib/api/timeline-schemas';
 import { createRecordingInput, recordingListOutput, recordingOutput, signedRequestOutput, signUploadInput } from '~/lib/api/recording-schemas';
@@ -148,6 +156,16 @@ export const apiRoutes: RouteConfig[] = [
   {
     method: 'patch', path: '/api/exercises', summary: 'Change an exercise (by id in the body)', request: { body: json(updateExerciseInput, 'Changes') },
     responses: { 200: json(exerciseOutput, 'Changed'), ...errors(400, 401, 403, 404, 409) },
+  },
+  {
+    method: 'get', path: '/api/exercises/{id}/usage', summary: 'Classes and studio templates that name this exercise (shown before a merge)',
+    request: { params: exerciseIdParams },
+    responses: { 200: json(exerciseUsageOutput, 'Where it is named'), ...errors(401, 403, 404) },
+  },
+  {
+    method: 'post', path: '/api/exercises/merge', summary: 'Merge one exercise name into another: plans, marks and templates that named it follow, in one transaction',
+    request: { body: json(mergeExercisesInput, 'The name to merge away and the one to keep') },
+    responses: { 200: json(mergeExercisesOutput, 'Merged'), ...errors(400, 401, 403, 404) },
   },
   {
     method: 'get', path: '/api/plan-templates', summary: 'Plan templates: the built-in formats, then the studio’s own',
