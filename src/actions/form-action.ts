@@ -1,5 +1,6 @@
 import { defineAction, type ActionAPIContext } from 'astro:actions';
 import { AppError, type ErrorCode } from '~/server/errors';
+import { statusOf } from '~/server/http/error-status';
 
 /**
  * What a form action answers: the use case's result, or the domain error in a shape the page
@@ -44,4 +45,21 @@ export function formValues(form: FormData): Record<string, string> {
   const values: Record<string, string> = {};
   for (const [key, value] of form) if (typeof value === 'string') values[key] = value;
   return values;
+}
+
+type Refusal = Extract<FormOutcome<unknown>, { ok: false }>;
+
+/**
+ * How a page reads one form action's result: what it answered, or the refusal to show at the
+ * fields, with the refusal's status set on the page's response.
+ */
+export function outcomeOf<T>(
+  result: { data?: FormOutcome<T> } | undefined,
+  response: { status: number },
+): { done: T | undefined; refused: Refusal | null } {
+  const outcome = result?.data;
+  if (!outcome) return { done: undefined, refused: null };
+  if (outcome.ok) return { done: outcome.data, refused: null };
+  response.status = statusOf(outcome.code);
+  return { done: undefined, refused: outcome };
 }

@@ -2,6 +2,7 @@ import { classActions } from './class-actions';
 import { accountActions } from './account-actions';
 import { membershipActions } from './membership-actions';
 import { studioActions } from './studio-actions';
+import { entryActions } from './entry-actions';
 
 /** Every form door of the app; each calls one use case (see docs/decisions/0001-form-doors.md). */
 export const server = {
@@ -9,4 +10,5 @@ export const server = {
   ...studioActions,
   ...membershipActions,
   ...accountActions,
+  ...entryActions,
 };

@@ -1,4 +1,4 @@
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { Browser, BrowserContext, BrowserContextOptions, Page } from 'playwright-core';
 import { BASE, DEMO, DEMO_PASSWORD, signedIn } from './api-client';
 
 export type DemoRole = keyof typeof DEMO;
@@ -27,14 +27,27 @@ export async function pagesByRole(): Promise<Record<DemoRole, string[]>> {
 /** Pages anyone can open without signing in. */
 export const PUBLIC_PAGES = ['/', '/sign-in', '/sign-up', '/forgot-password'];
 
-/** A browser context signed in as a demo role through the sign-in form. */
-export async function signedInContext(browser: Browser, role: DemoRole, viewport: { width: number; height: number }, options: { reducedMotion?: 'reduce' | 'no-preference' } = {}): Promise<{ context: BrowserContext; page: Page }> {
-  const context = await browser.newContext({ viewport, ...options });
-  const page = await context.newPage();
+/**
+ * Signs in through the sign-in form with the real controls, as a person does, and waits until the
+ * form has let them in. Where they land is the caller's check.
+ */
+export async function signInThroughForm(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
   await page.goto(BASE() + '/sign-in');
-  await page.getByLabel('E-mail').fill(DEMO[role]);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith('/sign-in'));
+  await page.waitForURL((u) => u.pathname !== '/sign-in');
+}
+
+/** A new browser context (viewport, JavaScript, motion as given) signed in through the form. */
+export async function signedInPage(browser: Browser, email: string, options: BrowserContextOptions = {}): Promise<{ context: BrowserContext; page: Page }> {
+  const context = await browser.newContext(options);
+  const page = await context.newPage();
+  await signInThroughForm(page, email);
   return { context, page };
+}
+
+/** A browser context signed in as a demo role through the sign-in form. */
+export function signedInContext(browser: Browser, role: DemoRole, viewport: { width: number; height: number }, options: { reducedMotion?: 'reduce' | 'no-preference' } = {}): Promise<{ context: BrowserContext; page: Page }> {
+  return signedInPage(browser, DEMO[role], { viewport, ...options });
 }

@@ -126,7 +126,7 @@ describe('sign-up and sign-in', () => {
   });
 
   it('refuses a form post from another site (Astro origin check)', async () => {
-    const res = await fetch(`${process.env.TEST_BASE_URL}/sign-in`, {
+    const res = await fetch(`${process.env.TEST_BASE_URL}/sign-in?_action=signIn`, {
       method: 'POST',
       headers: { 'content-type': 'application/x-www-form-urlencoded', origin: 'https://elsewhere.example' },
       body: 'email=a%40b.example&password=x',

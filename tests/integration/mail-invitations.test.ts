@@ -53,9 +53,9 @@ describe('staff invitations', () => {
     expect(page.status).toBe(200);
     const html = await page.text();
     expect(html).toContain(`Join ${studio}`);
-    expect(html).toContain('value="create"');
+    expect(html).toContain('?_action=acceptInvitationAsNewAccount');
 
-    const created = await postForm(visitor, pathOf(link), { action: 'create', name: 'Iris Newcomer', password: PASSWORD });
+    const created = await postForm(visitor, `${pathOf(link)}?_action=acceptInvitationAsNewAccount`, { name: 'Iris Newcomer', password: PASSWORD });
     expect(created.status).toBe(303);
     expect(created.headers.get('location')).toBe('/studio/classes');
     expect(await rolesOf(visitor)).toEqual(['editor']);
@@ -75,14 +75,14 @@ describe('staff invitations', () => {
     const stranger = (await signUpMember('sly')).client;
     const shown = await stranger.get(pathOf(link));
     expect(await shown.text()).toContain('this invitation is for');
-    const refused = await postForm(stranger, pathOf(link), { action: 'accept' });
-    expect(refused.status).toBe(400);
+    const refused = await postForm(stranger, `${pathOf(link)}?_action=acceptInvitation`, {});
+    expect(refused.status).toBe(403);
     expect(await refused.text()).toContain(`This invitation was sent to ${m.email}`);
     expect(await rolesOf(stranger)).toEqual(['member']);
 
     const page = await m.client.get(pathOf(link));
     expect(await page.text()).toContain('Join as a coach');
-    const accepted = await postForm(m.client, pathOf(link), { action: 'accept' });
+    const accepted = await postForm(m.client, `${pathOf(link)}?_action=acceptInvitation`, {});
     expect(accepted.status).toBe(303);
     expect((await rolesOf(m.client)).sort()).toEqual(['coach', 'member']);
   });
@@ -92,10 +92,10 @@ describe('staff invitations', () => {
     const { link } = await invite(m.email, 'editor');
     const browser = new ApiClient();
     const page = await browser.get(pathOf(link));
-    expect(await page.text()).toContain('value="sign-in"');
-    const wrong = await postForm(browser, pathOf(link), { action: 'sign-in', password: 'not the password' });
+    expect(await page.text()).toContain('?_action=signInToAcceptInvitation');
+    const wrong = await postForm(browser, `${pathOf(link)}?_action=signInToAcceptInvitation`, { password: 'not the password' });
     expect(wrong.status).toBe(400);
-    const ok = await postForm(browser, pathOf(link), { action: 'sign-in', password: PASSWORD });
+    const ok = await postForm(browser, `${pathOf(link)}?_action=signInToAcceptInvitation`, { password: PASSWORD });
     expect(ok.status).toBe(303);
     expect((await rolesOf(browser)).sort()).toEqual(['editor', 'member']);
   });
@@ -108,7 +108,7 @@ describe('staff invitations', () => {
     const page = await visitor.get(pathOf(link));
     expect(page.status).toBe(410);
     expect(await page.text()).toContain('has expired');
-    const tried = await postForm(visitor, pathOf(link), { action: 'create', name: 'Late Comer', password: PASSWORD });
+    const tried = await postForm(visitor, `${pathOf(link)}?_action=acceptInvitationAsNewAccount`, { name: 'Late Comer', password: PASSWORD });
     expect(tried.status).toBe(410);
     expect(await deps.db.query.users.findFirst({ where: eq(users.email, email) })).toBeUndefined();
 

@@ -38,7 +38,7 @@ describe('password reset', () => {
     expect(await known.json()).toEqual(await unknown.json());
 
     // The page form says the same too.
-    const page = (email: string) => postForm(new ApiClient(), '/forgot-password', { email });
+    const page = (email: string) => postForm(new ApiClient(), '/forgot-password?_action=forgotPassword', { email });
     const [a, b] = await Promise.all([page(m.email), page(freshEmail('nobody'))]);
     expect(a.status).toBe(200);
     const said = (html: string) => /role="status"[^>]*>([^<]+)</.exec(html)?.[1];
@@ -108,10 +108,10 @@ describe('password reset', () => {
     const m = await signUpMember('pia');
     const { token } = await requestReset(m.email);
     const browser = new ApiClient();
-    const short = await postForm(browser, '/reset-password', { token, newPassword: 'short' });
+    const short = await postForm(browser, '/reset-password?_action=resetPassword', { token, newPassword: 'short' });
     expect(short.status).toBe(400);
     expect(await short.text()).toContain('Use at least 10 characters.');
-    const ok = await postForm(browser, '/reset-password', { token, newPassword: NEW_PASSWORD });
+    const ok = await postForm(browser, '/reset-password?_action=resetPassword', { token, newPassword: NEW_PASSWORD });
     expect(ok.status).toBe(200);
     expect(await ok.text()).toContain('Your password is changed');
     expect((await new ApiClient().signIn(m.email, NEW_PASSWORD)).status).toBe(200);

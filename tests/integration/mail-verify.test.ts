@@ -4,7 +4,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { ApiClient } from '../helpers/api-client';
 import { waitForMessage } from '../helpers/mail-box';
-import { expectWellFormed, onlyAppLink, pathOf, signUpMember, studioName } from '../helpers/mail-flow';
+import { expectWellFormed, onlyAppLink, pathOf, postForm, signUpMember, studioName } from '../helpers/mail-flow';
 import { createAppDeps } from '~/server/app';
 import { emailTokens, users } from '~/db/schema';
 
@@ -90,5 +90,23 @@ describe('verify e-mail address', () => {
     // The sign-up link counts: 4 more are sent, the 5th request is refused.
     expect(statuses).toEqual([202, 202, 202, 202, 429]);
     expect((await new ApiClient().post('/api/auth/verify-email/resend')).status).toBe(401);
+  });
+
+  it('sends a new link from the page form (the resend action), with the same limit, and sends signed-out callers to sign in', async () => {
+    const m = await signUpMember('rhea');
+    await waitForMessage(m.email, { since: m.since, match: isConfirm });
+    const since = new Date();
+    const resend = () => postForm(m.client, '/verify-email?_action=resendVerificationLink', {});
+    const sent = await resend();
+    expect(sent.status).toBe(200);
+    expect(await sent.text()).toContain('Check your inbox');
+    await waitForMessage(m.email, { since, match: isConfirm });
+    const statuses = [];
+    for (let i = 0; i < 4; i++) statuses.push((await resend()).status);
+    // The sign-up link and the one above count: 3 more make five in the hour; the form door is refused like the JSON one.
+    expect(statuses).toEqual([200, 200, 200, 429]);
+    const signedOut = await postForm(new ApiClient(), '/verify-email?_action=resendVerificationLink', {});
+    expect(signedOut.status).toBe(303);
+    expect(signedOut.headers.get('location')).toBe('/sign-in');
   });
 });

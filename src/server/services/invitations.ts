@@ -7,6 +7,7 @@ import { hashPassword } from '../auth/passwords';
 import { AppError, notFound } from '../errors';
 import { sendInvitation } from '../mail/messages';
 import { hashToken, newToken, TOKEN_LIFETIME } from '../mail/tokens';
+import { signIn } from './accounts';
 
 export type StaffRole = 'coach' | 'editor';
 
@@ -205,6 +206,26 @@ export async function acceptInvitation(
     await tx.insert(memberships).values({ userId: user.id, studioId: inv.studioId, role: inv.role }).onConflictDoNothing();
     return { studioId: inv.studioId, role: inv.role };
   });
+}
+
+/**
+ * Signs in with the invited address's existing account and accepts in one step. The sign-in
+ * counts against the same limits as the sign-in page. An invitation that closed meanwhile
+ * (expired, withdrawn) is refused with the reason.
+ */
+export async function signInAndAcceptInvitation(
+  deps: AppDeps,
+  token: string,
+  password: string,
+  address: string,
+): Promise<{ session: Session; role: StaffRole }> {
+  const found = await lookupInvitation(deps, token);
+  if (found.state !== 'open' || !found.email) {
+    throw new AppError(found.state === 'invalid' ? 'not_found' : 'conflict', invitationStateMessage(found.state === 'open' ? 'invalid' : found.state));
+  }
+  const session = await signIn(deps, { email: found.email, password }, address);
+  const { role } = await acceptInvitation(deps, token, { id: session.userId, email: found.email });
+  return { session, role };
 }
 
 /**

@@ -1,0 +1,82 @@
+import { signInInput, signUpInput } from '~/lib/api/auth-schemas';
+import { acceptAsNewAccountInput, forgotPasswordInput, resetPasswordInput } from '~/lib/api/mail-schemas';
+import { app } from '~/server/app';
+import { parseWith } from '~/server/http/api';
+import { requestAddress } from '~/server/http/client-address';
+import { homePath, requireUser } from '~/server/http/guards';
+import { clearSessionCookie, setSessionCookie } from '~/server/http/session-cookie';
+import { resolveStudio, signIn, signUp } from '~/server/services/accounts';
+import { FORGOT_PASSWORD_ANSWER, requestPasswordReset, resetPassword, sendVerificationLink } from '~/server/services/email-auth';
+import { acceptInvitation, acceptWithNewAccount, signInAndAcceptInvitation } from '~/server/services/invitations';
+import { formAction, formValues } from './form-action';
+
+// Where every way of joining through an invitation lands.
+const STAFF_HOME = '/studio/classes';
+const invitationPassword = signInInput.pick({ password: true });
+
+/**
+ * The account-entry forms (sign-in, sign-up, password reset, e-mail confirmation, invitations).
+ * Each calls the same service as its JSON endpoint under /api/auth; limits key on the address
+ * src/serve.ts resolved (`requestAddress`).
+ */
+export const entryActions = {
+  /** "Sign in": answers the person's home page; the page may send them to `?next=` instead. */
+  signIn: formAction(async (form, ctx) => {
+    const deps = app();
+    const session = await signIn(deps, parseWith(signInInput, formValues(form)), requestAddress(ctx));
+    setSessionCookie(ctx.cookies, deps.auth, session);
+    return homePath({ studio: await resolveStudio(deps, session.userId) });
+  }),
+
+  /** "Create account". */
+  signUp: formAction(async (form, ctx) => {
+    const deps = app();
+    const { session } = await signUp(deps, parseWith(signUpInput, formValues(form)), requestAddress(ctx));
+    setSessionCookie(ctx.cookies, deps.auth, session);
+    return '/library';
+  }),
+
+  /** "Send me a link": the same answer whether or not the address has an account. */
+  forgotPassword: formAction(async (form, ctx) => {
+    await requestPasswordReset(app(), parseWith(forgotPasswordInput, formValues(form)), requestAddress(ctx));
+    return FORGOT_PASSWORD_ANSWER;
+  }),
+
+  /** "Save my new password" from a reset link: every session ends, this browser's included. */
+  resetPassword: formAction(async (form, { cookies }) => {
+    const deps = app();
+    await resetPassword(deps, parseWith(resetPasswordInput, formValues(form)));
+    clearSessionCookie(cookies, deps.auth);
+    return 'done' as const;
+  }),
+
+  /** "Send a new link" on the confirm-your-e-mail page. */
+  resendVerificationLink: formAction(async (_form, { locals }) => {
+    const { user } = requireUser(locals);
+    return sendVerificationLink(app(), user.id);
+  }),
+
+  /** "Join as …" for a signed-in person with the invited address. */
+  acceptInvitation: formAction(async (_form, { locals, params }) => {
+    const { user } = requireUser(locals);
+    await acceptInvitation(app(), params.token ?? '', user);
+    return STAFF_HOME;
+  }),
+
+  /** "Sign in and join": the invited address already has an account. */
+  signInToAcceptInvitation: formAction(async (form, ctx) => {
+    const deps = app();
+    const { password } = parseWith(invitationPassword, formValues(form));
+    const { session } = await signInAndAcceptInvitation(deps, ctx.params.token ?? '', password, requestAddress(ctx));
+    setSessionCookie(ctx.cookies, deps.auth, session);
+    return STAFF_HOME;
+  }),
+
+  /** "Create my account and join". */
+  acceptInvitationAsNewAccount: formAction(async (form, { params, cookies }) => {
+    const deps = app();
+    const { session } = await acceptWithNewAccount(deps, params.token ?? '', parseWith(acceptAsNewAccountInput, formValues(form)));
+    setSessionCookie(cookies, deps.auth, session);
+    return STAFF_HOME;
+  }),
+};
