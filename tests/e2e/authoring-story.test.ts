@@ -7,12 +7,13 @@ import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { type ApiClient, BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
+import type { Browser, Page } from 'playwright-core';
+import { type ApiClient, BASE, DEMO, signedIn } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
 import { makeClip } from '../helpers/media-files';
 import { timelineToCsv } from '~/lib/timeline/timeline-csv';
 import { readTimelineFile } from '~/lib/editor/timeline-file';
+import { signedInPage } from '../helpers/role-pages';
 
 let browser: Browser;
 let api: ApiClient;
@@ -33,16 +34,7 @@ afterAll(async () => {
   if (dir) await rm(dir, { recursive: true, force: true });
 });
 
-async function signInPage(email: string, viewport = { width: 1366, height: 900 }): Promise<{ context: BrowserContext; page: Page }> {
-  const context = await browser.newContext({ viewport });
-  const page = await context.newPage();
-  await page.goto(BASE() + '/sign-in');
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => url.pathname !== '/sign-in');
-  return { context, page };
-}
+const signInPage = (email: string, viewport = { width: 1366, height: 900 }) => signedInPage(browser, email, { viewport });
 
 /** Types into a field and counts the keys. */
 async function type(page: Page, locator: ReturnType<Page['locator']>, text: string) {

@@ -7,9 +7,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
+import { BASE, DEMO, signedIn } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
 import { createSmallClass } from '../helpers/published-class';
+import { signedInPage } from '../helpers/role-pages';
 
 let browser: Browser;
 let dir: string;
@@ -25,14 +26,7 @@ afterAll(async () => {
 
 async function signInAs(email: string): Promise<Page> {
   // JavaScript off: the forms must work as plain HTML (progressive enhancement).
-  const context = await browser.newContext({ javaScriptEnabled: false });
-  const page = await context.newPage();
-  await page.goto(BASE() + '/sign-in');
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => url.pathname !== '/sign-in');
-  return page;
+  return (await signedInPage(browser, email, { javaScriptEnabled: false })).page;
 }
 
 describe('team form', () => {

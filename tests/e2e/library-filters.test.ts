@@ -8,10 +8,11 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
-import { BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
+import { BASE, DEMO, signedIn } from '../helpers/api-client';
 import { launchBrowser } from '../helpers/browser';
 import { ensureDeskBreakPublished } from '../helpers/demo-class';
 import { createSmallClass } from '../helpers/published-class';
+import { signInThroughForm } from '../helpers/role-pages';
 
 let browser: Browser;
 let dir: string;
@@ -34,10 +35,7 @@ afterAll(async () => {
 });
 
 async function signInAsMember(page: Page) {
-  await page.goto(BASE() + '/sign-in');
-  await page.getByLabel('E-mail').fill(DEMO.member);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  await signInThroughForm(page, DEMO.member);
   await page.waitForURL(BASE() + '/library');
 }
 

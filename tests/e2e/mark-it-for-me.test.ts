@@ -13,9 +13,10 @@ import { scoreSoundtrack, type SoundtrackScore } from '~/lib/media/class-soundtr
 import { expandPlan } from '~/lib/plan/expand-plan';
 import { planSchema } from '~/lib/plan/plan-schema';
 import { renderSoundtrack } from '~/server/media/render-soundtrack';
-import { ApiClient, BASE, DEMO, DEMO_PASSWORD } from '../helpers/api-client';
+import { ApiClient, BASE, DEMO } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
 import { matchedShare } from '../helpers/marking-fixtures';
+import { signInThroughForm } from '../helpers/role-pages';
 
 const planInput = {
   blocks: [
@@ -58,10 +59,7 @@ describe('Mark it for me', () => {
     const page = await context.newPage();
     const pageErrors: string[] = [];
     page.on('pageerror', (e) => pageErrors.push(e.message));
-    await page.goto(BASE() + '/sign-in');
-    await page.getByLabel('E-mail').fill(DEMO.coach);
-    await page.getByLabel('Password').fill(DEMO_PASSWORD);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signInThroughForm(page, DEMO.coach);
     await page.waitForURL(BASE() + '/studio/classes');
     await page.goto(`${BASE()}/studio/classes/${lessonId}`);
     await page.locator('.uppy-Dashboard-input').first().waitFor({ state: 'attached' });

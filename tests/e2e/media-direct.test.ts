@@ -8,10 +8,11 @@ import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser } from 'playwright-core';
-import { BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
+import { BASE, DEMO, signedIn } from '../helpers/api-client';
 import { launchBrowser } from '../helpers/browser';
 import { createSmallClass } from '../helpers/published-class';
 import { STORE_ORIGIN } from '../helpers/media-fetch';
+import { signInThroughForm } from '../helpers/role-pages';
 
 let browser: Browser;
 let dir: string;
@@ -43,10 +44,7 @@ describe('media delivery', () => {
       if (url.origin === new URL(BASE()).origin) appSegments.push(url.pathname);
       if (url.origin === STORE_ORIGIN) storeSegments.push(url.pathname);
     });
-    await page.goto(BASE() + '/sign-in');
-    await page.getByLabel('E-mail').fill(DEMO.member);
-    await page.getByLabel('Password').fill(DEMO_PASSWORD);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signInThroughForm(page, DEMO.member);
     await page.waitForURL(BASE() + '/library');
     await page.goto(`${BASE()}/classes/${cls.slug}`);
     await page.waitForSelector('astro-island:not([ssr])');

@@ -5,10 +5,11 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser } from 'playwright-core';
-import { BASE, DEMO, DEMO_PASSWORD } from '../helpers/api-client';
+import { BASE, DEMO } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
 import { ensureDeskBreakPublished } from '../helpers/demo-class';
 import { formatClock } from '~/lib/time/format-time';
+import { signInThroughForm } from '../helpers/role-pages';
 
 let browser: Browser;
 
@@ -22,10 +23,7 @@ describe('a member in the library and the player', () => {
   it('filters, opens a class, jumps to the third chapter, reads the clock, and is offered to resume', async () => {
     const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await context.newPage();
-    await page.goto(BASE() + '/sign-in');
-    await page.getByLabel('E-mail').fill(DEMO.member);
-    await page.getByLabel('Password').fill(DEMO_PASSWORD);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signInThroughForm(page, DEMO.member);
     await page.waitForURL(BASE() + '/library');
 
     // Filters live in the URL and apply on the server.

@@ -4,12 +4,13 @@
 // nudge, leave the skipped station out of the plan), saves and reloads; a second person saving
 // first leads to the 409 choice; the coach then publishes it from the class page. Screenshots go to test-results/screenshots/editor-*.png.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Browser, BrowserContext, Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { startQueue } from '~/server/queue';
 import { queueDemoRecording } from '~/scripts/demo/demo-recording-job';
 import { encodePeaks } from '~/lib/media/peaks';
-import { type ApiClient, BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
+import { type ApiClient, BASE, DEMO, signedIn } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
+import { signedInPage } from '../helpers/role-pages';
 
 interface Recording { id: string; state: string; isCurrent: boolean; durationSeconds: number | null; playlistUrl: string | null; peaksUrl: string | null; posterUrl: string | null; failureReason: string | null; createdAt: string }
 interface StoredTimeline { version: number; segments: { id: string; kind: string; startSeconds: number; endSeconds: number; exercise?: string; round?: number }[]; cues: unknown[] }
@@ -61,16 +62,7 @@ afterAll(async () => {
   await browser?.close();
 });
 
-async function signInPage(email: string, viewport: { width: number; height: number }): Promise<{ context: BrowserContext; page: Page }> {
-  const context = await browser.newContext({ viewport });
-  const page = await context.newPage();
-  await page.goto(BASE() + '/sign-in');
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => url.pathname !== '/sign-in');
-  return { context, page };
-}
+const signInPage = (email: string, viewport: { width: number; height: number }) => signedInPage(browser, email, { viewport });
 
 async function openEditor(page: Page, id = lessonId): Promise<void> {
   await page.goto(`${BASE()}/studio/classes/${id}`);

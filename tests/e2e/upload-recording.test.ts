@@ -9,8 +9,9 @@ import { promisify } from 'node:util';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { ListPartsCommand, S3Client } from '@aws-sdk/client-s3';
-import { ApiClient, BASE, DEMO, DEMO_PASSWORD } from '../helpers/api-client';
+import { ApiClient, BASE, DEMO } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
+import { signedInPage } from '../helpers/role-pages';
 
 const run = promisify(execFile);
 const MAX_UPLOAD_BYTES = Number(process.env.MAX_UPLOAD_BYTES ?? 8 * 1024 ** 3);
@@ -84,12 +85,7 @@ async function recordingsOf(lessonId: string): Promise<Recording[]> {
 
 /** Signs in through the form, as a coach would, and opens the class page with the widget hydrated. */
 async function openClassPage(lessonId: string): Promise<{ context: BrowserContext; page: Page }> {
-  const context = await browser.newContext({ viewport: { width: 1200, height: 1000 } });
-  const page = await context.newPage();
-  await page.goto(BASE() + '/sign-in');
-  await page.getByLabel('E-mail').fill(DEMO.coach);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
+  const { context, page } = await signedInPage(browser, DEMO.coach, { viewport: { width: 1200, height: 1000 } });
   await page.waitForURL(BASE() + '/studio/classes');
   await page.goto(`${BASE()}/studio/classes/${lessonId}`);
   await page.getByRole('heading', { name: 'Recording', level: 2 }).waitFor();
