@@ -45,7 +45,11 @@ export const onRequest = defineMiddleware(async (context, next) => {
       context.locals.studio = await resolveStudio(deps, user.id);
     }
   }
-  const response = await next();
+  let response = await next();
+  // A path no route matches (say an id holding a quote or a slash) gets the framework's HTML 404 page; API callers get the usual error body.
+  if (response.status === 404 && isApiPath(context.url.pathname) && !(response.headers.get('content-type') ?? '').includes('json')) {
+    response = errorResponse(notFound());
+  }
   return withSecurityHeaders(response, { signedIn: !!context.locals.user, https: context.url.protocol === 'https:' });
 });
 

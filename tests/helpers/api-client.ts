@@ -21,6 +21,8 @@ export class ApiClient {
   cookie = '';
   /** Sent as X-Forwarded-For, as the proxy in front of the app would add it. */
   address = randomClientAddress();
+  /** When set, an answer the OpenAPI document does not describe is handed here instead of thrown (the fuzz test counts them all). */
+  onContractError?: (e: unknown) => void;
 
   async request(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Response> {
     const isText = typeof body === 'string';
@@ -41,6 +43,7 @@ export class ApiClient {
       this.cookie = pair.endsWith('=') ? '' : pair;
     }
     await assertDocumentedResponse(BASE(), method, path, res).catch((e: unknown) => {
+      if (this.onContractError) return this.onContractError(e);
       // CONTRACT_REPORT=<file> lists every mismatch of a run instead of stopping at the first (for surveying drift).
       if (!process.env.CONTRACT_REPORT) throw e;
       appendFileSync(process.env.CONTRACT_REPORT, `${e instanceof Error ? e.message : String(e)}\n---\n`);

@@ -114,6 +114,17 @@ describe('route ids that are not UUIDs', () => {
       else await res.arrayBuffer();
     }
   });
+
+  // Found by tests/integration/openapi-fuzz.test.ts: an id holding a quote, a backslash or an
+  // encoded slash matches no route at all, and the framework answered its HTML 404 page.
+  it.each(['"x"', 'a\\b', '<script>alert(1)</script>', '%00'])('an id no route can match (%s) still gets the JSON error body', async (bad) => {
+    for (const path of [`/api/lessons/${encodeURIComponent(bad)}/archive`, `/api/recordings/${encodeURIComponent(bad)}/retry`, `/media/${encodeURIComponent(bad)}/poster.jpg`]) {
+      const res = await owner.request(path.startsWith('/media/') ? 'GET' : 'POST', path);
+      expect(res.status, path).toBe(404);
+      expect(res.headers.get('content-type'), path).toMatch(/application\/json/);
+      expect((await res.json()).error.code, path).toBe('not_found');
+    }
+  });
 });
 
 describe('numbers past their columns', () => {
