@@ -15,7 +15,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readFile } from 'node:fs/promises';
 import fc from 'fast-check';
 import { createAppDeps } from '~/server/app';
-import { errorOutput } from '~/server/openapi/responses';
+import { errorOutput } from '~/lib/api/error-schemas';
 import { ApiClient, BASE } from '../helpers/api-client';
 import { startWorker, WORKER_PID_FILE } from '../helpers/app-server';
 import { changedTables, tableChecksums } from '../helpers/db-checksum';
