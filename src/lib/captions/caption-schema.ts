@@ -104,3 +104,9 @@ export function captionsPastRecording(cues: readonly CaptionCue[], recordingSeco
   });
   return fields;
 }
+
+/** The member's player preferences (captions on or off), remembered with their account. */
+export const playerPreferencesPut = z
+  .object({ captionsOn: z.boolean({ error: 'Say whether captions are on (true) or off (false).' }) })
+  .meta({ id: 'PlayerPreferences' });
+export type PlayerPreferencesPut = z.infer<typeof playerPreferencesPut>;

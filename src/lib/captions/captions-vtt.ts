@@ -8,7 +8,7 @@
  * the editor is exactly what members read.
  */
 import SrtParser from 'srt-parser-2';
-import { WebVTTParser } from 'webvtt-parser';
+import webvtt from 'webvtt-parser';
 import { formatVttTimestamp, roundToMillis } from '../time/format-time';
 import { captionCuesSchema, type CaptionCue } from './caption-schema';
 
@@ -60,7 +60,7 @@ export function captionsFromFile(text: string): CaptionFileResult {
   }
   let raw: { startSeconds: number; endSeconds: number; text: string }[];
   if (format === 'vtt') {
-    const parsed = new WebVTTParser().parse(text, 'metadata');
+    const parsed = new webvtt.WebVTTParser().parse(text, 'metadata');
     const first = parsed.errors[0];
     if (first) return { ok: false, message: `The WebVTT file has a problem on line ${first.line}: ${first.message.replace(/\.+$/, '')}. Nothing was imported.` };
     raw = parsed.cues.map((c) => ({ startSeconds: c.startTime, endSeconds: c.endTime, text: c.text }));

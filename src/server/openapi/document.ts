@@ -8,6 +8,7 @@ import { errors, json } from './responses';
 import { billingRoutes } from './routes-billing';
 import { mailRoutes } from './routes-mail';
 import { markingRoutes } from './routes-marking';
+import { captionRoutes } from './routes-captions';
 
 /** Every API route, described from the same zod schemas the endpoints use. */
 export function openApiDocument() {
@@ -76,7 +77,7 @@ export function openApiDocument() {
     method: 'delete', path: '/api/lessons/{id}', summary: 'Delete a draft class (owner, coach)', request: { params: lessonIdParams },
     responses: { 204: { description: 'Deleted' }, ...errors(401, 403, 404, 409) },
   });
-  for (const extra of [...apiRoutes, ...billingRoutes, ...mailRoutes, ...markingRoutes]) add(extra);
+  for (const extra of [...apiRoutes, ...billingRoutes, ...mailRoutes, ...markingRoutes, ...captionRoutes]) add(extra);
 
   const document = new OpenApiGeneratorV31(registry.definitions).generateDocument({
     openapi: '3.1.0',

@@ -4,10 +4,12 @@ import { buildChapters, chaptersToVtt, type Chapter } from '~/lib/publishing/cha
 import type { CheckResult, Finding } from '~/lib/timing/finding-types';
 import type { Segment, Cue } from '~/lib/timeline/timeline-schema';
 import type { Plan } from '~/lib/plan/plan-schema';
+import type { PublishedCaptions } from '~/lib/captions/caption-schema';
 import { notFound } from '../errors';
 import type { AppDeps } from '../app';
 import type { Tx } from '../db';
 import { gateLoaded, loadClass, type LoadedClass } from './class-check';
+import { captionsToPublish } from './captions';
 
 /** What a published version holds; members' pages read only this. */
 export interface VersionSnapshot {
@@ -30,6 +32,8 @@ export interface VersionSnapshot {
   /** The studio's notes for each exercise in the class, as published. */
   exercises: { name: string; cautions: string | null; easierOption: string | null; harderOption: string | null }[];
   check: { errors: number; warnings: number; infos: number; warningMessages: string[] };
+  /** The captions as published (absent when the class had none, and in versions from before captions). */
+  captions?: PublishedCaptions;
 }
 
 const count = (findings: readonly Finding[], severity: Finding['severity']) => findings.filter((f) => f.severity === severity).length;
@@ -56,6 +60,7 @@ export async function writeVersion(
         .where(and(eq(exercises.studioId, l.studioId), inArray(sql`lower(${exercises.name})`, names.map((n) => n.toLowerCase()))))
     : [];
   const warnings = check.findings.filter((f) => f.severity === 'warning');
+  const captions = await captionsToPublish(tx, l.id);
   const snapshot: VersionSnapshot = {
     details: {
       title: l.title,
@@ -80,6 +85,7 @@ export async function writeVersion(
       infos: count(check.findings, 'info'),
       warningMessages: warnings.map((w) => w.message),
     },
+    ...(captions ? { captions } : {}),
   };
   const [{ last } = { last: 0 }] = await tx
     .select({ last: max(lessonVersions.number) })
