@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { WebVTTParser } from 'webvtt-parser';
-import { ApiClient, DEMO, signedIn } from '../helpers/api-client';
+import { type ApiClient, DEMO, signedIn } from '../helpers/api-client';
 import { createSmallClass } from '../helpers/published-class';
 
 let dir: string;
