@@ -4,14 +4,20 @@
 import { spawn } from 'node:child_process';
 import { createServer } from 'node:net';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { eq } from 'drizzle-orm';
 import { ApiClient, DEMO, signedIn } from '../helpers/api-client';
 import { waitForMessage } from '../helpers/mail-box';
-import { signUpMember } from '../helpers/mail-flow';
+import { freshEmail, signUpMember } from '../helpers/mail-flow';
+import { createAppDeps } from '~/server/app';
+import { deliver } from '~/server/mail/transport';
+import { studios } from '~/db/schema';
 
+const deps = createAppDeps(process.env.DATABASE_URL!);
 let owner: ApiClient;
 beforeAll(async () => {
   owner = await signedIn(DEMO.owner);
 });
+afterAll(() => deps.pool.end());
 
 describe('captured mail page', () => {
   it('lists captured messages for the owner and shows the text and HTML parts', async () => {
@@ -30,6 +36,29 @@ describe('captured mail page', () => {
     expect(body).toContain('sandbox=""');
     expect(body).toContain('srcdoc=');
     expect(body).toContain('Confirm my address');
+  });
+
+  it("shows the owner only their own studio's messages, never another studio's", async () => {
+    const own = (await deps.db.query.studios.findFirst({ where: eq(studios.slug, deps.studioSlug) }))!;
+    const [other] = await deps.db.insert(studios).values({ slug: `mail-other-${Date.now()}`, name: 'Another Studio' }).returning();
+    const since = new Date(Date.now() - 1000);
+    // Two messages through the real SMTP transport into the mail fake, one per studio.
+    const ownTo = freshEmail('ours');
+    const otherTo = freshEmail('theirs');
+    const body = { subject: 'A note', text: 'Hello', html: '<p>Hello</p>' };
+    await deliver({ ...body, studio: { id: own.id, name: own.name }, to: { name: 'Ours', address: ownTo } });
+    await deliver({ ...body, studio: { id: other!.id, name: other!.name }, to: { name: 'Theirs', address: otherTo } });
+    const ownMail = await waitForMessage(ownTo, { since });
+    const otherMail = await waitForMessage(otherTo, { since });
+
+    const html = await (await owner.get('/studio/mail')).text();
+    expect(html).toContain(ownTo);
+    expect(html).not.toContain(otherTo);
+    expect((await owner.get(`/studio/mail?file=${ownMail.entry.file}`)).status).toBe(200);
+    // Asking for the other studio's file by name finds nothing.
+    const asked = await owner.get(`/studio/mail?file=${otherMail.entry.file}`);
+    expect(asked.status).toBe(404);
+    expect(await asked.text()).not.toContain(otherTo);
   });
 
   it('is for the owner only and reads only the fake’s own files', async () => {

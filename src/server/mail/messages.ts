@@ -43,7 +43,7 @@ export async function sendVerifyEmail(deps: AppDeps, m: { userId: string; token:
     url: absoluteUrl(`/verify-email?token=${encodeURIComponent(m.token)}`),
     validHours: TOKEN_LIFETIME.verifyEmailHours,
   });
-  await deliver({ ...content, fromName: studio.name, to: { name: user.name, address: user.email } });
+  await deliver({ ...content, studio, to: { name: user.name, address: user.email } });
 }
 
 /** The password reset link. */
@@ -55,7 +55,7 @@ export async function sendPasswordReset(deps: AppDeps, m: { userId: string; toke
     url: absoluteUrl(`/reset-password?token=${encodeURIComponent(m.token)}`),
     validMinutes: TOKEN_LIFETIME.resetPasswordMinutes,
   });
-  await deliver({ ...content, fromName: studio.name, to: { name: user.name, address: user.email } });
+  await deliver({ ...content, studio, to: { name: user.name, address: user.email } });
 }
 
 /** The staff invitation. */
@@ -71,7 +71,7 @@ export async function sendInvitation(deps: AppDeps, m: { invitationId: string; t
     url: absoluteUrl(`/invitations/${encodeURIComponent(m.token)}`),
     expiresOn: formatDay(inv.expiresAt),
   });
-  await deliver({ ...content, fromName: studio.name, to: { name: '', address: inv.email } });
+  await deliver({ ...content, studio, to: { name: '', address: inv.email } });
 }
 
 /** What the new-class message shows of a published version (from its snapshot). */
@@ -117,7 +117,7 @@ export async function sendClassPublished(deps: AppDeps, m: { userId: string; cls
     url: absoluteUrl(`/classes/${encodeURIComponent(m.cls.slug)}`),
     preferencesUrl: absoluteUrl('/account#email-title'),
   });
-  await deliver({ ...content, fromName: studio.name, to: { name: user.name, address: user.email } });
+  await deliver({ ...content, studio, to: { name: user.name, address: user.email } });
 }
 
 function formatPrice(minor: number, currency: string): string {
@@ -143,7 +143,7 @@ export async function sendTrialEnding(deps: AppDeps, m: { subscriptionId: string
     continues: !sub.cancelAtPeriodEnd,
     accountUrl: absoluteUrl('/account'),
   });
-  await deliver({ ...content, fromName: studio.name, to: { name: user.name, address: user.email } });
+  await deliver({ ...content, studio, to: { name: user.name, address: user.email } });
 }
 
 /**
@@ -163,5 +163,5 @@ export async function sendPaymentFailed(deps: AppDeps, m: { userId: string; stud
     graceDays: settings?.pastDueGraceDays ?? null,
     accountUrl: absoluteUrl('/account'),
   });
-  await deliver({ ...content, fromName: studio.name, to: { name: user.name, address: user.email } });
+  await deliver({ ...content, studio, to: { name: user.name, address: user.email } });
 }

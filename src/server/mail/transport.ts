@@ -10,9 +10,16 @@ export interface MailContent {
 
 export interface OutgoingMail extends MailContent {
   to: { name: string; address: string };
-  /** Shown as the sender's name, so members see their studio rather than our product. */
-  fromName: string;
+  /**
+   * The studio the message is sent for: its name is the sender's name, so members see their studio
+   * rather than our product; its id goes in STUDIO_HEADER so the captured-mail page can show each
+   * owner only their own studio's messages.
+   */
+  studio: { id: string; name: string };
 }
+
+/** Names the studio a message was sent for (our own header; RFC 6648 advises against an X- prefix). */
+export const STUDIO_HEADER = 'Roundmark-Studio';
 
 let shared: Transporter | undefined;
 
@@ -31,7 +38,8 @@ export function fromAddress(mailFrom = env().MAIL_FROM): string {
 /** Sends one message; throws when the SMTP server refuses it, so jobs retry and callers can decide. */
 export async function deliver(mail: OutgoingMail): Promise<string> {
   const info = await mailTransport().sendMail({
-    from: { name: mail.fromName, address: fromAddress() },
+    from: { name: mail.studio.name, address: fromAddress() },
+    headers: { [STUDIO_HEADER]: mail.studio.id },
     to: { name: mail.to.name, address: mail.to.address },
     subject: mail.subject,
     text: mail.text,

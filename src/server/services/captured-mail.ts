@@ -1,6 +1,7 @@
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { settings } from '../env';
+import { STUDIO_HEADER } from '../mail/transport';
 
 // Reads what the local SMTP fake (docker-free-dev/mail-fake.mjs) stored, for the owner's
 // preview page in development and tests. Production never sets ROUNDMARK_MAIL_PREVIEW, so the
@@ -22,8 +23,42 @@ export interface CapturedMailEntry {
   date: string;
 }
 
-/** Newest first, at most `limit`. */
-export async function listCapturedMail(limit = 200): Promise<CapturedMailEntry[]> {
+/** The fake's file names only (arrival time and counter), so no other file can be asked for. */
+const FILE_NAME = /^\d{8}T\d{9}Z-\d{6}\.eml$/;
+const STUDIO_LINE = new RegExp(`^${STUDIO_HEADER}:[ \\t]*(\\S+)`, 'im');
+
+/** The studio a stored message was sent for (our header); null when it names none. */
+function studioOf(raw: Buffer): string | null {
+  const text = raw.toString('utf8');
+  const end = text.search(/\r?\n\r?\n/);
+  return STUDIO_LINE.exec(end < 0 ? text : text.slice(0, end))?.[1] ?? null;
+}
+
+async function readStored(file: string): Promise<Buffer | null> {
+  if (!FILE_NAME.test(file)) return null;
+  try {
+    return await readFile(path.join(mailDir(), file));
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * One studio's messages, newest first, at most `limit`. Each message names its studio in a
+ * header, so another studio's mail (and mail sent for none) is never listed.
+ */
+export async function listCapturedMail(studioId: string, limit = 200): Promise<CapturedMailEntry[]> {
+  const mine: CapturedMailEntry[] = [];
+  for (const entry of await allCapturedMail()) {
+    const raw = await readStored(entry.file);
+    if (raw && studioOf(raw) === studioId) mine.push(entry);
+    if (mine.length >= limit) break;
+  }
+  return mine;
+}
+
+/** Every entry of the fake's index, newest first. */
+async function allCapturedMail(): Promise<CapturedMailEntry[]> {
   let text: string;
   try {
     text = await readFile(path.join(mailDir(), 'index.jsonl'), 'utf8');
@@ -41,11 +76,8 @@ export async function listCapturedMail(limit = 200): Promise<CapturedMailEntry[]
       // A line still being appended; the next look sees it whole.
     }
   }
-  return entries.sort((a, b) => b.file.localeCompare(a.file)).slice(0, limit);
+  return entries.sort((a, b) => b.file.localeCompare(a.file));
 }
-
-/** The fake's file names only (arrival time and counter), so no other file can be asked for. */
-const FILE_NAME = /^\d{8}T\d{9}Z-\d{6}\.eml$/;
 
 export interface CapturedMail {
   file: string;
@@ -57,15 +89,13 @@ export interface CapturedMail {
   html: string | null;
 }
 
-/** One stored message, parsed; null when the name is not one of the fake's or the file is gone. */
-export async function readCapturedMail(file: string): Promise<CapturedMail | null> {
-  if (!FILE_NAME.test(file)) return null;
-  let raw: Buffer;
-  try {
-    raw = await readFile(path.join(mailDir(), file));
-  } catch {
-    return null;
-  }
+/**
+ * One stored message of this studio, parsed; null when the name is not one of the fake's, the
+ * file is gone, or the message was sent for another studio.
+ */
+export async function readCapturedMail(studioId: string, file: string): Promise<CapturedMail | null> {
+  const raw = await readStored(file);
+  if (!raw || studioOf(raw) !== studioId) return null;
   // mailparser is a development dependency: loaded only when the preview is on.
   const { simpleParser } = await import('mailparser');
   const parsed = await simpleParser(raw);
