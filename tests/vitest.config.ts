@@ -38,6 +38,8 @@ export default defineConfig({
           name: 'e2e',
           sequence: { groupOrder: 2 },
           include: ['tests/e2e/**/*.test.ts'],
+          // Fails a browser test on an undocumented API answer or a CSP violation (see the file).
+          setupFiles: ['tests/e2e/browser-checks-setup.ts'],
           environment: 'node',
           testTimeout: 180_000,
           hookTimeout: 240_000,

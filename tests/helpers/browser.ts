@@ -1,8 +1,13 @@
 import { chromium, type Browser } from 'playwright-core';
+import { watchContext } from './browser-checks';
 
-/** Debian's Chromium, headless, with the flags this closed-network machine needs. */
-export function launchBrowser(): Promise<Browser> {
-  return chromium.launch({
+/**
+ * Debian's Chromium, headless, with the flags this closed-network machine needs. Every context it
+ * makes (browser.newContext, and browser.newPage's own) carries the shared checks of
+ * tests/helpers/browser-checks.ts: API answers held to the OpenAPI document, CSP violations recorded.
+ */
+export async function launchBrowser(): Promise<Browser> {
+  const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
     headless: true,
     args: [
@@ -15,6 +20,13 @@ export function launchBrowser(): Promise<Browser> {
       '--disable-sync',
     ],
   });
+  const newContext = browser.newContext.bind(browser);
+  browser.newContext = async (options) => {
+    const context = await newContext(options);
+    await watchContext(context);
+    return context;
+  };
+  return browser;
 }
 
 /** Where browser tests keep screenshots (a test artifact, gitignored). */

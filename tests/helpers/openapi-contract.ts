@@ -120,11 +120,24 @@ function validatorFor(c: Contract, template: string, method: string, status: str
   return v;
 }
 
+/** What the check needs of an answer, from fetch's Response or from a browser's (Playwright) response. */
+export interface ReceivedAnswer {
+  status: number;
+  /** The Content-Type header's value, or '' when there is none. */
+  contentType: string;
+  text(): Promise<string>;
+}
+
+/** Checks one fetch answer of our API against the document; see assertDocumentedAnswer. */
+export function assertDocumentedResponse(baseUrl: string, method: string, url: string, res: Response): Promise<void> {
+  return assertDocumentedAnswer(baseUrl, method, url, { status: res.status, contentType: res.headers.get('content-type') ?? '', text: () => res.clone().text() });
+}
+
 /**
  * Checks one answer of our API against the document; throws a ContractError naming what differs.
  * Only /api/** paths are API operations (pages and /media are not in the document).
  */
-export async function assertDocumentedResponse(baseUrl: string, method: string, url: string, res: Response): Promise<void> {
+export async function assertDocumentedAnswer(baseUrl: string, method: string, url: string, res: ReceivedAnswer): Promise<void> {
   const { pathname } = new URL(url, baseUrl);
   if (!pathname.startsWith('/api/')) return;
   const c = await loadContract(baseUrl);
@@ -142,15 +155,15 @@ export async function assertDocumentedResponse(baseUrl: string, method: string, 
   const documented = operation.responses?.[String(res.status)];
   if (!documented) {
     const listed = Object.keys(operation.responses ?? {}).join(', ');
-    throw new ContractError(`${label}, which the OpenAPI document does not list (it lists ${listed}). Body: ${(await res.clone().text()).slice(0, 300)}`);
+    throw new ContractError(`${label}, which the OpenAPI document does not list (it lists ${listed}). Body: ${(await res.text()).slice(0, 300)}`);
   }
-  const contentType = (res.headers.get('content-type') ?? '').split(';')[0]!.trim().toLowerCase();
+  const contentType = res.contentType.split(';')[0]!.trim().toLowerCase();
   if (contentType !== 'application/json') return; // files (CSV, WebVTT) and empty answers: status checked above
   const content = documented.content ?? {};
   if (!('application/json' in content)) {
     throw new ContractError(`${label} with a JSON body, but the document describes ${Object.keys(content).join(', ') || 'no body'} for that status`);
   }
-  const text = await res.clone().text();
+  const text = await res.text();
   let body: unknown;
   try {
     body = JSON.parse(text);
