@@ -4,6 +4,7 @@ import { resolveStudio } from './server/services/accounts';
 import { isRouteId } from './lib/api/route-params';
 import { bodyLimitFor, errorResponse, tooLarge } from './server/http/api';
 import { notFound } from './server/errors';
+import { withSecurityHeaders } from './server/http/security-headers';
 
 const isApiPath = (pathname: string) => pathname.startsWith('/api/') || pathname.startsWith('/media/');
 
@@ -15,14 +16,17 @@ const isApiPath = (pathname: string) => pathname.startsWith('/api/') || pathname
 export const onRequest = defineMiddleware(async (context, next) => {
   // Every [id] route names a stored row by UUID; anything else is simply not there.
   const id = context.params.id;
+  const early = (response: Response) => withSecurityHeaders(response, { signedIn: false, https: context.url.protocol === 'https:' });
   if (id !== undefined && !isRouteId(id)) {
-    return isApiPath(context.url.pathname) ? errorResponse(notFound()) : new Response('Not found', { status: 404, headers: { 'content-type': 'text/plain; charset=utf-8' } });
+    return early(isApiPath(context.url.pathname) ? errorResponse(notFound()) : new Response('Not found', { status: 404, headers: { 'content-type': 'text/plain; charset=utf-8' } }));
   }
   const limit = bodyLimitFor(context.url.pathname);
   if (Number(context.request.headers.get('content-length') ?? 0) > limit) {
-    return isApiPath(context.url.pathname)
-      ? errorResponse(tooLarge(limit))
-      : new Response('The form sent more than this page accepts.', { status: 413, headers: { 'content-type': 'text/plain; charset=utf-8' } });
+    return early(
+      isApiPath(context.url.pathname)
+        ? errorResponse(tooLarge(limit))
+        : new Response('The form sent more than this page accepts.', { status: 413, headers: { 'content-type': 'text/plain; charset=utf-8' } }),
+    );
   }
   context.locals.user = null;
   context.locals.session = null;
@@ -53,23 +57,3 @@ export const onRequest = defineMiddleware(async (context, next) => {
   return withSecurityHeaders(response, { signedIn: !!context.locals.user, https: context.url.protocol === 'https:' });
 });
 
-/**
- * Headers on every answer: no MIME sniffing, the origin only as referrer to other sites, never
- * framed (clickjacking), HSTS over HTTPS, and nothing personal kept in shared or browser caches.
- * Media keeps its own private caching. A full Content-Security-Policy for scripts, styles and
- * media is not set yet (it needs a browser test of every page first).
- */
-function withSecurityHeaders(response: Response, { signedIn, https }: { signedIn: boolean; https: boolean }): Response {
-  const h = response.headers;
-  try {
-    h.set('x-content-type-options', 'nosniff');
-    h.set('referrer-policy', 'strict-origin-when-cross-origin');
-    if (!h.has('content-security-policy')) h.set('content-security-policy', "frame-ancestors 'none'");
-    if (https) h.set('strict-transport-security', 'max-age=31536000; includeSubDomains');
-    const cache = h.get('cache-control');
-    if (signedIn && !(cache && /\bprivate\b|\bno-store\b/.test(cache))) h.set('cache-control', 'private, no-store');
-  } catch {
-    // A response with immutable headers (a redirect made by the framework) goes out as it is.
-  }
-  return response;
-}

@@ -1,3 +1,4 @@
+import './zod-without-eval'; // first: before any schema is built
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { ChapterList } from './class-player/ChapterList';
 import { IntervalClock } from './class-player/IntervalClock';

@@ -1,3 +1,4 @@
+import './zod-without-eval'; // first: before any schema is built
 import { useEffect, useRef } from 'react';
 import { BarController, BarElement, CategoryScale, Chart, Legend, LinearScale, Tooltip } from 'chart.js';
 import type { ChapterInsight } from '~/lib/publishing/insights';

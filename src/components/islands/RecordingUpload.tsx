@@ -1,3 +1,4 @@
+import './zod-without-eval'; // first: before any schema is built
 import { useCallback, useEffect, useMemo, useState, useSyncExternalStore } from 'react';
 import { QueryClient, QueryClientProvider, useQueryClient } from '@tanstack/react-query';
 import Dashboard from '@uppy/react/dashboard';

@@ -1,3 +1,4 @@
+import '../zod-without-eval'; // first: before any schema is built
 import { useEffect, useId, useMemo, useRef, useState, type ReactNode } from 'react';
 import { BLOCK_KIND_LABELS, BLOCK_KINDS, draftBlockSeconds } from '~/lib/plan/plan-editing';
 import { formatLength } from '~/lib/time/format-time';

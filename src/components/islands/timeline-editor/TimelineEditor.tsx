@@ -1,3 +1,4 @@
+import '../zod-without-eval'; // first: before any schema is built
 import { useEffect, useState } from 'react';
 import type { Peaks } from '~/lib/media/peaks';
 import { SEGMENT_KIND_ORDER, SEGMENT_KIND_LABELS } from '~/lib/editor/segment-style';
