@@ -9,7 +9,7 @@
 //   env: ROUNDMARK_S3_PORT (4569), ROUNDMARK_S3_DIR (.data/s3 under the repo root),
 //        S3_BUCKET (roundmark-media)
 //
-// Only for loopback development: s3rver does not verify request signatures.
+// Signatures are verified like S3 does (./object-store-signature.mjs): s3rver alone accepts any.
 import fs from 'node:fs/promises';
 import http from 'node:http';
 import path from 'node:path';
@@ -27,6 +27,7 @@ const bucketController = require('s3rver/lib/controllers/bucket');
 const objectController = require('s3rver/lib/controllers/object');
 
 import { PartsAwareStore } from './object-store-parts.mjs';
+import { signatureCheck } from './object-store-signature.mjs';
 
 const repoRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const host = '127.0.0.1';
@@ -218,7 +219,16 @@ if (routerIndex === -1) {
   console.error('object store: could not find s3rver 3.7.1 router (was s3rver upgraded?)');
   process.exit(1);
 }
-store.middleware.splice(routerIndex, 0, multipartAddOn());
+const cors = corsMiddleware();
+function refuseWithCors(ctx, err) {
+  const bucketName = /^\/([^/?]+)/.exec(ctx.path)?.[1];
+  if (!bucketName) throw err;
+  ctx.params = { ...ctx.params, bucket: decodeURIComponent(bucketName) };
+  return cors(ctx, () => {
+    throw err;
+  });
+}
+store.middleware.splice(routerIndex, 0, signatureCheck({ onRefused: refuseWithCors }), multipartAddOn());
 
 await store.configureBuckets();
 
