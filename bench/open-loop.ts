@@ -10,15 +10,28 @@ export interface OpenLoopResult {
   max: number;
 }
 
+/** One request of an open-loop run. */
+export interface LoopRequest {
+  url: string;
+  method?: 'GET' | 'POST';
+  headers?: Record<string, string>;
+  body?: string;
+}
+
 /**
  * Sends GET requests at a fixed arrival rate, evenly spaced (request i leaves at start + i/rate,
  * whatever happened to the ones before: open loop), over a small pool of kept-alive connections
  * that grows only when every connection is busy. This measures latency at a given load, unlike a
  * closed loop of N connections, whose latency is N ÷ throughput (Little's law).
  */
-export async function openLoop(url: string, headers: Record<string, string>, rate: number, seconds: number): Promise<OpenLoopResult> {
-  const agent = new http.Agent({ keepAlive: true, maxSockets: 64 });
-  const total = Math.round(rate * seconds);
+export function openLoop(url: string, headers: Record<string, string>, rate: number, seconds: number): Promise<OpenLoopResult> {
+  return openLoopMix(() => ({ url, headers }), rate, seconds);
+}
+
+/** The same, with each request chosen by `next(i)` (a mix of requests at one overall rate). */
+export async function openLoopMix(next: (i: number) => LoopRequest, rate: number, seconds: number): Promise<OpenLoopResult> {
+  const agent = new http.Agent({ keepAlive: true, maxSockets: 256 });
+  const total = Math.max(1, Math.round(rate * seconds));
   const latencies: number[] = [];
   let failed = 0;
   const start = performance.now() + 50;
@@ -28,7 +41,7 @@ export async function openLoop(url: string, headers: Record<string, string>, rat
     const wait = due - performance.now();
     if (wait > 0) await new Promise((r) => setTimeout(r, wait));
     pending.push(
-      once(url, headers, agent).then(
+      once(next(i), agent).then(
         (ms) => void latencies.push(ms),
         () => void failed++,
       ),
@@ -41,14 +54,15 @@ export async function openLoop(url: string, headers: Record<string, string>, rat
   return { rate, sent: total, failed, p50: round(at(0.5)), p99: round(at(0.99)), max: round(latencies.at(-1) ?? NaN) };
 }
 
-function once(url: string, headers: Record<string, string>, agent: http.Agent): Promise<number> {
+function once(r: LoopRequest, agent: http.Agent): Promise<number> {
   const t0 = performance.now();
   return new Promise((resolve, reject) => {
-    const req = http.get(url, { agent, headers }, (res) => {
+    const req = http.request(r.url, { agent, method: r.method ?? 'GET', headers: r.headers }, (res) => {
       res.resume();
       res.on('end', () => (res.statusCode && res.statusCode < 400 ? resolve(performance.now() - t0) : reject(new Error(String(res.statusCode)))));
     });
     req.on('error', reject);
+    req.end(r.body);
   });
 }
 
