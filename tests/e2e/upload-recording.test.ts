@@ -162,6 +162,21 @@ describe('uploading a recording on the class page', () => {
     const [rec] = await recordingsOf(lessonId);
     expect(rec).toMatchObject({ state: 'ready', isCurrent: true, width: 640, height: 360 });
     expect(rec!.durationSeconds).toBeCloseTo(12, 0);
+
+    // With a ready recording the page does not load the uploader (a third of its script) until asked.
+    const scripts: string[] = [];
+    page.on('request', (req) => {
+      if (req.resourceType() === 'script') scripts.push(new URL(req.url()).pathname);
+    });
+    await page.reload();
+    const another = page.getByRole('button', { name: 'Upload another recording' });
+    await another.waitFor();
+    await item.and(page.locator('[data-state="ready"]')).waitFor();
+    expect(await page.locator('.uppy-Dashboard').count()).toBe(0);
+    expect(scripts.filter((s) => s.includes('UploadDropZone'))).toEqual([]);
+    await another.click();
+    await page.locator('.uppy-Dashboard-input').first().waitFor({ state: 'attached' });
+    expect(scripts.filter((s) => s.includes('UploadDropZone')).length).toBe(1);
     await context.close();
   });
 

@@ -1,15 +1,16 @@
 import './zod-without-eval'; // first: before any schema is built
-import { useCallback, useEffect, useMemo, useState, useSyncExternalStore } from 'react';
+import { lazy, Suspense, useCallback, useState, useSyncExternalStore } from 'react';
 import { QueryClient, QueryClientProvider, useQueryClient } from '@tanstack/react-query';
-import Dashboard from '@uppy/react/dashboard';
-import '@uppy/core/css/style.min.css';
-import '@uppy/dashboard/css/style.min.css';
 import './recording-upload/recording-upload.css';
 import type { RecordingOutput } from '~/lib/api/recording-schemas';
-import { createRecordingUppy, type RecordingUppy } from './recording-upload/recording-uppy';
 import { recordingsKey, retryRecording, upsertRecording, useLessonRecordings } from './recording-upload/recordings-api';
 import { formatSize, needsPolling } from './recording-upload/recording-labels';
 import RecordingStatusList, { type UploadingHere } from './recording-upload/RecordingStatusList';
+
+// The uploader (Uppy and its dashboard: about a third of the staff page's script) loads only when
+// the page needs it: the class has no usable recording yet, an upload from earlier waits to be
+// resumed, or the coach asks to upload another. Editing the marks of a ready class never loads it.
+const UploadDropZone = lazy(() => import('./recording-upload/UploadDropZone'));
 
 export interface RecordingUploadProps {
   lessonId: string;
@@ -32,60 +33,24 @@ export default function RecordingUpload(props: RecordingUploadProps) {
   );
 }
 
-/** The recording this window is uploading, read from Uppy's store: percent, bytes and average speed. */
-function useUploadingHere(uppy: RecordingUppy): UploadingHere | null {
-  const snapshot = useSyncExternalStore(
-    useCallback((onChange) => uppy.store.subscribe(onChange), [uppy]),
-    () => {
-      const file = uppy
-        .getFiles()
-        // Until the hand-over for processing is done, the recording is still this window's upload.
-        .find((f) => f.meta.recordingId && f.progress.uploadStarted && !f.progress.complete);
-      if (!file) return '';
-      const p = file.progress;
-      const phase = file.error ? 'stopped' : p.uploadComplete ? 'handing-over' : file.isPaused ? 'paused' : 'sending';
-      return [file.meta.recordingId, p.percentage ?? 0, p.bytesUploaded || 0, p.bytesTotal ?? file.size ?? 0, p.uploadStarted, phase].join('|');
-    },
-    () => '',
-  );
-  return useMemo(() => {
-    if (!snapshot) return null;
-    const [recordingId, percent, uploaded, total, started, phase] = snapshot.split('|');
-    // The average speed is measured when the store reports progress; the memo recomputes only then.
-    // eslint-disable-next-line react-hooks/purity
-    const seconds = (Date.now() - Number(started)) / 1000;
-    const bytesPerSecond = seconds > 0.5 && Number(uploaded) > 0 ? Number(uploaded) / seconds : null;
-    return {
-      recordingId: recordingId!,
-      percent: Number(percent),
-      bytesUploaded: Number(uploaded),
-      bytesTotal: Number(total),
-      bytesPerSecond,
-      secondsLeft: bytesPerSecond ? (Number(total) - Number(uploaded)) / bytesPerSecond : null,
-      phase: phase as UploadingHere['phase'],
-    };
-  }, [snapshot]);
-}
-
 function RecordingUploadInner({ lessonId, initial, maxUploadBytes }: RecordingUploadProps) {
   const queryClient = useQueryClient();
   const [problem, setProblem] = useState<string | null>(null);
 
-  const [uppy] = useState(() =>
-    createRecordingUppy({
-      lessonId,
-      maxUploadBytes,
-      onRecording: (rec) =>
-        queryClient.setQueryData<RecordingOutput[]>(recordingsKey(lessonId), (list) => upsertRecording(list, rec)),
-      onProblem: setProblem,
-    }),
+  const [uploadingHere, setUploadingHere] = useState<UploadingHere | null>(null);
+  const onRecording = useCallback(
+    (rec: RecordingOutput) => queryClient.setQueryData<RecordingOutput[]>(recordingsKey(lessonId), (list) => upsertRecording(list, rec)),
+    [queryClient, lessonId],
   );
-  useEffect(() => () => uppy.destroy(), [uppy]);
-
-  const uploadingHere = useUploadingHere(uppy);
   const current = queryClient.getQueryData<RecordingOutput[]>(recordingsKey(lessonId)) ?? initial;
   const poll = needsPolling(current, uploadingHere?.recordingId ?? null);
   const { data: recordings = initial, isRefetchError } = useLessonRecordings(lessonId, initial, poll);
+  // Once shown, the uploader stays: it holds the upload in progress.
+  const [showUploader, setShowUploader] = useState(false);
+  const needsUploader = !recordings.some((r) => r.state === 'ready' || r.state === 'processing' || r.state === 'uploading');
+  // The server cannot see this browser's saved upload: false there, read in the browser.
+  const savedUpload = useSyncExternalStore(noChanges, () => hasSavedUpload(lessonId), () => false);
+  if (!showUploader && (needsUploader || savedUpload)) setShowUploader(true);
 
   const onRetry = useCallback(
     async (recordingId: string) => {
@@ -95,26 +60,6 @@ function RecordingUploadInner({ lessonId, initial, maxUploadBytes }: RecordingUp
     [queryClient, lessonId],
   );
 
-  const locale = useMemo(
-    () => ({
-      strings: {
-        dropPasteFiles: 'Drop your class recording here or %{browseFiles}',
-        browseFiles: 'choose a file',
-        dashboardTitle: 'Add a recording',
-        uploadXFiles: { 0: 'Upload recording', 1: 'Upload recordings' },
-        uploadComplete: 'Uploaded',
-        complete: 'Uploaded',
-        uploadFailed: 'Upload stopped',
-        retry: 'Retry',
-        done: 'Add another',
-        processingXFiles: { 0: 'Handing over for processing', 1: 'Handing over for processing' },
-        xTimeLeft: '%{time} left',
-      },
-      pluralize: (n: number) => (n === 1 ? 0 : 1),
-    }),
-    [],
-  );
-
   return (
     <div className="rm-recording-upload flex flex-col gap-5">
       <div className="flex flex-col gap-2">
@@ -122,24 +67,15 @@ function RecordingUploadInner({ lessonId, initial, maxUploadBytes }: RecordingUp
           One video file: MP4, MOV, WebM or MKV, up to <span className="tabular">{formatSize(maxUploadBytes)}</span>. It goes
           straight to storage in parts, so a dropped connection picks up where it stopped.
         </p>
-        <Dashboard
-          uppy={uppy}
-          width="100%"
-          height={300}
-          theme="light"
-          // One estimate only: the panel below shows bytes, speed and time left.
-          hideProgressDetails
-          hidePauseResumeButton={false}
-          hideCancelButton={false}
-          hideRetryButton={false}
-          showRemoveButtonAfterComplete={false}
-          proudlyDisplayPoweredByUppy={false}
-          // Messages show in the alert below the Dashboard, where they stay until they are dealt with.
-          disableInformer
-          disableThumbnailGenerator
-          doneButtonHandler={() => uppy.clear()}
-          locale={locale}
-        />
+        {showUploader ? (
+          <Suspense fallback={<p className="rm-uploader-loading text-ink-soft" role="status">Getting the uploader ready…</p>}>
+            <UploadDropZone lessonId={lessonId} maxUploadBytes={maxUploadBytes} onRecording={onRecording} onProblem={setProblem} onUploadingChange={setUploadingHere} />
+          </Suspense>
+        ) : (
+          <button type="button" className="self-start rounded-[10px] border border-ink px-3 py-1 font-semibold" onClick={() => setShowUploader(true)}>
+            Upload another recording
+          </button>
+        )}
       </div>
       {problem && (
         <p role="alert" className="flex items-start gap-2 rounded-[10px] bg-error/10 p-3 font-semibold text-error" data-upload-problem>
@@ -163,4 +99,15 @@ function RecordingUploadInner({ lessonId, initial, maxUploadBytes }: RecordingUp
       </section>
     </div>
   );
+}
+
+const noChanges = () => () => {};
+
+/** Whether this browser keeps an unfinished upload of this class (Uppy's saved state) to resume. */
+function hasSavedUpload(lessonId: string): boolean {
+  try {
+    return typeof localStorage !== 'undefined' && localStorage.getItem(`uppyState:recording-${lessonId}`) !== null;
+  } catch {
+    return false; // storage blocked: nothing to resume
+  }
 }
