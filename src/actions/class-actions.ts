@@ -1,5 +1,5 @@
 import { commaList, createLessonInput, updateLessonInput } from '~/lib/api/lesson-schemas';
-import { localTimeToInstant, publishFormInput } from '~/lib/api/publish-schemas';
+import { publishFormInput } from '~/lib/api/publish-schemas';
 import { app } from '~/server/app';
 import { parseWith } from '~/server/http/api';
 import { requireActor } from '~/server/http/guards';
@@ -41,8 +41,7 @@ export const classActions = {
         return `Published as version ${v.number}. Members see it in the library now.`;
       }
       case 'schedule': {
-        const at = localTimeToInstant(input.publishAt, input.timezoneOffset);
-        await schedulePublish(actor, app(), { lessonId, at, acknowledgeWarnings: input.acknowledgeWarnings });
+        await schedulePublish(actor, app(), { lessonId, when: { wallClock: input.publishAt }, acknowledgeWarnings: input.acknowledgeWarnings });
         return 'Scheduled. The class goes live at that time if the check still has no errors.';
       }
       case 'unpublish':

@@ -7,9 +7,26 @@ import { requireActor } from '~/server/http/guards';
 import { billingDeps } from '~/server/payments/billing-deps';
 import { createPromo, setPromoCodeActive, updateMembershipSettings } from '~/server/use-cases/studio-billing';
 import { inviteToTeam, withdrawInvitation } from '~/server/use-cases/team';
+import { studioClockInput } from '~/lib/api/studio-schemas';
+import { updateStudioClock } from '~/server/use-cases/studio-settings';
+import { clockOf } from '~/lib/time/date-format';
+import { wallClockToInstant } from '~/lib/time/wall-clock';
 import { formAction, formValues } from './form-action';
 
+/** A date picked in the form means "through the end of that day" in the studio's zone; an unreadable one goes on for the schema to refuse. */
+function endOfStudioDay(day: string, timeZone: string): string {
+  const lastMinute = wallClockToInstant(`${day}T23:59`, timeZone);
+  return lastMinute.ok ? new Date(lastMinute.at.getTime() + 59_000).toISOString() : day;
+}
+
 export const studioActions = {
+  /** "Dates and times" on the studio settings page. */
+  updateStudioClock: formAction(async (form, { locals }) => {
+    const actor = requireActor(locals);
+    const saved = await updateStudioClock(actor, app(), parseWith(studioClockInput, formValues(form)));
+    return `Saved. Dates now read in ${saved.timeZone}; scheduled publishes keep their moment.`;
+  }),
+
   /** "Invite someone" on the team page. */
   inviteToTeam: formAction(async (form, { locals }) => {
     const actor = requireActor(locals);
@@ -46,8 +63,7 @@ export const studioActions = {
     const input = parseWith(promoCreateInput, {
       code: v.code ?? '',
       percentOff: Number(v.percentOff || Number.NaN),
-      // A date picked in the form means "through the end of that day" (UTC).
-      expiresAt: v.expiresOn ? `${v.expiresOn}T23:59:59Z` : null,
+      expiresAt: v.expiresOn ? endOfStudioDay(v.expiresOn, clockOf(locals.studio).timeZone) : null,
     });
     const p = await createPromo(actor, billingDeps(), input);
     return `Code ${p.code} created: ${p.percentOff}% off the first month.`;

@@ -41,6 +41,7 @@ export const POLICY = {
   'recording.upload': { roles: STAFF, refusal: staffOnly },
   'exercise.edit': { roles: STAFF, refusal: staffOnly },
   'team.manage': { roles: OWNER, refusal: 'Only the studio owner can invite and manage the team.' },
+  'studio.settings': { roles: OWNER, refusal: 'Only the studio owner changes the studio’s settings.' },
   'billing.manage': { roles: OWNER, refusal: 'Only the studio owner can change prices and promo codes.' },
   'members.view': { roles: OWNER, refusal: 'Only the studio owner sees the members and their memberships.' },
   'mail.preview': { roles: OWNER, refusal: 'Only the studio owner sees the e-mail the studio sends.' },

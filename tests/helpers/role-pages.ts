@@ -16,7 +16,7 @@ export async function pagesByRole(): Promise<Record<DemoRole, string[]>> {
   const staffClassPages = ['/studio', '/studio/classes', '/studio/exercises', `/studio/classes/${desk.id}`, `/studio/classes/${hill.id}`];
   const everyone = ['/library', '/library/history', '/classes/desk-break-mobility', '/account'];
   return {
-    owner: [...staffClassPages, `/studio/classes/${desk.id}/insights`, '/studio/members', '/studio/billing', '/studio/team', '/studio/mail', ...everyone],
+    owner: [...staffClassPages, `/studio/classes/${desk.id}/insights`, '/studio/members', '/studio/billing', '/studio/team', '/studio/settings', '/studio/mail', ...everyone],
     coach: [...staffClassPages, `/studio/classes/${desk.id}/insights`, ...everyone],
     // The editor also opens the owner's pages (they are linked nowhere for editors, but URLs get shared).
     editor: [...staffClassPages, '/studio/members', '/studio/team', ...everyone],

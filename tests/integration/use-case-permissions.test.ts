@@ -55,7 +55,7 @@ const writes: [string, Role[], (actor: Actor) => Promise<unknown>][] = [
   ['saveClassPlan', ['member'], (a) => saveClassPlan(a, deps, { lessonId: lesson.id, version: lesson.version, plan: planSchema.parse(SMALL_PLAN) })],
   ['saveClassTimeline', ['member'], (a) => saveClassTimeline(a, deps, { lessonId: lesson.id, version: 0, timeline: { segments: [], cues: [] } })],
   ['publishClass', ['editor', 'member'], (a) => publishClass(a, deps, { lessonId: lesson.id, acknowledgeWarnings: true })],
-  ['schedulePublish', ['coach', 'editor', 'member'], (a) => schedulePublish(a, deps, { lessonId: lesson.id, at: soon(), acknowledgeWarnings: true })],
+  ['schedulePublish', ['coach', 'editor', 'member'], (a) => schedulePublish(a, deps, { lessonId: lesson.id, when: { at: soon() }, acknowledgeWarnings: true })],
   ['unpublishClass', ['editor', 'member'], (a) => unpublishClass(a, deps, { lessonId: lesson.id })],
   ['archiveClass', ['editor', 'member'], (a) => archiveClass(a, deps, { lessonId: lesson.id })],
   ['inviteToTeam', ['coach', 'editor', 'member'], (a) => inviteToTeam(a, deps, { email: 'refused@members.example', role: 'coach' })],

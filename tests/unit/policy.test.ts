@@ -21,6 +21,7 @@ const expected: Record<Action, string> = {
   'recording.upload': 'OCE',
   'exercise.edit': 'OCE',
   'team.manage': 'O',
+  'studio.settings': 'O',
   'billing.manage': 'O',
   'members.view': 'O',
   'mail.preview': 'O',

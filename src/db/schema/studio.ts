@@ -8,6 +8,10 @@ export const studios = pgTable('studios', {
   id: uuid().primaryKey().defaultRandom(),
   slug: text().notNull().unique(),
   name: text().notNull(),
+  /** IANA zone the studio's dates and scheduled publishes are read in. */
+  timeZone: text().notNull().default('UTC'),
+  /** BCP 47 locale for dates and numbers on the studio's pages and e-mails. */
+  locale: text().notNull().default('en-GB'),
   createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
 });
 

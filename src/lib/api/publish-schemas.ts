@@ -30,19 +30,10 @@ export const publishFormInput = z.object({
     .string()
     .optional()
     .transform((v) => v === 'true'),
-  /** `datetime-local` value, in the coach's own time zone. */
+  /** `datetime-local` value, read in the studio's time zone (labelled beside the field). */
   publishAt: z.string().optional(),
-  /** The browser's `Date#getTimezoneOffset()` in minutes, so the server can read the local time. */
-  timezoneOffset: z.coerce.number().int().min(-900).max(900).default(0),
 });
 export type PublishFormInput = z.infer<typeof publishFormInput>;
-
-/** A `datetime-local` value ("2026-03-01T07:30") entered at a UTC offset, as an instant; null when unreadable. */
-export function localTimeToInstant(local: string | undefined, timezoneOffsetMinutes: number): Date | null {
-  if (!local || !/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/.test(local)) return null;
-  const at = new Date(Date.parse(`${local}:00Z`) + timezoneOffsetMinutes * 60_000);
-  return Number.isNaN(at.getTime()) ? null : at;
-}
 
 export const publishedOutput = z.object({ versionId: z.string().uuid(), number: z.number().int() }).meta({ id: 'Published' });
 export const scheduledOutput = z.object({ scheduledFor: z.string().describe('ISO 8601 instant') }).meta({ id: 'PublishScheduled' });

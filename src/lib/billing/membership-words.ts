@@ -22,9 +22,3 @@ export function parseMoney(text: string): number | null {
   if (!m) return null;
   return Number(m[1]) * 100 + Number((m[2] ?? '0').padEnd(2, '0'));
 }
-
-/** A date as people read it on the page, e.g. "14 March 2026" (UTC, so every viewer sees the same day). */
-export function formatDay(iso: string | Date | null | undefined): string {
-  if (!iso) return '—';
-  return new Date(iso).toLocaleDateString('en-GB', { day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
-}

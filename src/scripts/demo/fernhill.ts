@@ -4,7 +4,8 @@
  */
 export const DEMO_PASSWORD = 'fernhill-demo-2026';
 
-export const studio = { slug: 'fernhill', name: 'Fernhill Movement Co.' };
+// design.md names no zone; the studio prices in euros and the scheduling story is a Berlin coach.
+export const studio = { slug: 'fernhill', name: 'Fernhill Movement Co.', timeZone: 'Europe/Berlin', locale: 'en-GB' };
 
 export const people = [
   { email: 'ada@fernhill.example', name: 'Ada Okafor', roles: ['owner', 'coach'] },

@@ -3,6 +3,7 @@ import { billingSettings, invitations, lessonVersions, lessons, studios, subscri
 import type { AppDeps } from '../app';
 import { env } from '../env';
 import { deliver } from './transport';
+import { clockOf, formatInstant, type StudioClock } from '~/lib/time/date-format';
 import { TOKEN_LIFETIME } from './tokens';
 import { passwordResetMessage, verifyEmailMessage } from './templates/account-messages';
 import { invitationMessage } from './templates/team-messages';
@@ -16,16 +17,15 @@ export function absoluteUrl(path: string): string {
   return new URL(path, env().PUBLIC_BASE_URL).toString();
 }
 
-const DATE = new Intl.DateTimeFormat('en-GB', { weekday: 'long', day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' });
-/** "Friday 6 March 2026" (UTC: we do not know the reader's zone). */
-export const formatDay = (d: Date) => DATE.format(d).replace(',', '');
+/** "Friday 6 March 2026" as the studio reads it (its zone and locale). */
+const formatDay = (d: Date, studio: { clock: StudioClock }) => formatInstant(d, studio.clock, 'weekday');
 
-async function studioNamed(deps: AppDeps, where: { id: string } | { slug: string }): Promise<{ id: string; name: string }> {
+async function studioNamed(deps: AppDeps, where: { id: string } | { slug: string }): Promise<{ id: string; name: string; clock: StudioClock }> {
   const row = await deps.db.query.studios.findFirst({
     where: 'id' in where ? eq(studios.id, where.id) : eq(studios.slug, where.slug),
   });
   if (!row) throw new Error(`studio ${JSON.stringify(where)} not found`);
-  return { id: row.id, name: row.name };
+  return { id: row.id, name: row.name, clock: clockOf(row) };
 }
 
 async function person(deps: AppDeps, userId: string) {
@@ -69,7 +69,7 @@ export async function sendInvitation(deps: AppDeps, m: { invitationId: string; t
     inviterName: inviter?.name ?? null,
     role: inv.role,
     url: absoluteUrl(`/invitations/${encodeURIComponent(m.token)}`),
-    expiresOn: formatDay(inv.expiresAt),
+    expiresOn: formatDay(inv.expiresAt, studio),
   });
   await deliver({ ...content, studio, to: { name: '', address: inv.email } });
 }
@@ -137,7 +137,7 @@ export async function sendTrialEnding(deps: AppDeps, m: { subscriptionId: string
   const content = trialEndingMessage({
     studioName: studio.name,
     name: user.name,
-    endsOn: formatDay(sub.trialEnd),
+    endsOn: formatDay(sub.trialEnd, studio),
     daysLeft: Math.max(1, Math.ceil(hoursLeft / 24)),
     price: settings ? formatPrice(settings.monthlyPriceMinor, settings.currency) : null,
     continues: !sub.cancelAtPeriodEnd,

@@ -14,6 +14,9 @@ export interface StudioAccess {
   studioId: string;
   studioSlug: string;
   studioName: string;
+  /** The studio's clock: every date on its pages is read in this zone and locale. */
+  timeZone: string;
+  locale: string;
   roles: Role[];
 }
 
@@ -127,14 +130,15 @@ export async function changePassword(
 /** The studios a user belongs to, with their roles there. */
 export async function studioAccess(deps: AppDeps, userId: string): Promise<StudioAccess[]> {
   const rows = await deps.db
-    .select({ studioId: studios.id, studioSlug: studios.slug, studioName: studios.name, role: memberships.role })
+    .select({ studioId: studios.id, studioSlug: studios.slug, studioName: studios.name, timeZone: studios.timeZone, locale: studios.locale, role: memberships.role })
     .from(memberships)
     .innerJoin(studios, eq(studios.id, memberships.studioId))
     .where(eq(memberships.userId, userId));
   const byStudio = new Map<string, StudioAccess>();
   for (const r of rows) {
-    const entry = byStudio.get(r.studioId) ?? { studioId: r.studioId, studioSlug: r.studioSlug, studioName: r.studioName, roles: [] };
-    entry.roles.push(r.role);
+    const { role, ...studio } = r;
+    const entry = byStudio.get(r.studioId) ?? { ...studio, roles: [] };
+    entry.roles.push(role);
     byStudio.set(r.studioId, entry);
   }
   return [...byStudio.values()];

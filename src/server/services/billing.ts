@@ -2,11 +2,12 @@ import { and, count, eq, isNotNull, sql } from 'drizzle-orm';
 import Stripe from 'stripe';
 import { billingSettings, promoCodes, studios, subscriptions } from '~/db/schema';
 import type { BillingSettingsInput, CheckoutInput, MembershipOutput, PromoCreateInput } from '~/lib/api/billing-schemas';
-import { formatDay } from '~/lib/billing/membership-words';
+import { formatInstant } from '~/lib/time/date-format';
 import { AppError, notFound } from '../errors';
 import type { AppDeps } from '../app';
 import type { BillingDeps } from '../payments/billing-deps';
 import { entitledBy } from './entitlement';
+import { studioClock } from './studio-clock';
 
 /** Statuses in which a member has a running membership (and cannot start another). */
 export const LIVE_STATUSES = ['trialing', 'active', 'past_due'] as const;
@@ -194,7 +195,7 @@ async function usablePromo(deps: AppDeps, studioId: string, code: string) {
   const row = await deps.db.query.promoCodes.findFirst({ where: and(eq(promoCodes.studioId, studioId), eq(promoCodes.code, code)) });
   if (!row || !row.providerPromotionCodeId) throw refuse(`We don't recognise the code ${code}. Check the spelling, or leave the field empty.`);
   if (!row.active) throw refuse(`The code ${code} is no longer active. Leave the field empty to start without it.`);
-  if (row.expiresAt && row.expiresAt <= new Date()) throw refuse(`The code ${code} expired on ${formatDay(row.expiresAt)}. Leave the field empty to start without it.`);
+  if (row.expiresAt && row.expiresAt <= new Date()) throw refuse(`The code ${code} expired on ${formatInstant(row.expiresAt, await studioClock(deps, studioId), 'day')}. Leave the field empty to start without it.`);
   return row;
 }
 

@@ -8,6 +8,7 @@ import { AppError, notFound } from '../errors';
 import { sendInvitation } from '../mail/messages';
 import { hashToken, newToken, TOKEN_LIFETIME } from '../mail/tokens';
 import { signIn } from './accounts';
+import type { StudioClock } from '~/lib/time/date-format';
 
 export type StaffRole = 'coach' | 'editor';
 
@@ -135,6 +136,8 @@ export interface InvitationLookup {
   role?: StaffRole;
   expiresAt?: Date;
   studioName?: string;
+  /** The inviting studio's clock, to show the expiry as that studio reads it. */
+  studioClock?: StudioClock;
   inviterName?: string | null;
   /** Whether someone already has an account with the invited address (then they sign in to accept). */
   accountExists?: boolean;
@@ -143,7 +146,7 @@ export interface InvitationLookup {
 /** What an invitation link leads to, for the accept page. */
 export async function lookupInvitation(deps: AppDeps, token: string): Promise<InvitationLookup> {
   const [row] = await deps.db
-    .select({ inv: invitations, studioName: studios.name, inviterName: users.name })
+    .select({ inv: invitations, studioName: studios.name, timeZone: studios.timeZone, locale: studios.locale, inviterName: users.name })
     .from(invitations)
     .innerJoin(studios, eq(studios.id, invitations.studioId))
     .leftJoin(users, eq(users.id, invitations.invitedBy))
@@ -157,6 +160,7 @@ export async function lookupInvitation(deps: AppDeps, token: string): Promise<In
     role: inv.role,
     expiresAt: inv.expiresAt,
     studioName: row.studioName,
+    studioClock: { timeZone: row.timeZone, locale: row.locale },
     inviterName: row.inviterName,
     accountExists: !!account,
   };

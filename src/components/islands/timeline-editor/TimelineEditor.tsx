@@ -19,9 +19,13 @@ import SegmentList from './SegmentList';
 import ShortcutHelp from './ShortcutHelp';
 import ConflictDialog from './ConflictDialog';
 import { MarkItForMeButton, ProposalLayer } from './MarkItForMe';
+import type { StudioClock } from '~/lib/time/date-format';
+import { StudioClockContext } from '../studio-clock-context';
 
 export interface TimelineEditorProps {
   lessonId: string;
+  /** The studio's zone and locale, for the times the editor shows. */
+  clock: StudioClock;
 }
 
 type Loaded = { status: 'loading' } | { status: 'error'; message: string } | { status: 'ready'; data: EditorData; peaks: Peaks | null };
@@ -30,7 +34,7 @@ type Loaded = { status: 'loading' } | { status: 'error'; message: string } | { s
  * The class page's timeline editor: watch the recording, mark segments and cues by keyboard or
  * pointer, lay the plan out, see the timing check's findings on every change and fix them, save.
  */
-export default function TimelineEditor({ lessonId }: TimelineEditorProps) {
+export default function TimelineEditor({ lessonId, clock }: TimelineEditorProps) {
   const [loaded, setLoaded] = useState<Loaded>({ status: 'loading' });
   useEffect(() => {
     let cancelled = false;
@@ -70,7 +74,11 @@ export default function TimelineEditor({ lessonId }: TimelineEditorProps) {
 
   if (loaded.status === 'loading') return <p className="text-ink-soft" role="status">Loading the timeline…</p>;
   if (loaded.status === 'error') return <p role="alert" className="rounded-[10px] bg-error/10 p-3 font-semibold text-error">{loaded.message}</p>;
-  return <Editor lessonId={lessonId} data={loaded.data} peaks={loaded.peaks} />;
+  return (
+    <StudioClockContext.Provider value={clock}>
+      <Editor lessonId={lessonId} data={loaded.data} peaks={loaded.peaks} />
+    </StudioClockContext.Provider>
+  );
 }
 
 function noRecordingNote(preparing: EditorData['preparing']): string {

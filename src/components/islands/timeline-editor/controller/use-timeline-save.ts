@@ -8,6 +8,8 @@ import { canonicalJson, type EditorAction } from '~/lib/editor/editor-state';
 import { clearDraft, readDraft, writeDraft, type StoredDraft } from '~/lib/editor/local-draft';
 import { loadTimeline, saveTimeline } from '../editor-api';
 import { useLatest } from '../../use-latest';
+import { formatInstant } from '~/lib/time/date-format';
+import { useStudioClock } from '../../studio-clock-context';
 
 export type SaveState =
   | { status: 'idle' }
@@ -22,6 +24,7 @@ export interface Conflict {
 }
 
 export function useTimelineSave(lessonId: string, initial: { version: number; timeline: Timeline }, current: Timeline, dispatch: Dispatch<EditorAction>) {
+  const clock = useStudioClock();
   const versionRef = useRef(initial.version);
   const currentRef = useLatest(current);
   const [savedCanon, setSavedCanon] = useState(() => canonicalJson(initial.timeline));
@@ -114,7 +117,7 @@ export function useTimelineSave(lessonId: string, initial: { version: number; ti
         : dirty
           ? 'Unsaved changes (kept on this device)'
           : saveState.status === 'saved'
-            ? `All changes saved at ${saveState.at.toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}`
+            ? `All changes saved at ${formatInstant(saveState.at, clock, 'time')}`
             : 'All changes saved';
 
   return { saveState, label, dirty, conflict, draftOffer, save, takeTheirs, keepMine, restoreDraft, discardDraft };

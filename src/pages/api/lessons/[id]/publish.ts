@@ -11,7 +11,7 @@ export const POST: APIRoute = endpoint(async ({ locals, params, request }) => {
   const actor = requireActor(locals);
   const input = await readJson(request, publishInput);
   if (input.publishAt) {
-    await schedulePublish(actor, app(), { lessonId: params.id!, at: new Date(input.publishAt), acknowledgeWarnings: input.acknowledgeWarnings });
+    await schedulePublish(actor, app(), { lessonId: params.id!, when: { at: new Date(input.publishAt) }, acknowledgeWarnings: input.acknowledgeWarnings });
     return answer(scheduledOutput, { scheduledFor: input.publishAt }, 202);
   }
   return answer(publishedOutput, await publishClass(actor, app(), { lessonId: params.id!, acknowledgeWarnings: input.acknowledgeWarnings }), 201);
