@@ -6,7 +6,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import type { Browser, Page } from 'playwright-core';
-import { BASE, DEMO, DEMO_PASSWORD, signedIn } from '../helpers/api-client';
+import { BASE, DEMO, signedIn } from '../helpers/api-client';
+import { signedInPage } from '../helpers/role-pages';
 import { launchBrowser, SHOTS } from '../helpers/browser';
 import { createAppDeps } from '~/server/app';
 import { lessons } from '~/db/schema';
@@ -22,14 +23,7 @@ afterAll(async () => {
 });
 
 async function signInAs(email: string): Promise<Page> {
-  const context = await browser.newContext({ javaScriptEnabled: false });
-  const page = await context.newPage();
-  await page.goto(BASE() + '/sign-in');
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(DEMO_PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.waitForURL((url) => url.pathname !== '/sign-in');
-  return page;
+  return (await signedInPage(browser, email, { javaScriptEnabled: false })).page;
 }
 
 /**
