@@ -8,6 +8,8 @@ const sample: Timeline = {
   segments: [
     { id: 'w1', kind: 'warmup', startSeconds: 0, endSeconds: 240.001 },
     { id: 'k1', kind: 'work', startSeconds: 240.001, endSeconds: 280.5, exercise: 'Goblet squat, heavy', round: 1, title: 'She said "go"' },
+    { id: 'k2', kind: 'work', startSeconds: 280.5, endSeconds: 310, exercise: 'Side lunge', round: 1, side: 'left' },
+    { id: 'k3', kind: 'work', startSeconds: 310, endSeconds: 1030, format: 'amrap' },
   ],
   cues: [{ id: 'c1', atSeconds: 237.25, kind: 'countdown', text: 'Three,\ntwo, one' }],
 };
@@ -37,7 +39,7 @@ describe('RFC 4180 records', () => {
 describe('timeline CSV', () => {
   it('round-trips every field and every millisecond', () => {
     const csv = timelineToCsv(sample);
-    expect(csv.split('\r\n')[0]).toBe('type,id,kind,start,end,exercise,round,set,title,text');
+    expect(csv.split('\r\n')[0]).toBe('type,id,kind,start,end,exercise,round,set,title,text,side,format');
     expect(csv).toContain('4:00.001');
     const back = timelineFromCsv(csv);
     expect(back).toEqual({ ok: true, timeline: sample });
@@ -80,7 +82,7 @@ describe('timeline CSV', () => {
     ['kind,start,end\nwork,1:75,2:00\n', [{ line: 2, message: 'Start: "1:75" has 75 seconds; seconds must be below 60.' }]],
     ['kind,start\nwork,1:00\n', [{ line: 2, message: 'End: The time is empty.' }]],
     ['id,kind,start,end\na,work,0,1\na,rest,1,2\n', [{ line: 3, message: 'The segment id "a" is already used on line 2; ids must be unique.' }]],
-    ['kind,begin\n', [{ line: 1, message: 'Unknown column "begin". Columns are: type, id, kind, start, end, exercise, round, set, title, text.' }, { line: 1, message: 'The header has no "start" column.' }]],
+    ['kind,begin\n', [{ line: 1, message: 'Unknown column "begin". Columns are: type, id, kind, start, end, exercise, round, set, title, text, side, format.' }, { line: 1, message: 'The header has no "start" column.' }]],
     ['kind,start,end,round\nwork,0,1,two\n', [{ line: 2, message: 'The round must be a number.' }]],
     ['Kind,Start,End\nwork,60,100.5\nform,1:05,\n', [{ line: 3, message: 'A cue needs text.' }]],
   ])('a bad file imports nothing and names the line (%#)', (csv, errors) => {

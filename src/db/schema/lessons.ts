@@ -93,6 +93,10 @@ export const segmentKindEnum = pgEnum('segment_kind', [
   'outro',
   'talk',
 ]);
+/** A station done per side: which side this mark is. */
+export const segmentSideEnum = pgEnum('segment_side', ['left', 'right']);
+/** The timed format a work or rest mark belongs to, for its chapter and clock words. */
+export const segmentFormatEnum = pgEnum('segment_format', ['amrap', 'emom']);
 export const cueKindEnum = pgEnum('cue_kind', ['countdown', 'form', 'option', 'safety', 'note']);
 
 /** Marked spans of a lesson's recording (the draft timeline). Ids come from the editor. */
@@ -110,6 +114,8 @@ export const segments = pgTable(
     round: integer(),
     set: integer(),
     title: text(),
+    side: segmentSideEnum(),
+    format: segmentFormatEnum(),
   },
   (t) => [primaryKey({ columns: [t.lessonId, t.id] })],
 );

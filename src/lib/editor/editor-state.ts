@@ -3,7 +3,7 @@
  * undo/redo within the session. A pure reducer: the island dispatches actions, tests call it
  * directly. Times are rounded to milliseconds like every stored time.
  */
-import { expandPlan } from '../plan/expand-plan';
+import { expandPlan, markFieldsOf } from '../plan/expand-plan';
 import type { Plan } from '../plan/plan-schema';
 import type { Cue, CueKind, Segment, SegmentKind, Timeline } from '../timeline/timeline-schema';
 import { roundToMillis } from '../time/format-time';
@@ -184,9 +184,7 @@ export function layoutFromPlan(t: Timeline, plan: Plan, at: number): Timeline {
       kind: p.kind,
       startSeconds: roundToMillis(p.startSeconds),
       endSeconds: roundToMillis(p.startSeconds + p.seconds),
-      ...(p.exercise !== undefined && (p.kind === 'work' || p.kind === 'rest') ? { exercise: p.exercise } : {}),
-      ...(p.round !== undefined ? { round: p.round } : {}),
-      ...(p.set !== undefined ? { set: p.set } : {}),
+      ...markFieldsOf(p),
     };
     added.push(seg);
   }
@@ -391,7 +389,7 @@ export function sameTimeline(a: Timeline, b: Timeline): boolean {
 export function canonicalJson(t: Timeline): string {
   const s = sortTimeline(t);
   return JSON.stringify({
-    segments: s.segments.map((x) => [x.id, x.kind, x.startSeconds, x.endSeconds, x.exercise ?? null, x.round ?? null, x.set ?? null, x.title ?? null]),
+    segments: s.segments.map((x) => [x.id, x.kind, x.startSeconds, x.endSeconds, x.exercise ?? null, x.round ?? null, x.set ?? null, x.title ?? null, x.side ?? null, x.format ?? null]),
     cues: s.cues.map((c) => [c.id, c.atSeconds, c.kind, c.text]),
   });
 }

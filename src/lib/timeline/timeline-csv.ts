@@ -5,7 +5,7 @@
  * case): `type` (`segment` or `cue`; when left out it follows from the kind, since segment
  * and cue kinds never share a name), `id` (optional on import; generated when blank),
  * `kind`, `start` (segment start or cue time), `end` (segments only), `exercise`, `round`,
- * `set`, `title` (segments), `text` (cues). Times are `m:ss.sss`, `h:mm:ss.sss` or plain
+ * `set`, `title`, `side` (`left`/`right`), `format` (`amrap`/`emom`) (segments), `text` (cues). Times are `m:ss.sss`, `h:mm:ss.sss` or plain
  * seconds; export writes `m:ss.sss` so every millisecond survives a round trip.
  */
 import { formatPreciseTime, parseTime } from '../time/format-time';
@@ -13,7 +13,7 @@ import { readCsv, writeCsv } from './csv-records';
 import { duplicateIdErrors, fillIds, importedTimeline, issueMessages, type ImportError, type ImportResult } from './timeline-import';
 import { CUE_KINDS, SEGMENT_KINDS, cueSchema, segmentSchema, type Cue, type Segment, type Timeline } from './timeline-schema';
 
-export const CSV_COLUMNS = ['type', 'id', 'kind', 'start', 'end', 'exercise', 'round', 'set', 'title', 'text'] as const;
+export const CSV_COLUMNS = ['type', 'id', 'kind', 'start', 'end', 'exercise', 'round', 'set', 'title', 'text', 'side', 'format'] as const;
 type Column = (typeof CSV_COLUMNS)[number];
 
 /** Writes the timeline as CSV: segments by start time, then cues by time. */
@@ -21,10 +21,10 @@ export function timelineToCsv(timeline: Timeline): string {
   const rows: string[][] = [[...CSV_COLUMNS]];
   const segments = [...timeline.segments].sort((a, b) => a.startSeconds - b.startSeconds || a.endSeconds - b.endSeconds);
   for (const s of segments) {
-    rows.push(['segment', s.id, s.kind, formatPreciseTime(s.startSeconds), formatPreciseTime(s.endSeconds), s.exercise ?? '', s.round?.toString() ?? '', s.set?.toString() ?? '', s.title ?? '', '']);
+    rows.push(['segment', s.id, s.kind, formatPreciseTime(s.startSeconds), formatPreciseTime(s.endSeconds), s.exercise ?? '', s.round?.toString() ?? '', s.set?.toString() ?? '', s.title ?? '', '', s.side ?? '', s.format ?? '']);
   }
   const cues = [...timeline.cues].sort((a, b) => a.atSeconds - b.atSeconds);
-  for (const c of cues) rows.push(['cue', c.id, c.kind, formatPreciseTime(c.atSeconds), '', '', '', '', '', c.text]);
+  for (const c of cues) rows.push(['cue', c.id, c.kind, formatPreciseTime(c.atSeconds), '', '', '', '', '', c.text, '', '']);
   return writeCsv(rows);
 }
 
@@ -95,6 +95,8 @@ export function timelineFromCsv(text: string): ImportResult {
       round: num('round'),
       set: num('set'),
       title: get('title') || undefined,
+      side: get('side').toLowerCase() || undefined,
+      format: get('format').toLowerCase() || undefined,
     };
     const parsed = segmentSchema.safeParse(candidate);
     if (!parsed.success) { issueMessages(parsed.error).forEach(fail); continue; }

@@ -7,6 +7,10 @@ import { INT4_MAX, noControlCharacters } from '../api/text-rules';
 import { roundToMillis } from '../time/format-time';
 
 export const SEGMENT_KINDS = ['intro', 'warmup', 'work', 'rest', 'round-break', 'cooldown', 'outro', 'talk'] as const;
+/** A station done per side is marked twice: left, then right. */
+export const SEGMENT_SIDES = ['left', 'right'] as const;
+/** Timed formats whose marks read differently in chapters and on the clock. */
+export const SEGMENT_FORMATS = ['amrap', 'emom'] as const;
 export const CUE_KINDS = ['countdown', 'form', 'option', 'safety', 'note'] as const;
 /** A recording of more than a day is not a class; this bound catches unit mix-ups (ms vs s). */
 export const MAX_TIMELINE_SECONDS = 24 * 3600;
@@ -60,6 +64,14 @@ export const segmentSchema = z
     round: positiveCount('The round').optional().describe('Round of a circuit, from 1.'),
     set: positiveCount('The set').optional().describe('Set of an intervals block, from 1.'),
     title: oneLine('The title', 200).optional().describe('Title shown as the chapter name.'),
+    side: z
+      .enum(SEGMENT_SIDES, { error: 'The side must be left or right.' })
+      .optional()
+      .describe('For a station done per side: which side this span is (left, then right).'),
+    format: z
+      .enum(SEGMENT_FORMATS, { error: 'The format must be amrap or emom.' })
+      .optional()
+      .describe('The timed format this span belongs to: amrap (as many rounds as possible) or emom (every minute on the minute).'),
   })
   .refine((s) => s.endSeconds > s.startSeconds, {
     error: 'A segment must end after it starts.',
@@ -121,6 +133,8 @@ export const timelinePutSchema = z
   .describe('A whole timeline, saved in one go.');
 
 export type SegmentKind = (typeof SEGMENT_KINDS)[number];
+export type SegmentSide = (typeof SEGMENT_SIDES)[number];
+export type SegmentFormat = (typeof SEGMENT_FORMATS)[number];
 export type CueKind = (typeof CUE_KINDS)[number];
 export type Segment = z.infer<typeof segmentSchema>;
 export type Cue = z.infer<typeof cueSchema>;

@@ -7,7 +7,7 @@
  *   It is plain title text: `&`, `<` and `>` are written as character references, so there
  *   are never tags (§4.2.3) and never `-->`.
  * - The cue identifier carries the data: the segment id, then space-separated `key=value`
- *   pairs with percent-encoded values: `kind`, `exercise`, `round`, `set`, and `label=auto`
+ *   pairs with percent-encoded values: `kind`, `exercise`, `round`, `set`, `side`, `format`, and `label=auto`
  *   when the title text was generated (so no `title` is set on import). Segment ids never
  *   contain spaces or `-->`, and are unique, as §4.1 requires of cue identifiers.
  * - Coaching cues are not chapters (they are points, and a chapter needs an end after its
@@ -36,10 +36,11 @@ const KIND_LABELS: Record<SegmentKind, string> = {
 };
 
 /** The chapter label used when a segment has no title, e.g. `Work: Goblet squat, round 2, set 1`. */
-export function chapterLabel(s: Pick<Segment, 'kind' | 'exercise' | 'round' | 'set'>): string {
+export function chapterLabel(s: Pick<Segment, 'kind' | 'exercise' | 'round' | 'set' | 'side'>): string {
   let label = KIND_LABELS[s.kind];
   if (s.exercise) label += `: ${s.exercise}`;
   const parts: string[] = [];
+  if (s.side !== undefined) parts.push(`${s.side} side`);
   if (s.round !== undefined) parts.push(`round ${s.round}`);
   if (s.set !== undefined) parts.push(`set ${s.set}`);
   return parts.length > 0 ? `${label}${s.exercise ? ', ' : ' '}${parts.join(', ')}` : label;
@@ -86,6 +87,8 @@ export function timelineToWebVtt(timeline: Timeline, options: { includeCues?: bo
     if (s.exercise !== undefined) keys.push(`exercise=${encodeURIComponent(s.exercise)}`);
     if (s.round !== undefined) keys.push(`round=${s.round}`);
     if (s.set !== undefined) keys.push(`set=${s.set}`);
+    if (s.side !== undefined) keys.push(`side=${s.side}`);
+    if (s.format !== undefined) keys.push(`format=${s.format}`);
     if (s.title === undefined) keys.push('label=auto');
     const title = s.title ?? chapterLabel(s);
     blocks.push(`${s.id} ${keys.join(' ')}\n${formatVttTimestamp(s.startSeconds)} --> ${formatVttTimestamp(s.endSeconds)}\n${escapeText(title)}`);
@@ -223,6 +226,8 @@ export function timelineFromWebVtt(text: string): ImportResult {
         exercise: keys!.get('exercise'),
         round: num('round'),
         set: num('set'),
+        side: keys!.get('side'),
+        format: keys!.get('format'),
         title: keys!.get('label') === 'auto' ? undefined : titleText,
       };
     } else {

@@ -45,6 +45,8 @@ export async function readTimeline(db: DbOrTx, studioId: string, lessonId: strin
         round: segments.round,
         set: segments.set,
         title: segments.title,
+        side: segments.side,
+        format: segments.format,
       })
       .from(segments)
       .where(eq(segments.lessonId, lessonId))
