@@ -52,7 +52,7 @@ describe('plan templates', () => {
     const res = await coach.get('/api/plan-templates');
     expect(res.status).toBe(200);
     const { templates } = await res.json();
-    expect(templates.filter((t: { builtIn: boolean }) => t.builtIn).map((t: { id: string }) => t.id)).toEqual(['tabata', 'six-station-circuit', 'ladder']);
+    expect(templates.filter((t: { builtIn: boolean }) => t.builtIn).map((t: { id: string }) => t.id)).toEqual(['tabata', 'six-station-circuit', 'ladder', 'emom-10', 'amrap-12']);
     expect(templates.map((t: { name: string }) => t.name)).not.toContain('Their secret template');
     const tabata = templates.find((t: { id: string }) => t.id === 'tabata').plan;
     tabata.blocks[0].exercise = 'Template burpee';

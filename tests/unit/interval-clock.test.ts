@@ -53,6 +53,6 @@ describe('the line above the part’s name on the clock', () => {
     [{ kind: 'work', label: 'Work' }, null],
     [null, 'Get ready'],
   ] as const)('%o → %s', (current, heading) => {
-    expect(clockHeading({ current: current as never })).toBe(heading);
+    expect(clockHeading({ current: current as never, format: null })).toBe(heading);
   });
 });

@@ -31,6 +31,7 @@ describe('plan editing helpers', () => {
       const b = newBlock(kind);
       if (b.kind === 'circuit') b.stations = b.stations.map((s, i) => ({ ...s, exercise: `Move ${i}` }));
       if (b.kind === 'intervals') b.exercise = 'Move';
+      if (b.kind === 'amrap' || b.kind === 'emom') b.exercises = b.exercises.map((_, i) => `Move ${i}`);
       expect(planSchema.safeParse({ blocks: [b] }).success, kind).toBe(true);
     }
     expect(planSchema.safeParse(emptyPlan()).success).toBe(true);

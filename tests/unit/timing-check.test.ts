@@ -169,10 +169,25 @@ describe('cues', () => {
   });
 });
 
+describe('emom-minute', () => {
+  // EMOM as the trade defines it (common practice, no source): work starts on each whole minute.
+  // 3 minutes of 30 s work: tops at 0, 60 and 120 s; minute 2's work marked from 63 s is 3 s late.
+  const emom = plan({ blocks: [{ kind: 'emom', minutes: 3, workSeconds: 30, exercises: ['Burpee'] }] });
+  it('a minute whose work does not start on the minute is reported, with a fix back to the top', () => {
+    const t = moveBoundary(timelineFromPlan(emom), 's1', 's2', 63);
+    const r = checkTiming(emom, t);
+    expect(codes(r.findings)).toEqual(['emom-minute']);
+    expect(r.findings[0]!.fix).toEqual([
+      { segmentId: 's1', field: 'endSeconds', value: 60 },
+      { segmentId: 's2', field: 'startSeconds', value: 60 },
+    ]);
+  });
+});
+
 describe('findings', () => {
   it('every code of the public list is covered by this file', () => {
     // Guard: if a code is added to the list, a test above must be added too.
-    expect(FINDING_CODES).toHaveLength(15);
+    expect(FINDING_CODES).toHaveLength(16);
   });
   it('are ordered by time, then severity, then code', () => {
     const t = edit(moveBoundary(base(), 's1', 's2', 110), 's12', { endSeconds: 480 });

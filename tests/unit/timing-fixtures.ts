@@ -15,6 +15,8 @@ export function timelineFromPlan(p: Plan, start = 0): Timeline {
     ...(s.kind === 'work' ? { exercise: s.exercise } : {}),
     ...(s.round !== undefined ? { round: s.round } : {}),
     ...(s.set !== undefined ? { set: s.set } : {}),
+    ...(s.side !== undefined ? { side: s.side } : {}),
+    ...(s.format !== undefined ? { format: s.format } : {}),
   }));
   return { segments, cues: [] };
 }

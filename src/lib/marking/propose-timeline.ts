@@ -3,7 +3,7 @@
  * Pure; the server answers it without saving, and the editor shows it as a layer to accept.
  */
 import type { AudioEvent } from '../audio/audio-events';
-import { expandPlan, type PlannedSegment } from '../plan/expand-plan';
+import { expandPlan, markFieldsOf, type PlannedSegment } from '../plan/expand-plan';
 import type { Plan } from '../plan/plan-schema';
 import { roundToMillis } from '../time/format-time';
 import type { Cue, Segment } from '../timeline/timeline-schema';
@@ -81,9 +81,7 @@ function segmentFrom(p: PlannedSegment, j: number, start: number, end: number): 
     startSeconds: start,
     // The aligner keeps each boundary at least half a second after the one before.
     endSeconds: Math.max(end, roundToMillis(start + 0.001)),
-    ...(p.exercise !== undefined && (p.kind === 'work' || p.kind === 'rest') ? { exercise: p.exercise } : {}),
-    ...(p.round !== undefined ? { round: p.round } : {}),
-    ...(p.set !== undefined ? { set: p.set } : {}),
+    ...markFieldsOf(p),
   };
 }
 

@@ -3,7 +3,8 @@
  * recording would have, with planned start times from a chosen start, and the totals.
  */
 import { z } from 'zod';
-import { circuitRound, type Plan, type PlanBlock } from './plan-schema';
+import { SEGMENT_FORMATS, SEGMENT_SIDES, type Segment, type SegmentFormat, type SegmentSide } from '../timeline/timeline-schema';
+import { circuitRound, PLAN_BLOCK_KINDS, type Plan, type PlanBlock } from './plan-schema';
 
 /** Kinds a plan can produce (a subset of the timeline's segment kinds). */
 export const PLANNED_KINDS = ['warmup', 'work', 'rest', 'round-break', 'cooldown', 'talk'] as const;
@@ -15,11 +16,13 @@ export const plannedSegmentSchema = z
     index: z.number().int().describe('Position in the schedule, 0-based'),
     kind: z.enum(PLANNED_KINDS),
     blockIndex: z.number().int(),
-    blockKind: z.enum(['warmup', 'circuit', 'intervals', 'cooldown', 'talk'] satisfies PlanBlock['kind'][]),
+    blockKind: z.enum(PLAN_BLOCK_KINDS),
     stationIndex: z.number().int().optional().describe('Station position within a circuit (0-based); for intervals always 0'),
     exercise: z.string().optional(),
-    round: z.number().int().optional().describe('1-based round of a circuit'),
+    round: z.number().int().optional().describe('1-based round of a circuit, or minute of an EMOM'),
     set: z.number().int().optional().describe('1-based set of an intervals block'),
+    side: z.enum(SEGMENT_SIDES).optional().describe('For a station done per side: left or right (the switch pause is the left side\'s rest)'),
+    format: z.enum(SEGMENT_FORMATS).optional().describe('amrap or emom for the spans of those blocks'),
     startSeconds: z.number(),
     seconds: z.number(),
   })
@@ -53,7 +56,13 @@ export type ExpectedSchedule = z.infer<typeof expectedScheduleSchema>;
  *   last station's rest there (the block ends on work).
  * - a round with a change (`roundChanges`) uses its own work/rest seconds and leaves out the
  *   stations it skips; "the last station" of a round is the last one it does.
+ * - a station done per side is left work, the switch pause (a rest marked left), right work,
+ *   then the station's rest (marked right); a switch pause of 0 is not emitted.
  * Intervals: each set is work then rest; `dropFinalRest: true` leaves out the last set's rest.
+ * AMRAP: one work span of the block's seconds (format `amrap`).
+ * EMOM: per minute (= round), the work at the top of the minute and the rest of the minute as
+ * rest (format `emom`); the last minute's rest is kept whatever `dropFinalRest` says, since an
+ * EMOM of N minutes lasts N minutes.
  */
 export function expandPlan(plan: Plan, startSeconds = 0): ExpectedSchedule {
   const { roundBreakReplacesLastRest, dropFinalRest } = plan.options;
@@ -69,20 +78,21 @@ export function expandPlan(plan: Plan, startSeconds = 0): ExpectedSchedule {
   };
   let at = startSeconds;
 
+  /** Where in its block a planned segment sits; absent fields stay undefined. */
+  interface Place {
+    stationIndex?: number;
+    exercise?: string;
+    round?: number;
+    set?: number;
+    side?: SegmentSide;
+    format?: SegmentFormat;
+  }
   // Objects are built with one fixed shape (absent fields undefined): a 12-hour plan has
   // thousands of segments and the check expands the plan on every run.
-  const push = (
-    kind: PlannedKind,
-    seconds: number,
-    blockIndex: number,
-    blockKind: PlanBlock['kind'],
-    stationIndex?: number,
-    exercise?: string,
-    round?: number,
-    set?: number,
-  ): void => {
+  const push = (kind: PlannedKind, seconds: number, blockIndex: number, blockKind: PlanBlock['kind'], place: Place = {}): void => {
     if (seconds <= 0) return;
-    segments.push({ index: segments.length, kind, blockIndex, blockKind, stationIndex, exercise, round, set, startSeconds: at, seconds });
+    const { stationIndex, exercise, round, set, side, format } = place;
+    segments.push({ index: segments.length, kind, blockIndex, blockKind, stationIndex, exercise, round, set, side, format, startSeconds: at, seconds });
     at += seconds;
     switch (kind) {
       case 'work': totals.workSeconds += seconds; break;
@@ -103,10 +113,21 @@ export function expandPlan(plan: Plan, startSeconds = 0): ExpectedSchedule {
         break;
       case 'intervals':
         for (let set = 1; set <= block.sets; set++) {
-          push('work', block.workSeconds, blockIndex, 'intervals', 0, block.exercise, undefined, set);
-          if (!(dropFinalRest && set === block.sets)) {
-            push('rest', block.restSeconds, blockIndex, 'intervals', 0, block.exercise, undefined, set);
-          }
+          const place = { stationIndex: 0, exercise: block.exercise, set };
+          push('work', block.workSeconds, blockIndex, 'intervals', place);
+          if (!(dropFinalRest && set === block.sets)) push('rest', block.restSeconds, blockIndex, 'intervals', place);
+        }
+        break;
+      case 'amrap':
+        // One timed span; the exercises are repeated inside it, not marked one by one.
+        push('work', block.seconds, blockIndex, 'amrap', { format: 'amrap' });
+        break;
+      case 'emom':
+        // Every minute: the work at its top, the rest of the minute as rest, the last minute too.
+        for (let minute = 1; minute <= block.minutes; minute++) {
+          const place = { exercise: emomExercise(block.exercises, minute), round: minute, format: 'emom' as const };
+          push('work', block.workSeconds, blockIndex, 'emom', place);
+          push('rest', 60 - block.workSeconds, blockIndex, 'emom', place);
         }
         break;
       case 'circuit': {
@@ -115,13 +136,19 @@ export function expandPlan(plan: Plan, startSeconds = 0): ExpectedSchedule {
           // The round's own stations and seconds (ladders, pyramids, stations left out).
           const done = circuitRound(block, round);
           done.forEach((station, i) => {
-            const { stationIndex } = station;
-            push('work', station.workSeconds, blockIndex, 'circuit', stationIndex, station.exercise, round);
+            const { stationIndex, exercise } = station;
+            if (station.perSide) {
+              // Left, the switch pause (the left side's rest), then right; the station's rest follows the right.
+              push('work', station.workSeconds, blockIndex, 'circuit', { stationIndex, exercise, round, side: 'left' });
+              push('rest', station.switchSeconds, blockIndex, 'circuit', { stationIndex, exercise, round, side: 'left' });
+            }
+            const side = station.perSide ? ('right' as const) : undefined;
+            push('work', station.workSeconds, blockIndex, 'circuit', { stationIndex, exercise, round, side });
             const isLast = i === done.length - 1;
             const skipRest = isLast && (finalRound ? dropFinalRest : roundBreakReplacesLastRest);
-            if (!skipRest) push('rest', station.restSeconds, blockIndex, 'circuit', stationIndex, station.exercise, round);
+            if (!skipRest) push('rest', station.restSeconds, blockIndex, 'circuit', { stationIndex, exercise, round, side });
           });
-          if (!finalRound) push('round-break', block.roundBreakSeconds, blockIndex, 'circuit', undefined, undefined, round);
+          if (!finalRound) push('round-break', block.roundBreakSeconds, blockIndex, 'circuit', { round });
         }
         break;
       }
@@ -130,4 +157,23 @@ export function expandPlan(plan: Plan, startSeconds = 0): ExpectedSchedule {
 
   totals.classSeconds = at - startSeconds;
   return { startSeconds, segments, totals };
+}
+
+/** The exercise of EMOM minute `minute` (1-based): the list takes turns, one per minute. */
+export function emomExercise(exercises: readonly string[], minute: number): string {
+  return exercises[(minute - 1) % exercises.length]!;
+}
+
+/**
+ * The fields a mark laid out from a planned segment carries (exercise on work and rest,
+ * round, set, side and format), so every place that turns the plan into marks agrees.
+ */
+export function markFieldsOf(p: PlannedSegment): Pick<Segment, 'exercise' | 'round' | 'set' | 'side' | 'format'> {
+  return {
+    ...(p.exercise !== undefined && (p.kind === 'work' || p.kind === 'rest') ? { exercise: p.exercise } : {}),
+    ...(p.round !== undefined ? { round: p.round } : {}),
+    ...(p.set !== undefined ? { set: p.set } : {}),
+    ...(p.side !== undefined ? { side: p.side } : {}),
+    ...(p.format !== undefined ? { format: p.format } : {}),
+  };
 }

@@ -23,6 +23,8 @@ export const BLOCK_KIND_LABELS: Record<BlockKind, string> = {
   warmup: 'Warm-up',
   circuit: 'Circuit',
   intervals: 'Intervals',
+  amrap: 'AMRAP',
+  emom: 'EMOM',
   cooldown: 'Cool-down',
   talk: 'Talk',
 };
@@ -32,7 +34,8 @@ export const BLOCK_KINDS = Object.keys(BLOCK_KIND_LABELS) as BlockKind[];
 /**
  * A new block of `kind` with common starting values (common practice, no source): 5 min
  * warm-up, 3 min cool-down, 1 min talk, a 3-station 40/20 circuit of 3 rounds with a 60 s
- * round break, 8 sets of 20/10 intervals.
+ * round break, 8 sets of 20/10 intervals, a 12-minute AMRAP of three moves, a 10-minute EMOM
+ * of two moves taking turns with 40 s of work at the top of each minute.
  */
 export function newBlock(kind: BlockKind): DraftBlock {
   switch (kind) {
@@ -55,6 +58,10 @@ export function newBlock(kind: BlockKind): DraftBlock {
       };
     case 'intervals':
       return { kind, exercise: '', sets: 8, workSeconds: 20, restSeconds: 10 };
+    case 'amrap':
+      return { kind, seconds: 720, exercises: ['', '', ''] };
+    case 'emom':
+      return { kind, minutes: 10, workSeconds: 40, exercises: ['', ''] };
   }
 }
 

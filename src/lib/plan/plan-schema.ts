@@ -5,6 +5,9 @@
  */
 import { z } from 'zod';
 
+/** Every kind of block, in the order the builder offers them. */
+export const PLAN_BLOCK_KINDS = ['warmup', 'circuit', 'intervals', 'amrap', 'emom', 'cooldown', 'talk'] as const;
+
 /** A plan may describe at most 12 hours of class: longer input is almost surely a typo. */
 export const MAX_PLAN_SECONDS = 12 * 3600;
 /** Upper bounds that keep expansion and the check bounded for hand-written input. */
@@ -49,10 +52,72 @@ const blockTitle = z
 export const stationSchema = z
   .object({
     exercise: exerciseNameSchema,
-    workSeconds: seconds('Work').describe('Seconds of work at this station.'),
+    workSeconds: seconds('Work').describe('Seconds of work at this station (per side when done per side).'),
     restSeconds: secondsOrZero('Rest').describe('Seconds of rest after this station (0 for none).'),
+    perSide: z
+      .boolean({ error: 'Per side must be true or false.' })
+      .optional()
+      .describe('When true, the station is done on the left, then on the right, each for its work seconds.'),
+    switchSeconds: secondsOrZero('The switch pause')
+      .optional()
+      .describe('Per-side stations only: seconds of pause between the left and the right side (0 or left out for none).'),
+  })
+  .refine((s) => s.perSide === true || !s.switchSeconds, {
+    error: 'A switch pause is only for a station done per side: turn on "per side" or set the pause to 0.',
+    path: ['switchSeconds'],
   })
   .describe('One move inside a circuit, with its work and rest seconds.');
+
+/** Every exercise list (AMRAP, EMOM) has the same bounds and the same words. */
+const exerciseList = (format: string) =>
+  z
+    .array(exerciseNameSchema, { error: `The ${format} needs a list of exercises.` })
+    .min(1, { error: `The ${format} needs at least one exercise.` })
+    .max(MAX_STATIONS, { error: `The ${format} can have at most ${MAX_STATIONS} exercises.` });
+
+/**
+ * AMRAP, "as many rounds as possible": one timed span in which members repeat the list of
+ * exercises at their own pace (fitness trade, common practice, no source). The recording has
+ * one work span for it; the exercises are what members repeat inside it.
+ */
+export const amrapBlockSchema = z
+  .object({
+    kind: z.literal('amrap'),
+    seconds: seconds('The AMRAP').describe('Length of the timed span, in seconds (12 minutes = 720).'),
+    exercises: exerciseList('AMRAP').describe('The exercises of one round, repeated as often as members can.'),
+    title: blockTitle,
+  })
+  .describe('AMRAP (as many rounds as possible): one timed work span with a list of exercises.');
+
+/** An EMOM lasts at most this many minutes (the same bound as a circuit's rounds). */
+export const MAX_EMOM_MINUTES = MAX_ROUNDS;
+
+/**
+ * EMOM, "every minute on the minute": a task starts at the top of every minute, and what is
+ * left of the minute is rest; N minutes are N rounds (fitness trade, common practice, no
+ * source). The exercises take turns, one per minute. The work seconds are a guide for laying
+ * the marks out: how long members work is what the coach marks; the check tests the minute
+ * boundaries.
+ */
+export const emomBlockSchema = z
+  .object({
+    kind: z.literal('emom'),
+    minutes: z
+      .number({ error: 'Minutes must be a number.' })
+      .int({ error: 'Minutes must be a whole number.' })
+      .min(1, { error: 'An EMOM needs at least 1 minute.' })
+      .max(MAX_EMOM_MINUTES, { error: `An EMOM can last at most ${MAX_EMOM_MINUTES} minutes.` })
+      .describe('Number of minutes (each minute is one round).'),
+    exercises: exerciseList('EMOM').describe('Exercises taking turns, one per minute: minute 1 the first, minute 2 the second, and so on.'),
+    workSeconds: z
+      .number({ error: 'Work must be a number of seconds.' })
+      .int({ error: 'Work must be whole seconds.' })
+      .positive({ error: 'Work must be more than 0 seconds.' })
+      .max(59, { error: 'Work must be less than 60 seconds: what is left of the minute is the rest.' })
+      .describe('Expected work at the top of each minute, in seconds (1 to 59); the rest of the minute is rest.'),
+    title: blockTitle,
+  })
+  .describe('EMOM (every minute on the minute): for a number of minutes, the exercises take turns, one per minute.');
 
 export const warmupBlockSchema = z
   .object({ kind: z.literal('warmup'), seconds: seconds('The warm-up'), title: blockTitle })
@@ -139,9 +204,11 @@ export const planBlockSchema = z
     warmupBlockSchema,
     circuitBlockSchema,
     intervalsBlockSchema,
+    amrapBlockSchema,
+    emomBlockSchema,
     cooldownBlockSchema,
     talkBlockSchema,
-  ], { error: 'Each block needs a kind: warmup, circuit, intervals, cooldown or talk.' })
+  ], { error: 'Each block needs a kind: warmup, circuit, intervals, amrap, emom, cooldown or talk.' })
   .describe('One block of the plan.');
 
 /*
@@ -234,6 +301,11 @@ export function blockPlannedSeconds(block: PlanBlock, options: PlanOptions): num
       const rest = block.restSeconds * (options.dropFinalRest ? block.sets - 1 : block.sets);
       return block.workSeconds * block.sets + rest;
     }
+    case 'amrap':
+      return block.seconds;
+    case 'emom':
+      // Every minute lasts a minute, the last one included: N minutes = N × 60 s.
+      return block.minutes * 60;
     case 'circuit': {
       let total = 0;
       for (let round = 1; round <= block.rounds; round++) {
@@ -241,7 +313,7 @@ export function blockPlannedSeconds(block: PlanBlock, options: PlanOptions): num
         const finalRound = round === block.rounds;
         done.forEach((st, i) => {
           const isLast = i === done.length - 1;
-          total += st.workSeconds;
+          total += st.perSide ? st.workSeconds * 2 + st.switchSeconds : st.workSeconds;
           // The last station's rest is replaced by the round break, or dropped after the final round.
           if (!(isLast && (finalRound ? options.dropFinalRest : options.roundBreakReplacesLastRest))) total += st.restSeconds;
         });
@@ -258,6 +330,9 @@ export interface RoundStation {
   exercise: string;
   workSeconds: number;
   restSeconds: number;
+  /** Done on the left, then on the right, each for `workSeconds`, with `switchSeconds` between. */
+  perSide: boolean;
+  switchSeconds: number;
 }
 
 /**
@@ -275,6 +350,8 @@ export function circuitRound(block: CircuitBlock, round: number): RoundStation[]
       exercise: s.exercise,
       workSeconds: change?.workSeconds ?? s.workSeconds,
       restSeconds: change?.restSeconds ?? s.restSeconds,
+      perSide: s.perSide === true,
+      switchSeconds: s.perSide === true ? s.switchSeconds ?? 0 : 0,
     });
   });
   return out;
@@ -315,8 +392,10 @@ function checkRoundChanges(block: CircuitBlock, blockIndex: number, ctx: z.Refin
 
 /** Number of planned segments a block expands to (for the size bound). */
 function blockSegmentCount(block: PlanBlock): number {
-  if (block.kind === 'circuit') return block.rounds * (block.stations.length * 2 + 1);
+  // A station done per side is at most four (left, switch pause, right, rest).
+  if (block.kind === 'circuit') return block.rounds * (block.stations.length * 4 + 1);
   if (block.kind === 'intervals') return block.sets * 2;
+  if (block.kind === 'emom') return block.minutes * 2;
   return 1;
 }
 
@@ -384,6 +463,8 @@ export type PlanInput = z.input<typeof planSchema>;
 export type PlanBlock = z.infer<typeof planBlockSchema>;
 export type CircuitBlock = z.infer<typeof circuitBlockSchema>;
 export type IntervalsBlock = z.infer<typeof intervalsBlockSchema>;
+export type AmrapBlock = z.infer<typeof amrapBlockSchema>;
+export type EmomBlock = z.infer<typeof emomBlockSchema>;
 export type Station = z.infer<typeof stationSchema>;
 export type Tolerances = z.infer<typeof tolerancesSchema>;
 export type PlanOptions = z.infer<typeof planOptionsSchema>;

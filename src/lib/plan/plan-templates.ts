@@ -55,6 +55,20 @@ export const BUILT_IN_TEMPLATES: readonly BuiltInTemplate[] = [
       ],
     },
   },
+  {
+    id: 'emom-10',
+    name: 'EMOM 10 min',
+    description: 'Every minute on the minute for 10 minutes: two moves take turns, about 40 s of work at the top of each minute, the rest of the minute to recover.',
+    // EMOM as the trade defines it (common practice, no source): N minutes = N rounds = N × 60 s.
+    plan: { blocks: [{ kind: 'emom', minutes: 10, workSeconds: 40, exercises: ['', ''] }] },
+  },
+  {
+    id: 'amrap-12',
+    name: 'AMRAP 12 min',
+    description: 'As many rounds as possible of three moves in one 12-minute span.',
+    // AMRAP as the trade defines it (common practice, no source): one timed span of 720 s.
+    plan: { blocks: [{ kind: 'amrap', seconds: 720, exercises: ['', '', ''] }] },
+  },
 ];
 
 /** Saving the current plan as a studio template. */

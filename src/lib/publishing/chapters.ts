@@ -1,6 +1,6 @@
 import type { Segment } from '../timeline/timeline-schema';
 import { formatVttTimestamp } from '../time/format-time';
-import { PART_NAMES } from './member-words';
+import { circuitRounds, emomMinutesById, formatHeading, partLabel } from './member-words';
 
 /** One chapter members can jump to: a part of the class and the rest that follows it. */
 export interface Chapter {
@@ -14,6 +14,10 @@ export interface Chapter {
   rounds?: number;
   set?: number;
   sets?: number;
+  /** A station done per side: which side this chapter is. */
+  side?: Segment['side'];
+  /** amrap or emom: the chapter is that format's span or minute (`round` is the EMOM minute). */
+  format?: Segment['format'];
 }
 
 
@@ -24,7 +28,8 @@ export interface Chapter {
  */
 export function buildChapters(segments: readonly Segment[]): Chapter[] {
   const sorted = [...segments].sort((a, b) => a.startSeconds - b.startSeconds);
-  const rounds = Math.max(0, ...sorted.map((s) => s.round ?? 0));
+  const rounds = circuitRounds(sorted);
+  const emomMinutes = emomMinutesById(sorted);
   const setsByExercise = new Map<string, number>();
   for (const s of sorted) if (s.set && s.exercise) setsByExercise.set(s.exercise, Math.max(setsByExercise.get(s.exercise) ?? 0, s.set));
   const chapters: Chapter[] = [];
@@ -38,13 +43,15 @@ export function buildChapters(segments: readonly Segment[]): Chapter[] {
     const sets = s.exercise ? setsByExercise.get(s.exercise) : undefined;
     const chapter: Chapter = {
       index: chapters.length,
-      title: chapterTitle(s, rounds, sets),
+      title: chapterTitle(s, rounds, sets, emomMinutes.get(s.id)),
       kind: s.kind,
       startSeconds: s.startSeconds,
       endSeconds: s.endSeconds,
       ...(s.exercise ? { exercise: s.exercise } : {}),
-      ...(s.round ? { round: s.round, rounds } : {}),
+      ...(s.round ? { round: s.round, rounds: s.format === 'emom' ? emomMinutes.get(s.id) ?? s.round : rounds } : {}),
       ...(s.set ? { set: s.set, ...(sets ? { sets } : {}) } : {}),
+      ...(s.side ? { side: s.side } : {}),
+      ...(s.format ? { format: s.format } : {}),
     };
     chapters.push(chapter);
   }
@@ -53,10 +60,15 @@ export function buildChapters(segments: readonly Segment[]): Chapter[] {
   return chapters.filter((c) => c.endSeconds > c.startSeconds).map((c, index) => ({ ...c, index }));
 }
 
-/** "Goblet squat · round 2 of 4", "Fast feet · set 3 of 8", "Warm-up". */
-export function chapterTitle(s: Segment, rounds: number, sets?: number): string {
+/**
+ * "Goblet squat · round 2 of 4", "Side lunge — left · round 1 of 3", "Fast feet · set 3 of 8",
+ * "AMRAP 12:00 — round as many as you can", "EMOM minute 3 of 10 — Burpee", "Warm-up".
+ */
+export function chapterTitle(s: Segment, rounds: number, sets?: number, emomMinutes?: number): string {
   if (s.title && s.kind !== 'work') return s.title;
-  const name = s.kind === 'work' && s.exercise ? s.exercise : PART_NAMES[s.kind];
+  const heading = formatHeading(s, emomMinutes);
+  const name = partLabel(s);
+  if (heading) return `${heading} — ${s.kind === 'work' && s.format === 'amrap' ? name.toLowerCase() : name}`;
   const parts = [name];
   if (s.round && rounds > 1) parts.push(`round ${s.round} of ${rounds}`);
   if (s.set) parts.push(sets ? `set ${s.set} of ${sets}` : `set ${s.set}`);

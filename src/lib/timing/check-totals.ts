@@ -34,7 +34,7 @@ export function checkTotals(
   }));
   const roundMap = new Map<string, RoundTotals>();
   const roundFor = (p: PlannedSegment): RoundTotals | undefined => {
-    if (p.blockKind !== 'circuit' && p.blockKind !== 'intervals') return undefined;
+    if (p.blockKind !== 'circuit' && p.blockKind !== 'intervals' && p.blockKind !== 'emom') return undefined;
     const key = `${p.blockIndex}:${roundOf(p)}`;
     let r = roundMap.get(key);
     if (!r) {

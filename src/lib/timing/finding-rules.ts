@@ -11,7 +11,8 @@ import type { Finding, FixChange } from './finding-types';
 import { proposeGapFix, proposeMediaFix, proposeOverlapFix, proposeResize } from './propose-fix';
 import type { TimelineView } from './timeline-view';
 
-const withFix = (finding: Finding, fix: FixChange[] | undefined): Finding => {
+/** Attaches a fix (one change or several) when there is one. */
+export const withFix = (finding: Finding, fix: FixChange[] | undefined): Finding => {
   if (fix && fix.length > 0) finding.fix = fix.length === 1 ? fix[0]! : fix;
   return finding;
 };

@@ -1,6 +1,8 @@
 /** Shapes of the timing check's result: zod schemas (the API documents them) and their types. */
 import { z } from 'zod';
 import { scheduleTotalsSchema } from '../plan/expand-plan';
+import { PLAN_BLOCK_KINDS } from '../plan/plan-schema';
+import { SEGMENT_FORMATS, SEGMENT_SIDES } from '../timeline/timeline-schema';
 
 /** Exactly the finding codes of the public API. */
 export const FINDING_CODES = [
@@ -16,6 +18,7 @@ export const FINDING_CODES = [
   'unexpected-station',
   'out-of-order',
   'round-count',
+  'emom-minute',
   'length-vs-advertised',
   'cue-outside-segment',
   'countdown-late',
@@ -38,9 +41,11 @@ export type FixChange = z.infer<typeof fixChangeSchema>;
 export const missingWorkSchema = z.object({
   blockIndex: z.number().int(),
   stationIndex: z.number().int().optional().describe('0-based station of a circuit'),
-  round: z.number().int().optional().describe('1-based round of a circuit'),
+  round: z.number().int().optional().describe('1-based round of a circuit, or minute of an EMOM'),
   set: z.number().int().optional().describe('1-based set of intervals'),
   exercise: z.string().optional(),
+  side: z.enum(SEGMENT_SIDES).optional().describe('For a station done per side: the side that is not marked'),
+  format: z.enum(SEGMENT_FORMATS).optional().describe('amrap or emom, for the mark that fills it'),
   seconds: z.number().describe('Planned length of the work interval'),
 });
 export type MissingWork = z.infer<typeof missingWorkSchema>;
@@ -72,14 +77,14 @@ export type RoundTotals = z.infer<typeof roundTotalsSchema>;
 
 const blockTotalsSchema = z.object({
   blockIndex: z.number().int(),
-  kind: z.enum(['warmup', 'circuit', 'intervals', 'cooldown', 'talk']),
+  kind: z.enum(PLAN_BLOCK_KINDS),
   plannedSeconds: z.number(),
   markedSeconds: z.number(),
   plannedWorkSeconds: z.number(),
   markedWorkSeconds: z.number(),
   plannedRestSeconds: z.number(),
   markedRestSeconds: z.number(),
-  rounds: z.array(roundTotalsSchema).describe('Circuits: per round; intervals: per set'),
+  rounds: z.array(roundTotalsSchema).describe('Circuits: per round; intervals: per set; EMOM: per minute'),
 });
 export type BlockTotals = z.infer<typeof blockTotalsSchema>;
 

@@ -5,8 +5,8 @@
  * (`missing-station`, `unexpected-station`, `out-of-order`, `round-count`) and `block-length`
  * findings for blocks that are missing or not in the plan.
  */
-import type { ExpectedSchedule, PlannedSegment } from '../plan/expand-plan';
-import type { Plan } from '../plan/plan-schema';
+import { markFieldsOf, type ExpectedSchedule, type PlannedSegment } from '../plan/expand-plan';
+import type { Plan, PlanBlock } from '../plan/plan-schema';
 import type { Segment } from '../timeline/timeline-schema';
 import { toMillis } from '../time/format-time';
 import { alignStations, normaliseExercise, type AlignItem } from './align-stations';
@@ -20,10 +20,72 @@ export interface PlanMatch {
   findings: Finding[];
 }
 
-function toleranceFor(plan: Plan, kind: PlannedSegment['kind']): number {
+/** Stands for an AMRAP span in alignment: no exercise name can hold a control character. */
+const AMRAP_NAME = '\u0000amrap';
+
+/**
+ * The name a work interval is aligned by: an AMRAP span by its format, any other by its
+ * exercise and, for a station done per side, its side (so left and right are matched one by
+ * one). A mark without an exercise name has none and matches anything.
+ */
+function alignName(w: Pick<Segment, 'exercise' | 'side' | 'format'>): string | null {
+  if (w.format === 'amrap') return AMRAP_NAME;
+  const name = normaliseExercise(w.exercise);
+  return name !== null && w.side ? `${name}\u0000${w.side}` : name;
+}
+
+/**
+ * The length a mark is held to. EMOM work is what the coach marks and its rest is what is left
+ * of the minute, so neither has a length of its own: the minute boundaries are checked instead
+ * (`emomFindings`), and an infinite tolerance keeps the length rules and fixes off them.
+ */
+function toleranceFor(plan: Plan, planned: PlannedSegment): number {
+  if (planned.blockKind === 'emom') return Infinity;
+  const kind = planned.kind;
   if (kind === 'work') return plan.tolerances.workSeconds;
   if (kind === 'rest' || kind === 'round-break') return plan.tolerances.restSeconds;
   return plan.tolerances.blockSeconds;
+}
+
+/** How a block's work is counted when some of it is not marked. */
+interface CountedUnits {
+  /** Rounds, sets or minutes the plan has. */
+  unitsPlanned: number;
+  /** Work intervals in one unit when none is left out (for extra marks). */
+  unitSize: number;
+  unit: 'round' | 'set' | 'minute';
+  name: string;
+  /** Missing-work keys of the block, and how many units a key counts when all of its work is missing (0: never whole). */
+  keys: string[];
+  unitsPerKey: number;
+}
+
+/**
+ * Circuits count rounds (a round has one work per station, two per station done per side),
+ * intervals count sets, an EMOM counts minutes; an AMRAP is one span, so a missing one is
+ * reported like a missing station. Warm-up, cool-down and talk are matched elsewhere.
+ */
+function countedUnits(block: PlanBlock, blockIndex: number): CountedUnits | undefined {
+  const perRound = (rounds: number) => Array.from({ length: rounds }, (_, r) => `${blockIndex}:${r + 1}`);
+  switch (block.kind) {
+    case 'circuit':
+      return {
+        unitsPlanned: block.rounds,
+        unitSize: block.stations.reduce((n, st) => n + (st.perSide ? 2 : 1), 0),
+        unit: 'round',
+        name: `circuit (block ${blockIndex + 1})`,
+        keys: perRound(block.rounds),
+        unitsPerKey: 1,
+      };
+    case 'emom':
+      return { unitsPlanned: block.minutes, unitSize: 1, unit: 'minute', name: `EMOM (block ${blockIndex + 1})`, keys: perRound(block.minutes), unitsPerKey: 1 };
+    case 'intervals':
+      return { unitsPlanned: block.sets, unitSize: block.sets, unit: 'set', name: `${block.exercise} intervals (block ${blockIndex + 1})`, keys: [`${blockIndex}:sets`], unitsPerKey: block.sets };
+    case 'amrap':
+      return { unitsPlanned: 1, unitSize: 1, unit: 'set', name: `AMRAP (block ${blockIndex + 1})`, keys: [`${blockIndex}:sets`], unitsPerKey: 0 };
+    default:
+      return undefined;
+  }
 }
 
 /** Matches the plan to the marks; see the module comment. */
@@ -31,7 +93,8 @@ export function matchPlan(plan: Plan, schedule: ExpectedSchedule, view: Timeline
   const findings: Finding[] = [];
   const segs = view.segments;
   const expect = (segment: Segment, planned: PlannedSegment): void => {
-    view.expected.set(segment.id, { planned, seconds: planned.seconds, tolerance: toleranceFor(plan, planned.kind) });
+    const pinnedStart = planned.blockKind === 'emom' && planned.kind === 'work';
+    view.expected.set(segment.id, { planned, seconds: planned.seconds, tolerance: toleranceFor(plan, planned), ...(pinnedStart ? { pinnedStart } : {}) });
   };
 
   // Class start: first marked segment that is not an intro (intros are not in the plan).
@@ -41,10 +104,10 @@ export function matchPlan(plan: Plan, schedule: ExpectedSchedule, view: Timeline
   const plannedWork = schedule.segments.filter((p) => p.kind === 'work');
   const markedWorkPos: number[] = [];
   segs.forEach((s, i) => { if (s.kind === 'work') markedWorkPos.push(i); });
-  const plannedItems: AlignItem[] = plannedWork.map((p) => ({ name: normaliseExercise(p.exercise), relativeStart: p.startSeconds - schedule.startSeconds }));
+  const plannedItems: AlignItem[] = plannedWork.map((p) => ({ name: alignName(p), relativeStart: p.startSeconds - schedule.startSeconds }));
   const markedItems: AlignItem[] = markedWorkPos.map((pos) => {
     const s = segs[pos]!;
-    return { name: normaliseExercise(s.exercise), relativeStart: s.startSeconds - origin };
+    return { name: alignName(s), relativeStart: s.startSeconds - origin };
   });
   const steps = alignStations(plannedItems, markedItems);
 
@@ -175,8 +238,9 @@ export function matchPlan(plan: Plan, schedule: ExpectedSchedule, view: Timeline
     return segs.length > 0 ? lastMarkedEnd : plannedWork[u.p]!.startSeconds;
   };
   plan.blocks.forEach((block, blockIndex) => {
-    if (block.kind !== 'circuit' && block.kind !== 'intervals') return;
-    const unitsPlanned = block.kind === 'circuit' ? block.rounds : block.sets;
+    const counted = countedUnits(block, blockIndex);
+    if (!counted) return;
+    const { unitsPlanned, unitSize, unit, name, keys, unitsPerKey } = counted;
     // Planned work per round (a round may leave stations out), or all sets of an intervals block.
     const plannedPerKey = new Map<string, number>();
     for (const p of plannedWork) {
@@ -184,23 +248,17 @@ export function matchPlan(plan: Plan, schedule: ExpectedSchedule, view: Timeline
       const key = p.round !== undefined ? `${p.blockIndex}:${p.round}` : `${p.blockIndex}:sets`;
       plannedPerKey.set(key, (plannedPerKey.get(key) ?? 0) + 1);
     }
-    const unitSize = block.kind === 'circuit' ? block.stations.length : block.sets;
     let wholeMissing = 0;
     let firstMissingAt = Infinity;
     const partial: typeof missing = [];
-    const keys = block.kind === 'circuit'
-      ? Array.from({ length: block.rounds }, (_, r) => `${blockIndex}:${r + 1}`)
-      : [`${blockIndex}:sets`];
     for (const key of keys) {
       const list = missingByRound.get(key) ?? [];
-      if (list.length === (plannedPerKey.get(key) ?? unitSize) && list.length > 0) {
-        wholeMissing += block.kind === 'circuit' ? 1 : block.sets;
+      if (unitsPerKey > 0 && list.length === (plannedPerKey.get(key) ?? unitSize) && list.length > 0) {
+        wholeMissing += unitsPerKey;
         firstMissingAt = Math.min(firstMissingAt, anchorTime(list[0]!));
       } else partial.push(...list);
     }
-    const extraUnits = block.kind === 'circuit' ? Math.floor((extraPerBlock.get(blockIndex) ?? 0) / unitSize) : 0;
-    const unit = block.kind === 'circuit' ? 'round' : 'set';
-    const name = block.kind === 'circuit' ? `circuit (block ${blockIndex + 1})` : `${block.exercise} intervals (block ${blockIndex + 1})`;
+    const extraUnits = unit === 'set' ? 0 : Math.floor((extraPerBlock.get(blockIndex) ?? 0) / unitSize);
     if (wholeMissing > 0) {
       const marked = unitsPlanned - wholeMissing;
       findings.push({
@@ -230,9 +288,7 @@ export function matchPlan(plan: Plan, schedule: ExpectedSchedule, view: Timeline
         missing: {
           blockIndex: p.blockIndex,
           ...(p.stationIndex !== undefined ? { stationIndex: p.stationIndex } : {}),
-          ...(p.round !== undefined ? { round: p.round } : {}),
-          ...(p.set !== undefined ? { set: p.set } : {}),
-          ...(p.exercise !== undefined ? { exercise: p.exercise } : {}),
+          ...markFieldsOf(p),
           seconds: p.seconds,
         },
       });

@@ -34,6 +34,14 @@ interface Candidate {
  */
 const harmful = (c: Candidate): boolean => c.excess > c.excessBefore;
 
+/**
+ * An EMOM minute's work starts at the top of the minute, a point in time rather than a length,
+ * so a fix for a neighbour's length never moves it (the EMOM rule would move it back, and the
+ * two fixes would take turns).
+ */
+const movesPinnedStart = (view: TimelineView, c: Candidate, ownId: string): boolean =>
+  c.changes.some((ch) => ch.segmentId !== ownId && ch.field === 'startSeconds' && view.expected.get(ch.segmentId)?.pinnedStart === true);
+
 /** Prefers moves that open no reportable gap, then that help the neighbour most, then no gap at all, then the end. */
 function better(a: Candidate, b: Candidate): boolean {
   const ka = [a.reportableGap, a.excess - a.excessBefore, a.opensGap, a.side];
@@ -153,7 +161,7 @@ export function proposeResize(view: TimelineView, i: number, targetSeconds: numb
   if (both) candidates.push(both);
 
   let best: Candidate | undefined;
-  for (const c of candidates) if (!harmful(c) && (!best || better(c, best))) best = c;
+  for (const c of candidates) if (!harmful(c) && !movesPinnedStart(view, c, a.id) && (!best || better(c, best))) best = c;
   return best?.changes;
 }
 
@@ -331,4 +339,74 @@ export function proposeMediaFix(view: TimelineView, i: number): FixChange[] | un
   const a = view.segments[i];
   if (!a || !Number.isFinite(view.mediaSeconds) || a.startSeconds >= view.mediaSeconds) return undefined;
   return [{ segmentId: a.id, field: 'endSeconds', value: view.mediaSeconds }];
+}
+
+/**
+ * Moves one boundary of segment `i` to `valueSeconds`; when a neighbour shares that boundary
+ * (back to back, nothing else overlapping), it moves with it, so no gap or overlap opens.
+ * Undefined when the move would turn a segment inside out, cross another mark or leave the
+ * recording. Used where the rule is a point in time (an EMOM's minute boundaries), not a length.
+ */
+export function proposeBoundaryMove(view: TimelineView, i: number, edge: 'start' | 'end', valueSeconds: number): FixChange[] | undefined {
+  const segs = view.segments;
+  const a = segs[i];
+  if (!a) return undefined;
+  const v = ms(valueSeconds);
+  const media = Number.isFinite(view.mediaSeconds) ? ms(view.mediaSeconds) : Infinity;
+  if (v < 0 || v > media) return undefined;
+  const start = ms(a.startSeconds);
+  const end = ms(a.endSeconds);
+  if (edge === 'start') {
+    if (v >= end || v === start) return undefined;
+    const own: FixChange = { segmentId: a.id, field: 'startSeconds', value: sec(v) };
+    const h = view.holderBefore[i]!;
+    const prev = h >= 0 ? segs[h] : undefined;
+    if (prev && h === i - 1 && ms(prev.endSeconds) === start) {
+      const before = view.maxEndBefore[h]!;
+      if (v <= ms(prev.startSeconds) || (before !== -Infinity && v < ms(before))) return undefined;
+      return [{ segmentId: prev.id, field: 'endSeconds', value: sec(v) }, own];
+    }
+    const limit = view.maxEndBefore[i]!;
+    return limit !== -Infinity && v < ms(limit) && v < start ? undefined : [own];
+  }
+  if (v <= start || v === end) return undefined;
+  const own: FixChange = { segmentId: a.id, field: 'endSeconds', value: sec(v) };
+  const next = segs[i + 1];
+  if (next && view.holderBefore[i + 1] === i && ms(next.startSeconds) === end) {
+    if (v >= ms(next.endSeconds)) return undefined;
+    return [own, { segmentId: next.id, field: 'startSeconds', value: sec(v) }];
+  }
+  return next && v > ms(next.startSeconds) ? undefined : [own];
+}
+
+/**
+ * Starts segment `i` at `valueSeconds`: its start moves alone (with a neighbour sharing it), or
+ * when that would turn the segment inside out, the whole segment moves keeping its length and
+ * takes the shared boundaries on both sides with it. Undefined when neither fits.
+ */
+export function proposeStartAt(view: TimelineView, i: number, valueSeconds: number): FixChange[] | undefined {
+  const direct = proposeBoundaryMove(view, i, 'start', valueSeconds);
+  if (direct) return direct;
+  const segs = view.segments;
+  const a = segs[i];
+  if (!a) return undefined;
+  const v = ms(valueSeconds);
+  const len = ms(a.endSeconds) - ms(a.startSeconds);
+  const media = Number.isFinite(view.mediaSeconds) ? ms(view.mediaSeconds) : Infinity;
+  if (v < 0 || v + len > media || v === ms(a.startSeconds)) return undefined;
+  const changes: FixChange[] = [];
+  const h = view.holderBefore[i]!;
+  const prev = h >= 0 ? segs[h] : undefined;
+  if (prev && h === i - 1 && ms(prev.endSeconds) === ms(a.startSeconds)) {
+    const before = view.maxEndBefore[h]!;
+    if (v <= ms(prev.startSeconds) || (before !== -Infinity && v < ms(before))) return undefined;
+    changes.push({ segmentId: prev.id, field: 'endSeconds', value: sec(v) });
+  } else if (view.maxEndBefore[i]! !== -Infinity && v < ms(view.maxEndBefore[i]!)) return undefined;
+  changes.push({ segmentId: a.id, field: 'startSeconds', value: sec(v) }, { segmentId: a.id, field: 'endSeconds', value: sec(v + len) });
+  const next = segs[i + 1];
+  if (next && view.holderBefore[i + 1] === i && ms(next.startSeconds) === ms(a.endSeconds)) {
+    if (v + len >= ms(next.endSeconds)) return undefined;
+    changes.push({ segmentId: next.id, field: 'startSeconds', value: sec(v + len) });
+  } else if (next && v + len > ms(next.startSeconds)) return undefined;
+  return changes;
 }

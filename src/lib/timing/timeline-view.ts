@@ -14,6 +14,8 @@ export interface Expectation {
   seconds: number;
   /** Allowed difference in seconds. */
   tolerance: number;
+  /** The start is a point in time of its own (an EMOM minute's top): other fixes leave it alone. */
+  pinnedStart?: boolean;
 }
 
 export interface TimelineView {

@@ -8,6 +8,7 @@ import type { Timeline } from '../timeline/timeline-schema';
 import { checkTotals } from './check-totals';
 import { SEVERITY_RANK, type CheckContext, type CheckResult, type Finding } from './finding-types';
 import { advertisedFinding, cueFindings, lengthFindings, structureFindings } from './finding-rules';
+import { emomFindings } from './emom-minutes';
 import { matchPlan } from './match-plan';
 import { buildTimelineView } from './timeline-view';
 
@@ -36,6 +37,7 @@ export function checkTiming(plan: Plan, timeline: Timeline, context: CheckContex
   const findings: Finding[] = [
     ...structureFindings(view),
     ...match.findings,
+    ...emomFindings(plan, view, match.workPlanned),
     ...lengthFindings(view),
     ...cueFindings(view, timeline.cues),
   ];

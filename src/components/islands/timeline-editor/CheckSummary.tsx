@@ -1,8 +1,9 @@
 import { memo } from 'react';
 import type { CheckResult } from '~/lib/timing/finding-types';
 import { formatLength } from '~/lib/time/format-time';
+import { BLOCK_KIND_LABELS as BLOCK_WORDS } from '~/lib/plan/plan-editing';
 
-const BLOCK_WORDS = { warmup: 'Warm-up', circuit: 'Circuit', intervals: 'Intervals', cooldown: 'Cool-down', talk: 'Talk' } as const;
+const UNIT_WORDS = { intervals: 'set', emom: 'minute' } as Partial<Record<keyof typeof BLOCK_WORDS, string>>;
 
 /** Marked against planned: work and rest per round, and class length against the advertised length. */
 function CheckSummary({ result }: { result: CheckResult | null }) {
@@ -38,7 +39,7 @@ function CheckSummary({ result }: { result: CheckResult | null }) {
                 b.rounds.length > 0
                   ? b.rounds.map((r) => ({
                       key: `${b.blockIndex}-${r.round}`,
-                      label: `${BLOCK_WORDS[b.kind]} ${b.kind === 'intervals' ? 'set' : 'round'} ${r.round}`,
+                      label: `${BLOCK_WORDS[b.kind]} ${UNIT_WORDS[b.kind] ?? 'round'} ${r.round}`,
                       work: [r.markedWorkSeconds, r.plannedWorkSeconds],
                       rest: [r.markedRestSeconds, r.plannedRestSeconds],
                     }))

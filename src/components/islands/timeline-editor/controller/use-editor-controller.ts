@@ -144,6 +144,8 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
         ...(m.exercise ? { exercise: m.exercise } : {}),
         ...(m.round !== undefined ? { round: m.round } : {}),
         ...(m.set !== undefined ? { set: m.set } : {}),
+        ...(m.side !== undefined ? { side: m.side } : {}),
+        ...(m.format !== undefined ? { format: m.format } : {}),
       },
       notice: 'Marked at the playhead with its planned length. Undo takes it back.',
     });
