@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # Brings up, reports or stops Roundmark's local services on loopback, without Docker:
 #   PostgreSQL 15 (Debian), the S3-compatible object store, the SMTP fake.
-# Usage: docker-free-dev/services.sh [up|db|status|down]   (default: up). Running "up" twice changes nothing.
+# Usage: docker-free-dev/services.sh [up|db|status|down|stop NAME]   (default: up). Running "up" twice changes nothing.
 source "$(dirname "$0")/lib.sh"
 
 as_pg() { if [ "$(id -u)" = 0 ]; then runuser -u postgres -- "$@"; else "$@"; fi; }
@@ -93,5 +93,14 @@ case "${1:-up}" in
   status) status ;;
   down)
     node_down "payments fake"; node_down "mail fake"; node_down "object store"; pg_down; status ;;
-  *) fail "usage: $0 [up|db|status|down]" ;;
+  # One service only (the fault tests stop one and bring it back with "up").
+  stop)
+    case "${2:-}" in
+      postgresql) pg_down ;;
+      object-store) node_down "object store" ;;
+      mail) node_down "mail fake" ;;
+      payments) node_down "payments fake" ;;
+      *) fail "usage: $0 stop postgresql|object-store|mail|payments" ;;
+    esac ;;
+  *) fail "usage: $0 [up|db|status|down|stop NAME]" ;;
 esac

@@ -1,10 +1,12 @@
 import { defineMiddleware } from 'astro:middleware';
+import type { APIContext, MiddlewareNext } from 'astro';
 import { app } from './server/app';
 import { resolveStudio } from './server/services/accounts';
 import { isRouteId } from './lib/api/route-params';
 import { bodyLimitFor, errorResponse, tooLarge } from './server/http/api';
 import { notFound } from './server/errors';
 import { withSecurityHeaders } from './server/http/security-headers';
+import { databaseUnavailable, isDatabaseUnavailable } from './server/unavailable';
 
 const isApiPath = (pathname: string) => pathname.startsWith('/api/') || pathname.startsWith('/media/');
 
@@ -14,6 +16,23 @@ const isApiPath = (pathname: string) => pathname.startsWith('/api/') || pathname
  * blanks the cookie, and puts user, session and studio roles on locals.
  */
 export const onRequest = defineMiddleware(async (context, next) => {
+  try {
+    return await handle(context, next);
+  } catch (err) {
+    // The session check (or a page) could not reach the database: a clear 503, never a stack.
+    if (!isDatabaseUnavailable(err)) throw err;
+    const response = isApiPath(context.url.pathname) ? errorResponse(databaseUnavailable()) : unavailablePage();
+    return withSecurityHeaders(response, { signedIn: false, https: context.url.protocol === 'https:' });
+  }
+});
+
+const unavailablePage = () =>
+  new Response(`<!doctype html><html lang="en"><meta charset="utf-8"><title>Back in a minute · Roundmark</title><p>${databaseUnavailable().message}</p></html>`, {
+    status: 503,
+    headers: { 'content-type': 'text/html; charset=utf-8', 'retry-after': '30' },
+  });
+
+const handle = async (context: APIContext, next: MiddlewareNext): Promise<Response> => {
   // Every [id] route names a stored row by UUID; anything else is simply not there.
   const id = context.params.id;
   const early = (response: Response) => withSecurityHeaders(response, { signedIn: false, https: context.url.protocol === 'https:' });
@@ -55,5 +74,5 @@ export const onRequest = defineMiddleware(async (context, next) => {
     response = errorResponse(notFound());
   }
   return withSecurityHeaders(response, { signedIn: !!context.locals.user, https: context.url.protocol === 'https:' });
-});
+};
 

@@ -6,7 +6,12 @@ export type Db = ReturnType<typeof createDb>['db'];
 
 /** Builds a pool and a Drizzle client for one database URL (tests pass their own). */
 export function createDb(url: string) {
-  const pool = new pg.Pool({ connectionString: url, max: 10 });
+  // A bounded wait for a connection, so a request during a database outage fails within seconds
+  // (and answers 503) instead of hanging; pg's default is to wait forever.
+  const pool = new pg.Pool({ connectionString: url, max: 10, connectionTimeoutMillis: 5_000 });
+  // An idle connection the server closed (a restart) is dropped by the pool and replaced on the
+  // next query; without a listener node-postgres re-throws the event and the process ends.
+  pool.on('error', (err) => console.error(`database connection lost: ${err.message}`));
   const db = drizzle(pool, { schema, casing: 'snake_case' });
   return { pool, db };
 }

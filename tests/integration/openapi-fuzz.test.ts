@@ -12,12 +12,12 @@
  * stopped while the requests run, so the only writes to the database are the requests' own.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { readFile } from 'node:fs/promises';
 import fc from 'fast-check';
 import { createAppDeps } from '~/server/app';
 import { errorOutput } from '~/lib/api/error-schemas';
 import { ApiClient, BASE } from '../helpers/api-client';
-import { startWorker, WORKER_PID_FILE } from '../helpers/app-server';
+import { startWorker } from '../helpers/app-server';
+import { processAlive, waitUntil, workerPid } from '../helpers/local-services';
 import { changedTables, tableChecksums } from '../helpers/db-checksum';
 import { anyRequest, operationsOf, type FuzzRequest, type OpenApiDocument } from '../helpers/fuzz-requests';
 import { createFuzzStudio, FUZZ_ROLES, seedFuzzStudio, signInAs, type FuzzRole, type FuzzStudio } from '../helpers/fuzz-studio';
@@ -33,28 +33,12 @@ let doc: OpenApiDocument;
 const clients = {} as Record<FuzzRole, ApiClient>;
 let workerStopped = false;
 
-async function waitUntil(what: string, done: () => boolean | Promise<boolean>, deadlineMs: number) {
-  const end = Date.now() + deadlineMs;
-  while (!(await done())) {
-    if (Date.now() > end) throw new Error(`gave up waiting: ${what}`);
-    await new Promise((r) => setTimeout(r, 100));
-  }
-}
-
 async function stopWorker() {
-  const pid = Number(await readFile(WORKER_PID_FILE, 'utf8'));
-  const alive = () => {
-    try {
-      process.kill(pid, 0);
-      return true;
-    } catch {
-      return false;
-    }
-  };
-  if (!alive()) return;
+  const pid = workerPid();
+  if (!processAlive(pid)) return;
   process.kill(pid, 'SIGTERM');
   workerStopped = true;
-  await waitUntil('the worker to stop', () => !alive(), 60_000);
+  await waitUntil('the worker to stop', () => !processAlive(pid), 60_000);
 }
 
 beforeAll(async () => {

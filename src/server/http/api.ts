@@ -1,5 +1,6 @@
 import type { z } from 'zod';
 import { AppError } from '../errors';
+import { databaseUnavailable, isDatabaseUnavailable } from '../unavailable';
 import { statusOf } from './error-status';
 import { MAX_TIMELINE_FILE_BYTES } from '~/lib/api/timeline-file-schemas';
 
@@ -117,7 +118,7 @@ export async function readJson<S extends z.ZodType>(request: Request, schema: S,
 
 /** Headers some error answers need: Retry-After on 429 (RFC 9110 §10.2.3), Content-Range on 416 (§14.4). */
 function errorHeaders(err: AppError): Record<string, string> {
-  if (err.code === 'rate_limited' && typeof err.extra?.retryAfterSeconds === 'number') return { 'retry-after': String(err.extra.retryAfterSeconds) };
+  if ((err.code === 'rate_limited' || err.code === 'unavailable') && typeof err.extra?.retryAfterSeconds === 'number') return { 'retry-after': String(err.extra.retryAfterSeconds) };
   if (err.code === 'range_not_satisfiable' && typeof err.extra?.size === 'number') return { 'content-range': `bytes */${err.extra.size}` };
   return {};
 }
@@ -131,6 +132,7 @@ export function errorResponse(err: unknown): Response {
       errorHeaders(err),
     );
   }
+  if (isDatabaseUnavailable(err)) return errorResponse(databaseUnavailable());
   console.error(err);
   return json({ error: { code: 'internal', message: 'Something went wrong on our side. Please try again.' } }, 500);
 }

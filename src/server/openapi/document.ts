@@ -19,7 +19,8 @@ export function openApiDocument() {
     name: 'rm_session',
     description: 'Session cookie set by sign-in (named __Host-rm_session over HTTPS).',
   });
-  const add = (route: RouteConfig) => registry.registerPath({ security: [{ session: [] }], ...route });
+  // Any operation answers 503 while the database (or another service it needs) cannot be reached.
+  const add = (route: RouteConfig) => registry.registerPath({ security: [{ session: [] }], ...route, responses: { ...errors(503), ...route.responses } });
 
   add({
     method: 'post', path: '/api/auth/sign-up', summary: 'Create an account (a member of the studio) and sign in', security: [],
