@@ -1,5 +1,6 @@
 import { HeadBucketCommand, S3Client } from '@aws-sdk/client-s3';
 import { env } from './env';
+import { isConnectionFailure, storeUnavailable } from './unavailable';
 
 export interface StorageConfig {
   endpoint?: string;
@@ -28,7 +29,7 @@ export function storageConfigFromEnv(): StorageConfig {
  * and adds checksum parameters to presigned URLs, which not every S3-compatible store accepts.
  */
 export function createS3(config: StorageConfig): S3Client {
-  return new S3Client({
+  const client = new S3Client({
     ...(config.endpoint ? { endpoint: config.endpoint } : {}),
     region: config.region,
     forcePathStyle: config.forcePathStyle,
@@ -36,6 +37,20 @@ export function createS3(config: StorageConfig): S3Client {
     requestChecksumCalculation: 'WHEN_REQUIRED',
     responseChecksumValidation: 'WHEN_REQUIRED',
   });
+  // After the SDK's own retries, a store that cannot be reached is a domain error (503 "try again"),
+  // not an unknown one (500); the worker's jobs fail with the same words and are retried.
+  client.middlewareStack.add(
+    (next) => async (args) => {
+      try {
+        return await next(args);
+      } catch (err) {
+        if (isConnectionFailure(err)) throw storeUnavailable();
+        throw err;
+      }
+    },
+    { step: 'initialize', name: 'storeUnavailable' },
+  );
+  return client;
 }
 
 let shared: { s3: S3Client; bucket: string } | undefined;
