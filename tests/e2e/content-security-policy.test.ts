@@ -13,6 +13,7 @@ import { BASE } from '../helpers/api-client';
 import { launchBrowser } from '../helpers/browser';
 import { cspViolationsSoFar, takeCspViolations } from '../helpers/browser-checks';
 import { ensureDeskBreakPublished } from '../helpers/demo-class';
+import { startPlayingMuted } from '../helpers/player';
 import { pagesByRole, PUBLIC_PAGES, signedInContext, type DemoRole } from '../helpers/role-pages';
 
 const VIEWPORT = { width: 1280, height: 900 };
@@ -99,13 +100,7 @@ describe('the Content-Security-Policy in the browser', () => {
       if (/\.(ts|m4s)(\?|$)/.test(new URL(r.url()).pathname) && r.ok()) segments.push(r.url());
     });
     await open(page, `/classes/${desk.slug}`);
-    const understand = page.getByRole('button', { name: /I understand/ });
-    if (await understand.count()) await understand.click();
-    const video = page.getByTestId('class-video');
-    await video.evaluate((v: HTMLVideoElement) => {
-      v.muted = true;
-      void v.play();
-    });
+    const video = await startPlayingMuted(page);
     // Playing means media really flowed: a second of it decoded.
     await page.waitForFunction(() => (document.querySelector('video') as HTMLVideoElement).currentTime > 1, undefined, { timeout: 60_000 });
     const source = await video.evaluate((v: HTMLVideoElement) => v.currentSrc);

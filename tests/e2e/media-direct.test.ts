@@ -12,6 +12,7 @@ import { BASE, DEMO, signedIn } from '../helpers/api-client';
 import { launchBrowser } from '../helpers/browser';
 import { createSmallClass } from '../helpers/published-class';
 import { STORE_ORIGIN } from '../helpers/media-fetch';
+import { startPlayingMuted } from '../helpers/player';
 import { signInThroughForm } from '../helpers/role-pages';
 
 let browser: Browser;
@@ -48,13 +49,7 @@ describe('media delivery', () => {
     await page.waitForURL(BASE() + '/library');
     await page.goto(`${BASE()}/classes/${cls.slug}`);
     await page.waitForSelector('astro-island:not([ssr])');
-    const caution = page.getByRole('button', { name: /I understand/ });
-    if (await caution.isVisible()) await caution.click();
-    const video = page.getByTestId('class-video');
-    await video.evaluate((v: HTMLVideoElement) => {
-      v.muted = true;
-      void v.play();
-    });
+    await startPlayingMuted(page);
     // Played on to the end: every segment of the 12 s class was needed.
     await page.waitForFunction(() => (document.querySelector('video') as HTMLVideoElement).currentTime > 10, undefined, { timeout: 120_000 });
     expect(storeSegments.length).toBeGreaterThanOrEqual(3); // 12 s in 4 s segments

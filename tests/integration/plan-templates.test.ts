@@ -3,6 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { type ApiClient, DEMO, signedIn } from '../helpers/api-client';
 import { createAppDeps } from '~/server/app';
+import { evenStations } from '~/lib/plan/even-stations';
 import { lessons, planTemplates, studios, users } from '~/db/schema';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);
@@ -21,10 +22,7 @@ const ladderPlan = {
       kind: 'circuit',
       rounds: 3,
       roundBreakSeconds: 60,
-      stations: [
-        { exercise: 'Template squat', workSeconds: 30, restSeconds: 20 },
-        { exercise: 'Template row', workSeconds: 30, restSeconds: 20 },
-      ],
+      stations: evenStations(['Template squat', 'Template row'], 30, 20),
       roundChanges: [{ round: 2, workSeconds: 40 }, { round: 3, workSeconds: 50 }],
     },
   ],

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { evenStations } from '~/lib/plan/even-stations';
 import { expandPlan } from '~/lib/plan/expand-plan';
 import { blockPlannedSeconds, planSchema } from '~/lib/plan/plan-schema';
 import { messagesByPath } from '~/lib/plan/plan-editing';
@@ -17,10 +18,7 @@ const ladder = plan({
       kind: 'circuit',
       rounds: 3,
       roundBreakSeconds: 60,
-      stations: [
-        { exercise: 'A', workSeconds: 30, restSeconds: 20 },
-        { exercise: 'B', workSeconds: 30, restSeconds: 20 },
-      ],
+      stations: evenStations(['A', 'B'], 30, 20),
       roundChanges: [{ round: 2, workSeconds: 40 }, { round: 3, workSeconds: 50 }],
     },
   ],

@@ -1,4 +1,5 @@
 /** Test helpers: plans written by hand and timelines built from a schedule. */
+import { evenStations } from '~/lib/plan/even-stations';
 import { expandPlan } from '~/lib/plan/expand-plan';
 import { planSchema, type Plan, type PlanInput } from '~/lib/plan/plan-schema';
 import type { Segment, Timeline } from '~/lib/timeline/timeline-schema';
@@ -48,11 +49,7 @@ export const smallCircuit = (): Plan =>
         kind: 'circuit',
         rounds: 2,
         roundBreakSeconds: 30,
-        stations: [
-          { exercise: 'A', workSeconds: 40, restSeconds: 20 },
-          { exercise: 'B', workSeconds: 40, restSeconds: 20 },
-          { exercise: 'C', workSeconds: 40, restSeconds: 20 },
-        ],
+        stations: evenStations(['A', 'B', 'C'], 40, 20),
       },
       { kind: 'cooldown', seconds: 60 },
     ],

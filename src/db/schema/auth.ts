@@ -1,4 +1,5 @@
 import { bigint, index, integer, pgTable, text, timestamp, uniqueIndex, varchar } from 'drizzle-orm/pg-core';
+import { writtenAtColumn } from './columns';
 import { sql } from 'drizzle-orm';
 
 /** People who sign in. E-mail is stored lower-cased; uniqueness is case-insensitive. */
@@ -10,7 +11,7 @@ export const users = pgTable(
     name: text().notNull(),
     passwordHash: text().notNull(),
     emailVerifiedAt: timestamp({ withTimezone: true }),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: writtenAtColumn(),
     passwordChangedAt: timestamp({ withTimezone: true }),
     /** When the member acknowledged the general exercise caution before their first play. */
     cautionAcknowledgedAt: timestamp({ withTimezone: true }),

@@ -1,4 +1,5 @@
 import { boolean, index, integer, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { studioIdColumn, uuidPrimaryKey, writtenAtColumn } from './columns';
 import { users } from './auth';
 import { studios } from './studio';
 
@@ -15,7 +16,7 @@ export const billingSettings = pgTable('billing_settings', {
   pastDueGraceDays: integer().notNull().default(3),
   providerProductId: text(),
   providerPriceId: text(),
-  updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  updatedAt: writtenAtColumn(),
 });
 
 export const subscriptionStatusEnum = pgEnum('subscription_status', [
@@ -33,10 +34,8 @@ export const subscriptionStatusEnum = pgEnum('subscription_status', [
 export const subscriptions = pgTable(
   'subscriptions',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    studioId: uuid()
-      .notNull()
-      .references(() => studios.id, { onDelete: 'cascade' }),
+    id: uuidPrimaryKey(),
+    studioId: studioIdColumn(),
     userId: text()
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
@@ -50,8 +49,8 @@ export const subscriptions = pgTable(
     promoCode: text(),
     /** Provider timestamp of the last event applied, so older events arriving late change nothing. */
     lastEventAt: timestamp({ withTimezone: true }),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
-    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: writtenAtColumn(),
+    updatedAt: writtenAtColumn(),
   },
   (t) => [
     uniqueIndex('subscriptions_studio_user_idx').on(t.studioId, t.userId),
@@ -63,17 +62,15 @@ export const subscriptions = pgTable(
 export const promoCodes = pgTable(
   'promo_codes',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    studioId: uuid()
-      .notNull()
-      .references(() => studios.id, { onDelete: 'cascade' }),
+    id: uuidPrimaryKey(),
+    studioId: studioIdColumn(),
     code: text().notNull(),
     percentOff: integer().notNull(),
     expiresAt: timestamp({ withTimezone: true }),
     active: boolean().notNull().default(true),
     providerCouponId: text(),
     providerPromotionCodeId: text(),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: writtenAtColumn(),
   },
   (t) => [uniqueIndex('promo_codes_studio_code_idx').on(t.studioId, t.code)],
 );
@@ -82,7 +79,7 @@ export const promoCodes = pgTable(
 export const webhookEvents = pgTable('webhook_events', {
   id: text().primaryKey(),
   type: text().notNull(),
-  receivedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  receivedAt: writtenAtColumn(),
 });
 
 export const tokenPurposeEnum = pgEnum('token_purpose', ['verify-email', 'reset-password']);
@@ -98,7 +95,7 @@ export const emailTokens = pgTable(
     purpose: tokenPurposeEnum().notNull(),
     expiresAt: timestamp({ withTimezone: true }).notNull(),
     usedAt: timestamp({ withTimezone: true }),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: writtenAtColumn(),
   },
   (t) => [index('email_tokens_user_idx').on(t.userId)],
 );
@@ -109,10 +106,8 @@ export const invitationRoleEnum = pgEnum('invitation_role', ['coach', 'editor'])
 export const invitations = pgTable(
   'invitations',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    studioId: uuid()
-      .notNull()
-      .references(() => studios.id, { onDelete: 'cascade' }),
+    id: uuidPrimaryKey(),
+    studioId: studioIdColumn(),
     email: text().notNull(),
     role: invitationRoleEnum().notNull(),
     tokenHash: text().notNull().unique(),
@@ -120,7 +115,7 @@ export const invitations = pgTable(
     expiresAt: timestamp({ withTimezone: true }).notNull(),
     acceptedAt: timestamp({ withTimezone: true }),
     acceptedBy: text().references(() => users.id, { onDelete: 'set null' }),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: writtenAtColumn(),
   },
   (t) => [index('invitations_studio_idx').on(t.studioId)],
 );
@@ -132,11 +127,9 @@ export const emailPreferences = pgTable(
     userId: text()
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
-    studioId: uuid()
-      .notNull()
-      .references(() => studios.id, { onDelete: 'cascade' }),
+    studioId: studioIdColumn(),
     newClasses: boolean().notNull().default(false),
-    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    updatedAt: writtenAtColumn(),
   },
   (t) => [primaryKey({ columns: [t.userId, t.studioId] })],
 );
@@ -146,6 +139,6 @@ export const sentNotices = pgTable(
   'sent_notices',
   {
     key: text().primaryKey(),
-    sentAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    sentAt: writtenAtColumn(),
   },
 );

@@ -13,9 +13,9 @@ import {
   uniqueIndex,
   uuid,
 } from 'drizzle-orm/pg-core';
+import { studioIdColumn, uuidPrimaryKey, writtenAtColumn } from './columns';
 import { sql } from 'drizzle-orm';
 import { users } from './auth';
-import { studios } from './studio';
 
 export const lessonStateEnum = pgEnum('lesson_state', ['draft', 'published', 'archived']);
 export const impactEnum = pgEnum('impact_level', ['low', 'moderate', 'high']);
@@ -25,10 +25,8 @@ export const difficultyEnum = pgEnum('difficulty_level', ['beginner', 'intermedi
 export const lessons = pgTable(
   'lessons',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    studioId: uuid()
-      .notNull()
-      .references(() => studios.id, { onDelete: 'cascade' }),
+    id: uuidPrimaryKey(),
+    studioId: studioIdColumn(),
     coachId: text()
       .notNull()
       .references(() => users.id),
@@ -67,8 +65,8 @@ export const lessons = pgTable(
       sql`coalesce(published_seconds / 60.0, advertised_minutes::double precision)`,
     ),
     version: integer().notNull().default(1),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
-    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: writtenAtColumn(),
+    updatedAt: writtenAtColumn(),
   },
   (t) => [
     uniqueIndex('lessons_studio_slug_idx').on(t.studioId, t.slug),

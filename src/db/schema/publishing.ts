@@ -1,4 +1,5 @@
 import { boolean, index, integer, jsonb, pgEnum, pgTable, real, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core';
+import { uuidPrimaryKey, writtenAtColumn } from './columns';
 import { users } from './auth';
 import { lessons } from './lessons';
 import { recordings } from './recordings';
@@ -10,7 +11,7 @@ import { recordings } from './recordings';
 export const lessonVersions = pgTable(
   'lesson_versions',
   {
-    id: uuid().primaryKey().defaultRandom(),
+    id: uuidPrimaryKey(),
     lessonId: uuid()
       .notNull()
       .references(() => lessons.id, { onDelete: 'cascade' }),
@@ -25,7 +26,7 @@ export const lessonVersions = pgTable(
     durationSeconds: real().notNull(),
     warningsAcknowledged: boolean().notNull().default(false),
     publishedBy: text().references(() => users.id, { onDelete: 'set null' }),
-    publishedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    publishedAt: writtenAtColumn(),
   },
   (t) => [uniqueIndex('lesson_versions_lesson_number_idx').on(t.lessonId, t.number)],
 );
@@ -36,7 +37,7 @@ export const playEventKindEnum = pgEnum('play_event_kind', ['start', 'progress',
 export const playEvents = pgTable(
   'play_events',
   {
-    id: uuid().primaryKey().defaultRandom(),
+    id: uuidPrimaryKey(),
     userId: text()
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
@@ -49,7 +50,7 @@ export const playEvents = pgTable(
     kind: playEventKindEnum().notNull(),
     atSeconds: real().notNull(),
     fromSeconds: real(),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: writtenAtColumn(),
   },
   (t) => [index('play_events_lesson_idx').on(t.lessonId, t.createdAt)],
 );
@@ -71,8 +72,8 @@ export const playProgress = pgTable(
     /** Seconds of work intervals watched (union of watched spans, for the finish rule). */
     workWatchedSeconds: real().notNull().default(0),
     watchedSpans: jsonb().notNull().default([]),
-    startedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
-    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    startedAt: writtenAtColumn(),
+    updatedAt: writtenAtColumn(),
     finishedAt: timestamp({ withTimezone: true }),
   },
   (t) => [uniqueIndex('play_progress_user_lesson_idx').on(t.userId, t.lessonId)],

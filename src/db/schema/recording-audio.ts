@@ -1,20 +1,18 @@
-import { bigserial, doublePrecision, index, integer, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { bigserial, doublePrecision, index, integer, pgTable, real, text, uuid } from 'drizzle-orm/pg-core';
+import { studioIdColumn, writtenAtColumn } from './columns';
 import { recordings } from './recordings';
-import { studios } from './studio';
 
 /** That a recording's audio was analysed (it may have no events), when, and by which analyser version. */
 export const recordingAudioAnalyses = pgTable('recording_audio_analyses', {
   recordingId: uuid()
     .primaryKey()
     .references(() => recordings.id, { onDelete: 'cascade' }),
-  studioId: uuid()
-    .notNull()
-    .references(() => studios.id, { onDelete: 'cascade' }),
+  studioId: studioIdColumn(),
   analyzerVersion: integer().notNull(),
   eventCount: integer().notNull(),
   /** Wall time of decode + analysis, for operations. */
   seconds: real().notNull(),
-  analyzedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  analyzedAt: writtenAtColumn(),
 });
 
 /** Audio events heard in a recording (timer tones, whistles, speech, level changes). */

@@ -1,8 +1,8 @@
 import { bigint, boolean, index, integer, jsonb, pgEnum, pgTable, real, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { studioIdColumn, uuidPrimaryKey, writtenAtColumn } from './columns';
 import { sql } from 'drizzle-orm';
 import { users } from './auth';
 import { lessons } from './lessons';
-import { studios } from './studio';
 
 import { FAILURE_KINDS, RECORDING_SOURCES, RECORDING_STATES, RECORDING_STEPS } from '../../lib/media/recording-lifecycle';
 
@@ -16,10 +16,8 @@ export const recordingFailureEnum = pgEnum('recording_failure', FAILURE_KINDS);
 export const recordings = pgTable(
   'recordings',
   {
-    id: uuid().primaryKey().defaultRandom(),
-    studioId: uuid()
-      .notNull()
-      .references(() => studios.id, { onDelete: 'cascade' }),
+    id: uuidPrimaryKey(),
+    studioId: studioIdColumn(),
     lessonId: uuid()
       .notNull()
       .references(() => lessons.id, { onDelete: 'cascade' }),
@@ -62,8 +60,8 @@ export const recordings = pgTable(
     outputPrefix: text(),
     renditions: jsonb(),
     peaksRate: integer(),
-    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
-    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    createdAt: writtenAtColumn(),
+    updatedAt: writtenAtColumn(),
     readyAt: timestamp({ withTimezone: true }),
   },
   (t) => [index('recordings_lesson_idx').on(t.lessonId), index('recordings_state_idx').on(t.state, t.updatedAt)],

@@ -4,6 +4,7 @@
  * and the schema's messages keyed by field path so a form can show each at its field.
  */
 import type { z } from 'zod';
+import { evenStations } from './even-stations';
 import {
   blockPlannedSeconds,
   DEFAULT_PLAN_OPTIONS,
@@ -50,11 +51,7 @@ export function newBlock(kind: BlockKind): DraftBlock {
         kind,
         rounds: 3,
         roundBreakSeconds: 60,
-        stations: [
-          { exercise: '', workSeconds: 40, restSeconds: 20 },
-          { exercise: '', workSeconds: 40, restSeconds: 20 },
-          { exercise: '', workSeconds: 40, restSeconds: 20 },
-        ],
+        stations: evenStations(['', '', ''], 40, 20),
       };
     case 'intervals':
       return { kind, exercise: '', sets: 8, workSeconds: 20, restSeconds: 10 };

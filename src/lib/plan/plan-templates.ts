@@ -4,6 +4,7 @@
  * with a placeholder move. Studios save their own templates next to these (database).
  */
 import { z } from 'zod';
+import { evenStations } from './even-stations';
 import type { PlanInput } from './plan-schema';
 
 export interface BuiltInTemplate {
@@ -13,8 +14,6 @@ export interface BuiltInTemplate {
   plan: PlanInput;
 }
 
-const stations = (count: number, workSeconds: number, restSeconds: number) =>
-  Array.from({ length: count }, () => ({ exercise: '', workSeconds, restSeconds }));
 
 export const BUILT_IN_TEMPLATES: readonly BuiltInTemplate[] = [
   {
@@ -31,7 +30,7 @@ export const BUILT_IN_TEMPLATES: readonly BuiltInTemplate[] = [
     description: 'Six stations of 45 s work and 15 s rest, three rounds: 18 minutes.',
     // 6 × (45 s + 15 s) × 3 = 18 min (common practice, no source): every rest kept, no round break.
     plan: {
-      blocks: [{ kind: 'circuit', rounds: 3, roundBreakSeconds: 0, stations: stations(6, 45, 15) }],
+      blocks: [{ kind: 'circuit', rounds: 3, roundBreakSeconds: 0, stations: evenStations(6, 45, 15) }],
       options: { roundBreakReplacesLastRest: false, dropFinalRest: false },
     },
   },
@@ -45,7 +44,7 @@ export const BUILT_IN_TEMPLATES: readonly BuiltInTemplate[] = [
           kind: 'circuit',
           rounds: 3,
           roundBreakSeconds: 60,
-          stations: stations(3, 30, 20),
+          stations: evenStations(3, 30, 20),
           roundChanges: [
             { round: 1, workSeconds: 30 },
             { round: 2, workSeconds: 40 },

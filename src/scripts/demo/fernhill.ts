@@ -2,6 +2,8 @@
  * The invented demo scenario (../shared/design.md): Fernhill Movement Co. and its people.
  * Demo data only: nothing here is a check value for tests.
  */
+import { evenStations } from '~/lib/plan/even-stations';
+
 export const DEMO_PASSWORD = 'fernhill-demo-2026';
 
 // design.md names no zone; the studio prices in euros and the scheduling story is a Berlin coach.
@@ -69,13 +71,7 @@ export const lessons: DemoLesson[] = [
           kind: 'circuit',
           rounds: 4,
           roundBreakSeconds: 60,
-          stations: [
-            { exercise: 'Goblet squat', workSeconds: 40, restSeconds: 20 },
-            { exercise: 'Bent-over row', workSeconds: 40, restSeconds: 20 },
-            { exercise: 'Reverse lunge', workSeconds: 40, restSeconds: 20 },
-            { exercise: 'Push-up', workSeconds: 40, restSeconds: 20 },
-            { exercise: 'Dead bug', workSeconds: 40, restSeconds: 20 },
-          ],
+          stations: evenStations(['Goblet squat', 'Bent-over row', 'Reverse lunge', 'Push-up', 'Dead bug'], 40, 20),
         },
         { kind: 'cooldown', seconds: 180 },
       ],
@@ -121,14 +117,7 @@ export const lessons: DemoLesson[] = [
           kind: 'circuit',
           rounds: 2,
           roundBreakSeconds: 0,
-          stations: [
-            { exercise: 'Neck release', workSeconds: 30, restSeconds: 10 },
-            { exercise: 'Shoulder circles', workSeconds: 30, restSeconds: 10 },
-            { exercise: 'Cat-cow', workSeconds: 30, restSeconds: 10 },
-            { exercise: 'Thoracic rotation', workSeconds: 30, restSeconds: 10 },
-            { exercise: 'Hip flexor stretch', workSeconds: 30, restSeconds: 10 },
-            { exercise: 'Reverse lunge', workSeconds: 30, restSeconds: 10 },
-          ],
+          stations: evenStations(['Neck release', 'Shoulder circles', 'Cat-cow', 'Thoracic rotation', 'Hip flexor stretch', 'Reverse lunge'], 30, 10),
         },
       ],
       options: { roundBreakReplacesLastRest: false, dropFinalRest: true },
@@ -153,12 +142,7 @@ export const lessons: DemoLesson[] = [
           kind: 'circuit',
           rounds: 3,
           roundBreakSeconds: 60,
-          stations: [
-            { exercise: 'Squat jump', workSeconds: 40, restSeconds: 20 },
-            { exercise: 'Mountain climber', workSeconds: 40, restSeconds: 20 },
-            { exercise: 'Reverse lunge', workSeconds: 40, restSeconds: 20 },
-            { exercise: 'High knees', workSeconds: 40, restSeconds: 20 },
-          ],
+          stations: evenStations(['Squat jump', 'Mountain climber', 'Reverse lunge', 'High knees'], 40, 20),
         },
         { kind: 'cooldown', seconds: 180 },
       ],
