@@ -55,7 +55,7 @@ type Refusal = Extract<FormOutcome<unknown>, { ok: false }>;
  */
 export function outcomeOf<T>(
   result: { data?: FormOutcome<T> } | undefined,
-  response: { status: number },
+  response: { status?: number },
 ): { done: T | undefined; refused: Refusal | null } {
   const outcome = result?.data;
   if (!outcome) return { done: undefined, refused: null };
