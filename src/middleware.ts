@@ -51,11 +51,12 @@ const handle = async (context: APIContext, next: MiddlewareNext): Promise<Respon
   context.locals.session = null;
   context.locals.studio = null;
   const deps = app();
-  const sessionId = context.cookies.get(deps.auth.sessionCookieName)?.value ?? null;
-  if (sessionId) {
-    const { session, user } = await deps.auth.validateSession(sessionId);
+  // The cookie carries the session's token; the database knows only its hash (src/server/auth/lucia.ts).
+  const token = context.cookies.get(deps.auth.sessionCookieName)?.value ?? null;
+  if (token) {
+    const { session, user } = await deps.auth.validateSession(token);
     if (session?.fresh) {
-      const c = deps.auth.createSessionCookie(session.id);
+      const c = deps.auth.createSessionCookie(token);
       context.cookies.set(c.name, c.value, { ...c.attributes, httpOnly: true });
     }
     if (!session) {

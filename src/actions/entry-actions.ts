@@ -5,7 +5,7 @@ import { parseWith } from '~/server/http/api';
 import { requestAddress } from '~/server/http/client-address';
 import { homePath, requireUser } from '~/server/http/guards';
 import { clearSessionCookie, setSessionCookie } from '~/server/http/session-cookie';
-import { resolveStudio, signIn, signUp } from '~/server/services/accounts';
+import { resolveStudio, SIGN_UP_ANSWER, signIn, signUp } from '~/server/services/accounts';
 import { FORGOT_PASSWORD_ANSWER, requestPasswordReset, resetPassword, sendVerificationLink } from '~/server/services/email-auth';
 import { acceptInvitation, acceptWithNewAccount, signInAndAcceptInvitation } from '~/server/services/invitations';
 import { formAction, formValues } from './form-action';
@@ -28,12 +28,10 @@ export const entryActions = {
     return homePath({ studio: await resolveStudio(deps, session.userId) });
   }),
 
-  /** "Create account". */
+  /** "Create account": the same answer whether or not the address already has an account. */
   signUp: formAction(async (form, ctx) => {
-    const deps = app();
-    const { session } = await signUp(deps, parseWith(signUpInput, formValues(form)), requestAddress(ctx));
-    setSessionCookie(ctx.cookies, deps.auth, session);
-    return '/library';
+    await signUp(app(), parseWith(signUpInput, formValues(form)), requestAddress(ctx));
+    return SIGN_UP_ANSWER;
   }),
 
   /** "Send me a link": the same answer whether or not the address has an account. */

@@ -1,5 +1,5 @@
 import { and, eq, inArray, notInArray, sql } from 'drizzle-orm';
-import { generateIdFromEntropySize } from 'lucia';
+import { newUserId } from '~/server/auth/lucia';
 import { exercises, lessons, memberships, recordings, studios, users } from '../db/schema';
 import { startQueue } from '../server/queue';
 import { planSchema } from '../lib/plan/plan-schema';
@@ -30,7 +30,7 @@ for (const p of demo.people) {
   if (!user) {
     [user] = await db
       .insert(users)
-      .values({ id: generateIdFromEntropySize(10), email: p.email, name: p.name, passwordHash, emailVerifiedAt: new Date() })
+      .values({ id: newUserId(), email: p.email, name: p.name, passwordHash, emailVerifiedAt: new Date() })
       .returning();
   }
   userIds.set(p.email, user!.id);

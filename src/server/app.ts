@@ -1,7 +1,7 @@
 import { RateLimiterPostgres } from 'rate-limiter-flexible';
 import type pg from 'pg';
 import { createDb, type Db } from './db';
-import { createLucia, type Auth } from './auth/lucia';
+import { createAuth, type Auth } from './auth/lucia';
 import { env, settings } from './env';
 import { ACCESS_CHANNEL, LibraryCache } from './library-cache';
 import { queue, sendJob, type JobName, type JobPayloads } from './queue';
@@ -80,7 +80,7 @@ export function createAppDeps(databaseUrl: string, secureCookies = false): AppDe
   return {
     db,
     pool,
-    auth: createLucia(db, secureCookies),
+    auth: createAuth(db, secureCookies),
     limits: signInLimits(pool),
     jobs: queueSender(databaseUrl),
     studioSlug: settings().STUDIO_SLUG,

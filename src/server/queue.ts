@@ -13,6 +13,12 @@ export interface JobPayloads {
   'version.thumbnails': { versionId: string };
   'mail.class-published': { versionId: string };
   'mail.trial-reminders': Record<string, never>;
+  /** The first "confirm your address" link of a new account. */
+  'mail.verify-email': { userId: string };
+  /** Someone tried to sign up with an address that has an account: its owner hears about it. */
+  'mail.sign-up-attempt': { email: string };
+  /** A "forgot password" request: the lookup and the link happen here, never in the request. */
+  'mail.password-reset': { email: string };
 }
 export type JobName = keyof JobPayloads;
 export const JOB_NAMES: JobName[] = [
@@ -24,6 +30,9 @@ export const JOB_NAMES: JobName[] = [
   'version.thumbnails',
   'mail.class-published',
   'mail.trial-reminders',
+  'mail.verify-email',
+  'mail.sign-up-attempt',
+  'mail.password-reset',
 ];
 
 // Media jobs can run for most of an hour on a 2-core machine (facts: 60 min of 1080p needs ~45 min),
@@ -39,6 +48,10 @@ const QUEUE_OPTIONS: Record<JobName, PgBoss.Queue> = {
   // Mail jobs retry when the SMTP server refuses; each message is sent once per key (sent_notices).
   'mail.class-published': { name: 'mail.class-published', retryLimit: 5, retryDelay: 60, retryBackoff: true, expireInSeconds: 900 },
   'mail.trial-reminders': { name: 'mail.trial-reminders', retryLimit: 2, retryDelay: 120, expireInSeconds: 900 },
+  // Account mail is what a person waits for: retry soon, a few times.
+  'mail.verify-email': { name: 'mail.verify-email', retryLimit: 5, retryDelay: 10, retryBackoff: true, expireInSeconds: 900 },
+  'mail.sign-up-attempt': { name: 'mail.sign-up-attempt', retryLimit: 5, retryDelay: 10, retryBackoff: true, expireInSeconds: 900 },
+  'mail.password-reset': { name: 'mail.password-reset', retryLimit: 5, retryDelay: 10, retryBackoff: true, expireInSeconds: 900 },
 };
 
 /** Starts pg-boss on the app database and makes sure every queue exists (sending to a missing one is silently dropped). */

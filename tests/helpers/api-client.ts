@@ -57,6 +57,18 @@ export class ApiClient {
   patch = (path: string, body?: unknown) => this.request('PATCH', path, body);
   del = (path: string) => this.request('DELETE', path);
 
+  /**
+   * Signs up through the API, then signs in (sign-up answers 202 without a session, the same for
+   * every address); answers the new account's id.
+   */
+  async signUpAndIn(account: { name: string; email: string; password: string }): Promise<string> {
+    const res = await this.post('/api/auth/sign-up', account);
+    if (res.status !== 202) throw new Error(`sign-up failed: ${res.status} ${await res.text()}`);
+    const signedIn = await this.signIn(account.email, account.password);
+    if (signedIn.status !== 200) throw new Error(`sign-in after sign-up failed: ${signedIn.status} ${await signedIn.text()}`);
+    return ((await signedIn.json()) as { userId: string }).userId;
+  }
+
   /** Signs in through the API and keeps the cookie. */
   async signIn(email: string, password = DEMO_PASSWORD): Promise<Response> {
     return this.post('/api/auth/sign-in', { email, password });

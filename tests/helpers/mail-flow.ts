@@ -32,9 +32,7 @@ export async function signUpMember(who: string, since = new Date(Date.now() - 10
   const client = new ApiClient();
   const email = freshEmail(who);
   const name = `${who[0]!.toUpperCase()}${who.slice(1)} Tester`;
-  const res = await client.post('/api/auth/sign-up', { name, email, password: PASSWORD });
-  if (res.status !== 201) throw new Error(`sign-up failed: ${res.status} ${await res.text()}`);
-  const { userId } = (await res.json()) as { userId: string };
+  const userId = await client.signUpAndIn({ name, email, password: PASSWORD });
   return { client, email, name, userId, since };
 }
 

@@ -85,8 +85,7 @@ export async function waitForMembership(member: ApiClient, ok: (m: Membership) =
 export async function newMember(label: string): Promise<{ client: ApiClient; email: string }> {
   const client = new ApiClient();
   const email = `${label}-${Date.now()}-${Math.floor(Math.random() * 1e6)}@test.example`;
-  const res = await client.post('/api/auth/sign-up', { name: `Test ${label}`, email, password: 'a long enough password' });
-  if (res.status !== 201) throw new Error(`sign-up failed: ${res.status} ${await res.text()}`);
+  await client.signUpAndIn({ name: `Test ${label}`, email, password: 'a long enough password' });
   return { client, email };
 }
 

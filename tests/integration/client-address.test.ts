@@ -41,7 +41,7 @@ describe('sign-up and password-reset limits', () => {
     const peer = testNet3();
     for (let i = 0; i < SIGN_UP_LIMITS.address.points; i++) {
       const res = await behindProxy(peer).post('/api/auth/sign-up', { name: 'Limit', email: unique(), password: 'a long enough password' });
-      expect(res.status).toBe(201);
+      expect(res.status).toBe(202);
     }
     const res = await behindProxy(peer).post('/api/auth/sign-up', { name: 'Limit', email: unique(), password: 'a long enough password' });
     expect(res.status).toBe(429);

@@ -45,6 +45,20 @@ describe('password reset', () => {
     expect(said(await a.text())).toBe(said(await b.text()));
   });
 
+  it('does no lookup in the request: known and unknown addresses each just queue one reset job', async () => {
+    const m = await signUpMember('quill');
+    const nobody = freshEmail('nobody');
+    for (const email of [m.email, nobody]) {
+      expect((await new ApiClient().post('/api/auth/forgot-password', { email })).status).toBe(202);
+    }
+    // pg-boss keeps every job (queued or done) in its own schema on the app database.
+    const jobs = await deps.pool.query<{ email: string }>(
+      `select data->>'email' as email from pgboss.job where name = 'mail.password-reset' and data->>'email' = any($1)`,
+      [[m.email, nobody]],
+    );
+    expect(jobs.rows.map((r) => r.email).sort()).toEqual([m.email, nobody].sort());
+  });
+
   it('e-mails a link that opens the reset page, works once, and signs out every session', async () => {
     const m = await signUpMember('rosa');
     const phone = new ApiClient();

@@ -108,7 +108,8 @@ describe('forged roles', () => {
     const c = new ApiClient();
     const email = `forger-${Date.now()}@test.example`;
     const res = await c.post('/api/auth/sign-up', { name: 'Forger', email, password: 'a long enough password', role: 'owner' });
-    expect(res.status).toBe(201);
+    expect(res.status).toBe(202);
+    expect((await c.signIn(email, 'a long enough password')).status).toBe(200);
     expect((await (await c.get('/api/me')).json()).studio.roles).toEqual(['member']);
     expect((await c.get('/api/lessons')).status).toBe(403);
   });

@@ -163,7 +163,7 @@ describe('bad input', () => {
     // A coach of another studio.
     const outsider = new ApiClient();
     const email = `outsider-${Date.now()}@test.example`;
-    await outsider.post('/api/auth/sign-up', { name: 'Outsider', email, password: 'a long enough password' });
+    await outsider.signUpAndIn({ name: 'Outsider', email, password: 'a long enough password' });
     const [other] = await deps.db.insert(studios).values({ slug: `elsewhere-${Date.now()}`, name: 'Elsewhere' }).returning();
     const u = await deps.db.query.users.findFirst({ where: eq(users.email, email) });
     await deps.db.update(memberships).set({ studioId: other!.id, role: 'coach' }).where(eq(memberships.userId, u!.id));

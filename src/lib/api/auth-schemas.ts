@@ -43,7 +43,15 @@ export type ChangePasswordInput = z.infer<typeof changePasswordInput>;
 export const roles = ['owner', 'coach', 'editor', 'member'] as const;
 export type Role = (typeof roles)[number];
 
-/** Sign-in and sign-up answer who signed in and where their home page is. */
+/**
+ * Sign-up answers the same whether or not the address already has an account (no session, no id),
+ * so the form cannot be used to find out who has one.
+ */
+export const signUpOutput = z
+  .object({ message: z.string().describe('The same answer for a new address and one that already has an account') })
+  .meta({ id: 'SignUpOutput' });
+
+/** Sign-in answers who signed in and where their home page is. */
 export const signedInOutput = z.object({ userId: z.string(), home: z.string().describe('Path of the person’s home page') }).meta({ id: 'SignedIn' });
 export type SignedInOutput = z.infer<typeof signedInOutput>;
 

@@ -1,10 +1,9 @@
 import type { AstroCookies } from 'astro';
-import type { Session } from 'lucia';
-import type { Auth } from '../auth/lucia';
+import type { Auth, NewSession } from '../auth/lucia';
 
-/** Sets the HttpOnly session cookie for a new session. */
-export function setSessionCookie(cookies: AstroCookies, auth: Auth, session: Session): void {
-  const c = auth.createSessionCookie(session.id);
+/** Sets the HttpOnly session cookie for a new session: the cookie carries its token, not the stored id. */
+export function setSessionCookie(cookies: AstroCookies, auth: Auth, session: NewSession): void {
+  const c = auth.createSessionCookie(session.token);
   cookies.set(c.name, c.value, { ...c.attributes, httpOnly: true });
 }
 

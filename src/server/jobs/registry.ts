@@ -9,6 +9,7 @@ import { recordingStep } from './recording-step';
 import { analyzeAudioEvents } from './analyze-audio-events';
 import { mailClassPublished } from './mail-class-published';
 import { mailTrialReminders } from './mail-trial-reminders';
+import { mailPasswordReset, mailSignUpAttempt, mailVerifyEmail } from './mail-account';
 
 /** One handler per job name. */
 export const JOB_HANDLERS: { [N in JobName]: JobHandler<N> } = {
@@ -20,6 +21,9 @@ export const JOB_HANDLERS: { [N in JobName]: JobHandler<N> } = {
   'version.thumbnails': chapterThumbnails,
   'mail.class-published': mailClassPublished,
   'mail.trial-reminders': mailTrialReminders,
+  'mail.verify-email': mailVerifyEmail,
+  'mail.sign-up-attempt': mailSignUpAttempt,
+  'mail.password-reset': mailPasswordReset,
 };
 
 /** Refuses to start when a queue has no handler or a handler no queue (checked at worker start). */

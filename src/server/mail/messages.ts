@@ -5,7 +5,7 @@ import { env } from '../env';
 import { deliver } from './transport';
 import { clockOf, formatInstant, type StudioClock } from '~/lib/time/date-format';
 import { TOKEN_LIFETIME } from './tokens';
-import { passwordResetMessage, verifyEmailMessage } from './templates/account-messages';
+import { passwordResetMessage, signUpAttemptMessage, verifyEmailMessage } from './templates/account-messages';
 import { invitationMessage } from './templates/team-messages';
 import { classPublishedMessage, paymentFailedMessage, trialEndingMessage } from './templates/member-messages';
 
@@ -42,6 +42,18 @@ export async function sendVerifyEmail(deps: AppDeps, m: { userId: string; token:
     name: user.name,
     url: absoluteUrl(`/verify-email?token=${encodeURIComponent(m.token)}`),
     validHours: TOKEN_LIFETIME.verifyEmailHours,
+  });
+  await deliver({ ...content, studio, to: { name: user.name, address: user.email } });
+}
+
+/** "Someone tried to sign up with your address": sent to an account's owner instead of a second account. */
+export async function sendSignUpAttempt(deps: AppDeps, m: { userId: string }): Promise<void> {
+  const [user, studio] = await Promise.all([person(deps, m.userId), studioNamed(deps, { slug: deps.studioSlug })]);
+  const content = signUpAttemptMessage({
+    studioName: studio.name,
+    name: user.name,
+    signInUrl: absoluteUrl('/sign-in'),
+    resetUrl: absoluteUrl('/forgot-password'),
   });
   await deliver({ ...content, studio, to: { name: user.name, address: user.email } });
 }

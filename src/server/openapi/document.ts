@@ -1,5 +1,5 @@
 import { OpenAPIRegistry, OpenApiGeneratorV31, type RouteConfig } from '@asteasolutions/zod-to-openapi';
-import { changePasswordInput, meOutput, signedInOutput, signedOutOutput, signInInput, signOutQuery, signUpInput } from '~/lib/api/auth-schemas';
+import { changePasswordInput, meOutput, signedInOutput, signedOutOutput, signInInput, signOutQuery, signUpInput, signUpOutput } from '~/lib/api/auth-schemas';
 import { createLessonInput, lessonListOutput, lessonOutput, updateLessonInput } from '~/lib/api/lesson-schemas';
 import { lessonIdParams } from '~/lib/api/route-params';
 import { apiDocumentOutput, healthOutput } from '~/lib/api/service-schemas';
@@ -23,9 +23,9 @@ export function openApiDocument() {
   const add = (route: RouteConfig) => registry.registerPath({ security: [{ session: [] }], ...route, responses: { ...errors(503), ...route.responses } });
 
   add({
-    method: 'post', path: '/api/auth/sign-up', summary: 'Create an account (a member of the studio) and sign in', security: [],
+    method: 'post', path: '/api/auth/sign-up', summary: 'Create an account (a member of the studio); the answer is the same when the address already has one, and its owner is e-mailed instead', security: [],
     request: { body: json(signUpInput, 'New account') },
-    responses: { 201: json(signedInOutput, 'Signed in'), ...errors(400, 409, 429) },
+    responses: { 202: json(signUpOutput, 'Check your inbox'), ...errors(400, 429) },
   });
   add({
     method: 'post', path: '/api/auth/sign-in', summary: 'Sign in; sets the session cookie', security: [],

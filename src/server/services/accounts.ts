@@ -1,5 +1,4 @@
 import { and, eq, ne, sql } from 'drizzle-orm';
-import { generateIdFromEntropySize, type Session } from 'lucia';
 import type { RateLimiterRes } from 'rate-limiter-flexible';
 import { memberships, sessions, studios, users } from '~/db/schema';
 import type { ChangePasswordInput, Role, SignInInput, SignUpInput } from '~/lib/api/auth-schemas';
@@ -7,7 +6,7 @@ import { AppError } from '../errors';
 import { consumeEach, pleaseWait } from '../http/rate-limit';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import type { AppDeps } from '../app';
-import { sendFirstVerificationLink } from './email-auth';
+import { newUserId, type NewSession } from '../auth/lucia';
 
 /** A studio role as the middleware puts it on Astro.locals. */
 export interface StudioAccess {
@@ -39,8 +38,18 @@ function tooManyTries(res: RateLimiterRes): AppError {
   );
 }
 
-/** Creates an account and makes it a member of the app's studio. */
-export async function signUp(deps: AppDeps, input: SignUpInput, address: string): Promise<{ userId: string; session: Session }> {
+/** The one answer to a sign-up, whether the address was new or already had an account. */
+export const SIGN_UP_ANSWER =
+  'Thanks! Check your inbox: we have sent a message to that address. You can sign in with your e-mail and password now.';
+
+/**
+ * Creates an account and makes it a member of the app's studio. When the address already has an
+ * account nothing is created and its owner is e-mailed instead ("someone tried to sign up with
+ * your address"). Both paths do the same work in the request (hash the password, try the insert,
+ * queue one mail job) and the caller answers the same, so the form tells nobody who has an account
+ * (issue 15, point 7). No session is opened: the person signs in.
+ */
+export async function signUp(deps: AppDeps, input: SignUpInput, address: string): Promise<void> {
   await consumeEach(
     [
       [deps.limits.signUpPerAddress, address],
@@ -48,29 +57,28 @@ export async function signUp(deps: AppDeps, input: SignUpInput, address: string)
     ],
     pleaseWait('sign-ups'),
   );
-  const existing = await deps.db.query.users.findFirst({ where: sql`lower(${users.email}) = ${input.email}` });
-  if (existing) {
-    throw new AppError('conflict', 'An account with this e-mail already exists. Sign in instead.', {
-      email: 'An account with this e-mail already exists. Sign in instead.',
-    });
-  }
   const studio = await deps.db.query.studios.findFirst({ where: eq(studios.slug, deps.studioSlug) });
-  const userId = generateIdFromEntropySize(10);
+  const userId = newUserId();
   const passwordHash = await hashPassword(input.password);
-  await deps.db.transaction(async (tx) => {
-    await tx.insert(users).values({ id: userId, email: input.email, name: input.name, passwordHash });
-    if (studio) await tx.insert(memberships).values({ userId, studioId: studio.id, role: 'member' });
+  const created = await deps.db.transaction(async (tx) => {
+    // The unique index on lower(email) decides, so two sign-ups racing for one address make one account.
+    const [row] = await tx
+      .insert(users)
+      .values({ id: userId, email: input.email, name: input.name, passwordHash })
+      .onConflictDoNothing()
+      .returning({ id: users.id });
+    if (row && studio) await tx.insert(memberships).values({ userId, studioId: studio.id, role: 'member' });
+    return !!row;
   });
-  const session = await deps.auth.createSession(userId, {});
-  await sendFirstVerificationLink(deps, userId);
-  return { userId, session };
+  if (created) await deps.jobs('mail.verify-email', { userId });
+  else await deps.jobs('mail.sign-up-attempt', { email: input.email });
 }
 
 /**
  * Checks e-mail and password and opens a new session (never reuses one: OWASP ASVS 3.2.1).
  * Failed attempts count against the account and the caller's address.
  */
-export async function signIn(deps: AppDeps, input: SignInInput, address: string): Promise<Session> {
+export async function signIn(deps: AppDeps, input: SignInInput, address: string): Promise<NewSession> {
   const [byAccount, byAddress] = await Promise.all([
     deps.limits.perAccount.get(input.email),
     deps.limits.perAddress.get(address),
@@ -93,7 +101,7 @@ export async function signIn(deps: AppDeps, input: SignInInput, address: string)
     throw wrongCredentials();
   }
   await deps.limits.perAccount.delete(input.email);
-  return deps.auth.createSession(user.id, {});
+  return deps.auth.createSession(user.id);
 }
 
 /** Ends one session. */

@@ -61,18 +61,6 @@ export async function sendVerificationLink(deps: AppDeps, userId: string): Promi
   return 'sent';
 }
 
-/**
- * The sign-up hook: sends the first verification link. A mail outage must not undo a sign-up,
- * so failures are logged and the person can ask for another link from the banner.
- */
-export async function sendFirstVerificationLink(deps: AppDeps, userId: string): Promise<void> {
-  try {
-    await sendVerificationLink(deps, userId);
-  } catch (err) {
-    console.error(`verification e-mail for ${userId} not sent:`, err instanceof Error ? err.message : err);
-  }
-}
-
 export type VerifyResult = 'verified' | 'already-verified' | 'expired' | 'invalid';
 
 /** Confirms an address from an e-mailed link. Each link works once; a second use says it is already done. */
@@ -117,8 +105,9 @@ export const FORGOT_PASSWORD_ANSWER =
   'If an account uses that address, a link to choose a new password is on its way. It works for one hour. Check your spam folder if it does not arrive in a few minutes.';
 
 /**
- * Starts a password reset. Answers the same, and about as fast, whether or not the address has
- * an account: the message is sent after the answer, and failures are only logged.
+ * Starts a password reset. The request only counts against the limits and queues a job, so it
+ * does the same work, and answers the same, whether or not the address has an account (issue 15,
+ * point 7); the lookup and the link happen in the job (`sendPasswordResetLink`).
  */
 export async function requestPasswordReset(deps: AppDeps, input: ForgotPasswordInput, address: string): Promise<void> {
   await consumeEach(
@@ -128,13 +117,25 @@ export async function requestPasswordReset(deps: AppDeps, input: ForgotPasswordI
     ],
     pleaseWait('password-reset requests'),
   );
-  const user = await deps.db.query.users.findFirst({ where: sql`lower(${users.email}) = ${input.email}` });
-  if (!user) return;
-  if ((await recentTokens(deps, user.id, 'reset-password', 15)) >= MAX_RESET_LINKS_PER_15_MIN) return;
+  await deps.jobs('mail.password-reset', { email: input.email });
+}
+
+/** The account with this address (any case), if there is one. */
+export async function userByEmail(deps: AppDeps, email: string) {
+  return deps.db.query.users.findFirst({ where: sql`lower(${users.email}) = ${email.toLowerCase()}` });
+}
+
+/**
+ * The job's half of a reset request: e-mails a link when the address has an account and fewer
+ * than three links went out in 15 minutes. Throws when the SMTP server refuses, so the job retries.
+ */
+export async function sendPasswordResetLink(deps: AppDeps, email: string): Promise<'sent' | 'no-account' | 'capped'> {
+  const user = await userByEmail(deps, email);
+  if (!user) return 'no-account';
+  if ((await recentTokens(deps, user.id, 'reset-password', 15)) >= MAX_RESET_LINKS_PER_15_MIN) return 'capped';
   const token = await issueToken(deps, user.id, 'reset-password', TOKEN_LIFETIME.resetPasswordMinutes * 60_000);
-  void sendPasswordReset(deps, { userId: user.id, token }).catch((err) =>
-    console.error(`password reset e-mail for ${user.id} not sent:`, err instanceof Error ? err.message : err),
-  );
+  await sendPasswordReset(deps, { userId: user.id, token });
+  return 'sent';
 }
 
 export type ResetTokenState = 'usable' | 'used' | 'expired' | 'invalid';

@@ -1,8 +1,8 @@
 import { and, desc, eq, gt, inArray, isNull, sql } from 'drizzle-orm';
-import { generateIdFromEntropySize, type Session } from 'lucia';
 import { invitations, memberships, studios, users } from '~/db/schema';
 import type { AcceptAsNewAccountInput, CreateInvitationInput } from '~/lib/api/mail-schemas';
 import type { AppDeps } from '../app';
+import { newUserId, type NewSession } from '../auth/lucia';
 import { hashPassword } from '../auth/passwords';
 import { AppError, notFound } from '../errors';
 import { sendInvitation } from '../mail/messages';
@@ -222,7 +222,7 @@ export async function signInAndAcceptInvitation(
   token: string,
   password: string,
   address: string,
-): Promise<{ session: Session; role: StaffRole }> {
+): Promise<{ session: NewSession; role: StaffRole }> {
   const found = await lookupInvitation(deps, token);
   if (found.state !== 'open' || !found.email) {
     throw new AppError(found.state === 'invalid' ? 'not_found' : 'conflict', invitationStateMessage(found.state === 'open' ? 'invalid' : found.state));
@@ -240,13 +240,13 @@ export async function acceptWithNewAccount(
   deps: AppDeps,
   token: string,
   input: AcceptAsNewAccountInput,
-): Promise<{ session: Session; role: StaffRole }> {
+): Promise<{ session: NewSession; role: StaffRole }> {
   const found = await lookupInvitation(deps, token);
   if (found.state !== 'open') throw new AppError(found.state === 'invalid' ? 'not_found' : 'conflict', invitationStateMessage(found.state));
   if (found.accountExists) {
     throw new AppError('conflict', 'An account with this e-mail already exists. Sign in to accept the invitation.');
   }
-  const userId = generateIdFromEntropySize(10);
+  const userId = newUserId();
   const passwordHash = await hashPassword(input.password);
   const role = await deps.db.transaction(async (tx) => {
     await tx.insert(users).values({ id: userId, email: found.email!, name: input.name, passwordHash, emailVerifiedAt: new Date() });
@@ -254,5 +254,5 @@ export async function acceptWithNewAccount(
     await tx.insert(memberships).values({ userId, studioId: inv.studioId, role: inv.role });
     return inv.role;
   });
-  return { session: await deps.auth.createSession(userId, {}), role };
+  return { session: await deps.auth.createSession(userId), role };
 }

@@ -1,16 +1,12 @@
 import type { APIRoute } from 'astro';
-import { signedInOutput, signUpInput } from '~/lib/api/auth-schemas';
+import { signUpInput, signUpOutput } from '~/lib/api/auth-schemas';
 import { app } from '~/server/app';
 import { answer, endpoint, readJson } from '~/server/http/api';
-import { setSessionCookie } from '~/server/http/session-cookie';
 import { requestAddress } from '~/server/http/client-address';
-import { signUp } from '~/server/services/accounts';
+import { SIGN_UP_ANSWER, signUp } from '~/server/services/accounts';
 
+/** Creates an account; answers the same (202, no session) when the address already has one. */
 export const POST: APIRoute = endpoint(async (ctx) => {
-  const { request, cookies } = ctx;
-  const input = await readJson(request, signUpInput);
-  const deps = app();
-  const { userId, session } = await signUp(deps, input, requestAddress(ctx));
-  setSessionCookie(cookies, deps.auth, session);
-  return answer(signedInOutput, { userId, home: '/library' }, 201);
+  await signUp(app(), await readJson(ctx.request, signUpInput), requestAddress(ctx));
+  return answer(signUpOutput, { message: SIGN_UP_ANSWER }, 202);
 });

@@ -22,6 +22,23 @@ export function verifyEmailMessage(m: Common & { url: string; validHours: number
   });
 }
 
+/** Sent instead of a new account when someone signs up with an address that already has one. */
+export function signUpAttemptMessage(m: Common & { signInUrl: string; resetUrl: string }): MailContent {
+  return renderMessage({
+    studioName: m.studioName,
+    subject: `Someone tried to create a ${m.studioName} account with your address`,
+    preview: 'You already have an account: sign in, or choose a new password.',
+    greeting: `Hi ${firstName(m.name)},`,
+    paragraphs: [
+      'Someone just tried to create an account with this e-mail address, but you already have one, so no new account was made.',
+      'If it was you, sign in with your password, or choose a new password if you no longer remember it.',
+    ],
+    action: { label: 'Sign in', url: m.signInUrl },
+    after: [`Forgot your password? Choose a new one here: ${m.resetUrl}`],
+    reason: `You are getting this because someone entered this address on the sign-up form at ${m.studioName}. If it was not you, ignore this message: nothing about your account changed.`,
+  });
+}
+
 /** Sent from the "Forgot your password?" form. */
 export function passwordResetMessage(m: Common & { url: string; validMinutes: number }): MailContent {
   return renderMessage({
