@@ -50,6 +50,7 @@ function RecordingUploadInner({ lessonId, initial, maxUploadBytes }: RecordingUp
   const needsUploader = !recordings.some((r) => r.state === 'ready' || r.state === 'processing' || r.state === 'uploading');
   // The server cannot see this browser's saved upload: false there, read in the browser.
   const savedUpload = useSyncExternalStore(noChanges, () => hasSavedUpload(lessonId), () => false);
+  const inBrowser = useSyncExternalStore(noChanges, () => true, () => false);
   if (!showUploader && (needsUploader || savedUpload)) setShowUploader(true);
 
   const onRetry = useCallback(
@@ -68,9 +69,15 @@ function RecordingUploadInner({ lessonId, initial, maxUploadBytes }: RecordingUp
           straight to storage in parts, so a dropped connection picks up where it stopped.
         </p>
         {showUploader ? (
-          <Suspense fallback={<p className="rm-uploader-loading text-ink-soft" role="status">Getting the uploader ready…</p>}>
-            <UploadDropZone lessonId={lessonId} maxUploadBytes={maxUploadBytes} onRecording={onRecording} onProblem={setProblem} onUploadingChange={setUploadingHere} />
-          </Suspense>
+          // Rendered in the browser only: a suspended component in server rendering would make React
+          // stream inline scripts, which the Content-Security-Policy (hashed scripts only) refuses.
+          inBrowser ? (
+            <Suspense fallback={uploaderLoading}>
+              <UploadDropZone lessonId={lessonId} maxUploadBytes={maxUploadBytes} onRecording={onRecording} onProblem={setProblem} onUploadingChange={setUploadingHere} />
+            </Suspense>
+          ) : (
+            uploaderLoading
+          )
         ) : (
           <button type="button" className="self-start rounded-[10px] border border-ink px-3 py-1 font-semibold" onClick={() => setShowUploader(true)}>
             Upload another recording
@@ -102,6 +109,12 @@ function RecordingUploadInner({ lessonId, initial, maxUploadBytes }: RecordingUp
 }
 
 const noChanges = () => () => {};
+
+const uploaderLoading = (
+  <p className="text-ink-soft" role="status">
+    Getting the uploader ready…
+  </p>
+);
 
 /** Whether this browser keeps an unfinished upload of this class (Uppy's saved state) to resume. */
 function hasSavedUpload(lessonId: string): boolean {
