@@ -12,6 +12,10 @@ export function createDb(url: string) {
   // An idle connection the server closed (a restart) is dropped by the pool and replaced on the
   // next query; without a listener node-postgres re-throws the event and the process ends.
   pool.on('error', (err) => console.error(`database connection lost: ${err.message}`));
+  // The pool listens only to idle connections: one checked out (a transaction between two
+  // statements) that the server drops would emit an unheard 'error' and end the process. With this
+  // listener the next statement fails instead (answered 503) and the pool drops the connection on release.
+  pool.on('connect', (client) => client.on('error', (err) => console.error(`database connection lost while in use: ${err.message}`)));
   const db = drizzle(pool, { schema, casing: 'snake_case' });
   return { pool, db };
 }
