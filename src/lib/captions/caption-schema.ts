@@ -13,6 +13,9 @@ export const MAX_CAPTION_TEXT = 300;
 /** A caption file (WebVTT or SRT) is read into memory whole; 1 MiB is far above a class's needs. */
 export const MAX_CAPTION_FILE_BYTES = 1024 * 1024;
 
+/** A captions file as sent for import: WebVTT or SubRip text. */
+export const captionFileText = z.string().describe('WebVTT or SubRip (.srt) text');
+
 export const captionCueSchema = z
   .object({
     startSeconds: timeSchema('The caption start'),

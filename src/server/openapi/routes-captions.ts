@@ -1,9 +1,7 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
-import { z } from 'zod';
-import { captionsImportQuery, captionsOutput, captionsPutSchema, captionsSavedOutput, playerPreferencesPut } from '~/lib/captions/caption-schema';
+import { lessonIdParams as params } from '~/lib/api/route-params';
+import { captionFileText, captionsImportQuery, captionsOutput, captionsPutSchema, captionsSavedOutput, playerPreferencesPut } from '~/lib/captions/caption-schema';
 import { errors, json } from './responses';
-
-const params = z.object({ id: z.string().uuid().describe('Class id') });
 
 /** Routes of captions: the class's draft captions (staff) and the member's captions choice. */
 export const captionRoutes: RouteConfig[] = [
@@ -24,7 +22,7 @@ export const captionRoutes: RouteConfig[] = [
     request: {
       params,
       query: captionsImportQuery,
-      body: { description: 'A WebVTT or SubRip file', content: { 'text/vtt': { schema: z.string() }, 'application/x-subrip': { schema: z.string() } } },
+      body: { description: 'A WebVTT or SubRip file', content: { 'text/vtt': { schema: captionFileText }, 'application/x-subrip': { schema: captionFileText } } },
     },
     responses: { 200: json(captionsSavedOutput, 'Imported'), ...errors(400, 401, 403, 404, 409, 413, 422) },
   },
