@@ -7,8 +7,11 @@ import { detectSpeechEvents } from './detect-speech';
 import { detectTonalEvents } from './detect-tonal';
 import { createFrameFeatureAccumulator, type FrameFeatures } from './frame-features';
 
-/** Sample rate the worker decodes to: above twice 4.2 kHz with room, and cheap to decode and scan. */
-export const ANALYSIS_SAMPLE_RATE = 11025;
+/**
+ * Sample rate the worker decodes to: its Nyquist frequency (4.8 kHz) clears the 4.2 kHz top of
+ * the tonal band with room for ffmpeg's resampling filter, and 192 samples make one 20 ms hop.
+ */
+export const ANALYSIS_SAMPLE_RATE = 9600;
 
 /** Events from per-frame features. */
 export function eventsFromFeatures(features: FrameFeatures): AudioEvent[] {

@@ -9,9 +9,15 @@ import { FRAMES_PER_SECOND, type FrameFeatures } from './frame-features';
 import { RunningPercentile } from './running-percentile';
 
 /** Share of the band's power the peak's three bins must hold for a steady tone (tuned on generated signals, no source). */
-const MIN_SHARE = 0.4;
+const MIN_SHARE = 0.55;
 /** Share the ±250 Hz around the peak must hold for a warbling whistle (tuned on generated signals, no source). */
 const MIN_NEAR_SHARE = 0.7;
+/**
+ * Share of the power near the peak (±250 Hz) that its three bins must hold for a steady tone: a
+ * timer's sine keeps about all of it there, a trilling whistle spreads it over several bins even
+ * when its pitch, sampled every 20 ms, looks steady (tuned on generated signals, no source).
+ */
+const MIN_CONCENTRATION = 0.7;
 /** Quietest tone considered, dB re full-scale sine. */
 const MIN_LEVEL_DB = -50;
 /** Shortest tone, seconds (timer beeps are about 0.1 s and longer). */
@@ -112,7 +118,8 @@ function describeRun(f: FrameFeatures, run: TonalRun, tonal: (i: number) => bool
   if (durationSeconds < MIN_SECONDS) return null;
 
   // A steady pitch that holds most of the band is a timer; a wobbling one in 1.8–4.2 kHz a whistle.
-  const isTone = (spreadHz <= 0.75 * f.binHz || hz.length < 4) && median(share) >= MIN_SHARE;
+  const isTone =
+    (spreadHz <= 0.75 * f.binHz || hz.length < 4) && median(share) >= MIN_SHARE && median(share) >= MIN_CONCENTRATION * median(near);
   const centreHz = mean(centre);
   let kind: AudioEvent['kind'];
   if (isTone) kind = 'tone';

@@ -47,10 +47,14 @@ export interface FrameFeatureAccumulator {
   finish(): FrameFeatures;
 }
 
-/** FFT length for a sample rate: about 46 ms, long enough to split 500 Hz tones from speech harmonics. */
+/**
+ * FFT length for a sample rate: the largest power of two within about 30 ms (256 points at the
+ * 9.6 kHz analysis rate: 26.7 ms, 37.5 Hz bins). Long enough to split a 500 Hz tone from speech
+ * harmonics, short enough to place a tone's start to a few ms, and half the work of 512 points.
+ */
 export function fftSizeFor(sampleRate: number): number {
-  let size = 256;
-  while (size * 2 <= sampleRate * 0.05) size *= 2;
+  let size = 128;
+  while (size * 2 <= sampleRate * 0.03) size *= 2;
   return size;
 }
 
@@ -73,13 +77,17 @@ export function createFrameFeatureAccumulator(sampleRate: number): FrameFeatureA
   }
   // A full-scale sine centred on a bin gives |X| = windowSum / 2: dividing by it makes amplitude 1.
   const ampScale = 2 / windowSum;
+  const powerScale = ampScale * ampScale;
   const binHz = sampleRate / size;
   const bin = (hz: number) => Math.round(hz / binHz);
   const [tonalLo, tonalHi] = [bin(TONAL_BAND[0]), Math.min(half - 2, bin(TONAL_BAND[1]))];
+  // Interpolated peaks are trusted to half a bin.
+  const [bandLoHz, bandHiHz] = [TONAL_BAND[0] - binHz / 2, TONAL_BAND[1] + binHz / 2];
   const [voiceLo, voiceHi] = [bin(VOICE_BAND[0]), Math.min(half - 1, bin(VOICE_BAND[1]))];
 
+  // Typed arrays allocated once: fft.js only indexes its arguments, so it accepts them.
   const frame = new Float64Array(size);
-  const spectrum = fft.createComplexArray() as number[];
+  const spectrum = new Float64Array(2 * size);
   const power = new Float64Array(half + 1);
 
   // Samples from `bufferStart` on (the oldest any pending frame still needs); `received` counts all samples so far.
@@ -118,51 +126,67 @@ export function createFrameFeatureAccumulator(sampleRate: number): FrameFeatureA
 
   /** Analyses frame `index`, whose last sample (exclusive end) has been received. */
   const analyse = (index: number) => {
-    const centre = Math.round(index * hop);
-    const start = centre - half;
-    for (let i = 0; i < size; i++) {
-      const s = start + i;
-      frame[i] = s < 0 || s >= received ? 0 : (buffer[s - bufferStart] as number) * (window[i] as number);
+    const start = Math.round(index * hop) - half;
+    const offset = start - bufferStart;
+    if (start >= 0 && start + size <= received) {
+      for (let i = 0; i < size; i++) frame[i] = buffer[offset + i]! * window[i]!;
+    } else {
+      for (let i = 0; i < size; i++) {
+        const s = start + i;
+        frame[i] = s < 0 || s >= received ? 0 : buffer[s - bufferStart]! * window[i]!;
+      }
     }
     fft.realTransform(spectrum, frame);
+    // One pass over the bins: whole spectrum, voice band, tonal band and its strongest bin.
     let total = 0;
-    for (let k = 0; k <= half; k++) {
-      const re = (spectrum[2 * k] as number) * ampScale;
-      const im = (spectrum[2 * k + 1] as number) * ampScale;
-      const p = re * re + im * im;
-      power[k] = p;
-      total += p;
-    }
     let voice = 0;
-    for (let k = voiceLo; k <= voiceHi; k++) voice += power[k] as number;
     let band = 0;
     let best = tonalLo;
-    for (let k = tonalLo; k <= tonalHi; k++) {
-      const p = power[k] as number;
-      band += p;
-      if (p > (power[best] as number)) best = k;
+    let bestPower = -1;
+    for (let k = 0; k <= half; k++) {
+      const re = spectrum[2 * k]!;
+      const im = spectrum[2 * k + 1]!;
+      const p = (re * re + im * im) * powerScale;
+      power[k] = p;
+      total += p;
+      if (k >= voiceLo && k <= voiceHi) voice += p;
+      // The band's power includes the bins either side, as the peak's three bins may.
+      if (k >= tonalLo - 1 && k <= tonalHi + 1) band += p;
+      if (k >= tonalLo && k <= tonalHi) {
+        if (p > bestPower) {
+          bestPower = p;
+          best = k;
+        }
+      }
     }
-    const a = Math.sqrt(power[best - 1] as number);
-    const b = Math.sqrt(power[best] as number);
-    const c = Math.sqrt(power[best + 1] as number);
+    const pa = power[best - 1]!;
+    const pc = power[best + 1]!;
+    const a = Math.sqrt(pa);
+    const b = Math.sqrt(bestPower);
+    const c = Math.sqrt(pc);
     // Parabolic interpolation of the magnitude peak: within a tenth of a bin for a Hann window.
     const denom = a - 2 * b + c;
-    const offset = denom < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (a - c)) / denom)) : 0;
-    const peak3 = (power[best - 1] as number) + (power[best] as number) + (power[best + 1] as number);
+    const shift = denom < 0 ? Math.max(-0.5, Math.min(0.5, (0.5 * (a - c)) / denom)) : 0;
+    const peak3 = pa + bestPower + pc;
+    const hz = (best + shift) * binHz;
     if (index >= capacity) grow();
     totalDb[index] = toDb(total);
     voiceDb[index] = toDb(voice);
-    peakHz[index] = (best + offset) * binHz;
+    peakHz[index] = hz;
     // Three-bin power sum recovers a Hann-windowed sine's power wherever it falls between bins.
     peakAmp[index] = Math.sqrt(peak3 / 1.5);
-    peakShare[index] = band > 0 ? peak3 / band : 0;
+    // A peak that lies outside the band (a vowel's harmonic just under 500 Hz whose skirt reaches
+    // the band's first bin) is not a tone in the band.
+    const skirt = pa > bestPower || pc > bestPower || hz < bandLoHz || hz > bandHiHz;
+    peakShare[index] = band > 0 && !skirt ? peak3 / band : 0;
     let near = 0;
     let moment = 0;
-    for (let k = Math.max(tonalLo, best - nearBins); k <= Math.min(tonalHi, best + nearBins); k++) {
-      near += power[k] as number;
-      moment += (power[k] as number) * k;
+    const nearTo = Math.min(tonalHi, best + nearBins);
+    for (let k = Math.max(tonalLo, best - nearBins); k <= nearTo; k++) {
+      near += power[k]!;
+      moment += power[k]! * k;
     }
-    nearShare[index] = band > 0 ? near / band : 0;
+    nearShare[index] = band > 0 && !skirt ? near / band : 0;
     nearHz[index] = near > 0 ? (moment / near) * binHz : 0;
   };
 
