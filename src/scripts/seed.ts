@@ -50,7 +50,7 @@ let added = 0;
 for (const l of demo.lessons) {
   const exists = await db.query.lessons.findFirst({ where: and(eq(lessons.studioId, studio.id), eq(lessons.slug, l.slug)) });
   if (exists) continue;
-  const { coach, ...fields } = l;
+  const { coach, changeSignal: _soundtrackOnly, ...fields } = l;
   const plan = planSchema.parse(l.plan);
   const schedule = expandPlan(plan);
   const timeline = l.state === 'draft' ? withDeliberateMistakes(demoTimeline(schedule)) : demoTimeline(schedule);

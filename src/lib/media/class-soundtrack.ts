@@ -24,6 +24,13 @@ export interface SoundtrackOptions {
   tailSeconds?: number;
   /** Pitch of the timer beeps, Hz. Default 1000. */
   beepHz?: number;
+  /** Indexes of boundaries where the coach gives no signal (forgot the timer, say). Default none. */
+  silentBoundaries?: readonly number[];
+  /**
+   * The coach talks in every part of 6 s or more and names the exercise (demo recordings);
+   * otherwise only in parts of 12 s or more, with shorter lines (the accuracy fixtures).
+   */
+  talkative?: boolean;
 }
 
 export interface SpokenLine {
@@ -64,7 +71,13 @@ const COUNT_WORDS = ['three', 'two', 'one'];
 const FORM_LINES = ['keep your back straight', 'breathe out as you push', 'nice and steady', 'chest up, knees soft', 'you are doing great'];
 const CHATTER_LINES = ['where did you get those shoes', 'is it the long one today', 'I need some water', 'how many rounds is it', 'my legs are done'];
 
-function changeWord(next: PlannedSegment | undefined): string {
+/** A part of the class as the soundtrack needs it: what it is, and which exercise. */
+export interface SoundtrackPart {
+  kind: string;
+  exercise?: string | undefined;
+}
+
+function changeWord(next: SoundtrackPart | undefined): string {
   if (!next) return 'and done';
   switch (next.kind) {
     case 'work':
@@ -86,7 +99,6 @@ export function scoreSoundtrack(segments: readonly PlannedSegment[], options: So
   const drift = options.driftSeconds ?? 1.5;
   const longBreak = options.longBreak === undefined ? { index: 0, extraSeconds: 8 } : options.longBreak;
   const leadIn = options.leadInSeconds ?? 20;
-  const tail = options.tailSeconds ?? 6;
   const boundaries: number[] = [leadIn];
   let breakIndex = 0;
   for (const seg of segments) {
@@ -98,16 +110,35 @@ export function scoreSoundtrack(segments: readonly PlannedSegment[], options: So
     boundaries.push(boundaries[boundaries.length - 1]! + Math.max(3, seconds));
   }
   const end = boundaries[boundaries.length - 1]!;
+  return scoreAtBoundaries(segments, boundaries, { ...options, durationSeconds: end + (options.tailSeconds ?? 6) }, random);
+}
+
+/**
+ * Decides every sound of a class whose parts start at known times: `boundaries` holds the start
+ * of each part and then the end of the last (so one more than `parts`); the change signal sounds
+ * at each. Demo recordings use it with the marked timeline's times; {@link scoreSoundtrack} with
+ * a drifted plan.
+ */
+export function scoreAtBoundaries(
+  parts: readonly SoundtrackPart[],
+  boundaries: readonly number[],
+  options: Pick<SoundtrackOptions, 'signal' | 'seed' | 'beepHz' | 'silentBoundaries' | 'talkative'> & { durationSeconds: number },
+  random = seededRandom(options.seed),
+): SoundtrackScore {
+  if (boundaries.length !== parts.length + 1) throw new RangeError('boundaries must be one more than parts');
+  const end = boundaries[boundaries.length - 1]!;
   const lines: SpokenLine[] = [];
   const beeps: SoundtrackScore['beeps'] = [];
   const whistles: SoundtrackScore['whistles'] = [];
   const countdownStarts: number[] = [];
 
   // The coach welcomes the class before the warm-up.
-  if (leadIn >= 6) lines.push({ atSeconds: 1.5, text: 'welcome everyone, today we have a circuit, grab some water', voice: 'coach', gainDb: -4 });
+  if (boundaries[0]! >= 6) lines.push({ atSeconds: 1.5, text: 'welcome everyone, today we have a circuit, grab some water', voice: 'coach', gainDb: -4 });
   boundaries.forEach((b, j) => {
-    const next = segments[j];
-    if (options.signal === 'beeps') {
+    const next = parts[j];
+    if (options.silentBoundaries?.includes(j)) {
+      // No signal here.
+    } else if (options.signal === 'beeps') {
       for (let k = 3; k >= 1; k--) beeps.push({ atSeconds: b - k, seconds: 0.15 });
       beeps.push({ atSeconds: b, seconds: 0.6 });
       countdownStarts.push(b - 3);
@@ -127,19 +158,21 @@ export function scoreSoundtrack(segments: readonly PlannedSegment[], options: So
     }
     // Talking through the part, away from the changes.
     const partEnd = boundaries[j + 1];
-    if (next && partEnd !== undefined && partEnd - b >= 12) {
-      const text = next.kind === 'work' ? FORM_LINES[Math.floor(random() * FORM_LINES.length)]! : next.kind === 'rest' || next.kind === 'round-break' ? `next up, ${nextExercise(segments, j)}` : 'roll your shoulders, shake it out';
+    if (next && partEnd !== undefined && partEnd - b >= (options.talkative ? 6 : 12)) {
+      const text = options.talkative ? talkThrough(parts, j, random) : next.kind === 'work' ? FORM_LINES[Math.floor(random() * FORM_LINES.length)]! : next.kind === 'rest' || next.kind === 'round-break' ? `next up, ${nextExercise(parts, j)}` : 'roll your shoulders, shake it out';
       lines.push({ atSeconds: b + 2.5 + random() * 2, text, voice: 'coach', gainDb: -6 });
     }
   });
+  // The coach closes the class when the recording runs on after the last part.
+  if (options.durationSeconds - end >= 8) lines.push({ atSeconds: end + 2.5, text: 'well done everyone, drink some water and see you next time', voice: 'coach', gainDb: -4 });
   // Chatter in the room now and then, quieter than the coach, anywhere.
   for (let t = 4 + random() * 10; t < end; t += 12 + random() * 18) {
     lines.push({ atSeconds: t, text: CHATTER_LINES[Math.floor(random() * CHATTER_LINES.length)]!, voice: 'chatter', gainDb: -20 });
   }
   lines.sort((a, b) => a.atSeconds - b.atSeconds);
   return {
-    durationSeconds: end + tail,
-    boundaries,
+    durationSeconds: options.durationSeconds,
+    boundaries: [...boundaries],
     countdownStarts,
     lines,
     beeps,
@@ -149,7 +182,22 @@ export function scoreSoundtrack(segments: readonly PlannedSegment[], options: So
   };
 }
 
-function nextExercise(segments: readonly PlannedSegment[], j: number): string {
+/** What a talkative coach says early in part `j`: the exercise and a tip, or what comes next. */
+function talkThrough(parts: readonly SoundtrackPart[], j: number, random: () => number): string {
+  const part = parts[j]!;
+  switch (part.kind) {
+    case 'work':
+      return `${part.exercise ?? 'work'}, ${FORM_LINES[Math.floor(random() * FORM_LINES.length)]!}`;
+    case 'warmup':
+      return `easy warm up, first up is ${nextExercise(parts, j)}`;
+    case 'cooldown':
+      return 'cool down, breathe slowly and stretch';
+    default:
+      return `next up, ${nextExercise(parts, j)}`;
+  }
+}
+
+function nextExercise(segments: readonly SoundtrackPart[], j: number): string {
   for (let k = j + 1; k < segments.length; k++) if (segments[k]!.kind === 'work') return segments[k]!.exercise ?? 'the next one';
   return 'the cool-down';
 }

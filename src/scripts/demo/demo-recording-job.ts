@@ -11,13 +11,15 @@ import type PgBoss from 'pg-boss';
 import { and, eq, notInArray } from 'drizzle-orm';
 import { lessons, recordings } from '~/db/schema';
 import { runFfmpegCommand } from '~/server/media/ffmpeg-runner';
+import { SOUNDTRACK_SAMPLE_RATE, writeSoundtrackPcm } from '~/server/media/render-soundtrack';
 import { getTimeline } from '~/server/services/timelines';
 import { recordingPrefix } from '~/server/services/recordings';
 import { insertRecording } from '~/server/services/recording-lifecycle';
 import type { JobContext, JobOutcome } from '~/server/jobs/job-context';
 import { cleanScratch } from '~/server/jobs/recording-files';
 import { buildDemoVideoArgs } from './demo-video-args';
-import { demoSpans } from './demo-spans';
+import { demoSoundtrackScore, demoSpans } from './demo-spans';
+import { lessons as demoLessons } from './fernhill';
 
 /** The demo queue's name; deliberately outside the production job names in src/server/queue.ts. */
 export const DEMO_RECORDING_JOB = 'demo.recording';
@@ -42,10 +44,14 @@ export async function registerDemoRecordingJob(
   await work(DEMO_RECORDING_JOB, (data) => demoRecording(data as { lessonId: string }, ctx));
 }
 
+/** Frame rate of demo recordings: the soundtrack's change signals sit on this frame grid. */
+const DEMO_FPS = 30;
+
 /**
- * Generates a demo class's recording with ffmpeg (coloured spans naming each part, a tone at
- * each boundary, following the class's marked timeline), stores it, and only then adds the
- * recording (source `demo`), which goes through the same probe and packaging as an upload.
+ * Generates a demo class's recording (coloured spans naming each part, following the class's
+ * marked timeline, with a soundtrack: music bed, the coach talking through the parts, and the
+ * class's change signal at every planned change), stores it, and only then adds the recording
+ * (source `demo`), which goes through the same probe and packaging as an upload.
  * Skipped when the class already has a recording that did not fail.
  */
 export async function demoRecording({ lessonId }: { lessonId: string }, ctx: JobContext): Promise<JobOutcome> {
@@ -66,7 +72,11 @@ export async function demoRecording({ lessonId }: { lessonId: string }, ctx: Job
   await mkdir(dir, { recursive: true });
   try {
     const output = join(dir, 'demo.mp4');
-    const command = buildDemoVideoArgs({ spans: demoSpans(timeline.segments, mediaSeconds), output, workDir: dir, width: 640, height: 360 });
+    const spans = demoSpans(timeline.segments, mediaSeconds);
+    const signal = demoLessons.find((l) => l.slug === lesson.slug)?.changeSignal ?? 'beeps';
+    const audio = { path: join(dir, 'soundtrack.f32'), sampleRate: SOUNDTRACK_SAMPLE_RATE };
+    await writeSoundtrackPcm(demoSoundtrackScore(spans, DEMO_FPS, signal), audio.path, dir);
+    const command = buildDemoVideoArgs({ spans, output, workDir: dir, width: 640, height: 360, fps: DEMO_FPS, audio });
     await runFfmpegCommand(command, { signal: ctx.signal });
     const size = (await stat(output)).size;
     await ctx.s3.send(

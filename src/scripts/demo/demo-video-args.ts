@@ -15,6 +15,8 @@ export interface DemoSpan {
   seconds: number;
   /** Background colour `#RRGGBB`. */
   color: string;
+  /** The marked part it shows (absent for the lead-in before the first mark), for the soundtrack. */
+  part?: { kind: string; exercise?: string | undefined };
 }
 
 /** Input of {@link buildDemoVideoArgs}. */
@@ -31,6 +33,11 @@ export interface DemoVideoInput {
   /** Tone length in seconds at each span start. Default 0.15. */
   toneSeconds?: number;
   toneHz?: number;
+  /**
+   * A soundtrack to use instead of the tones: raw mono 32-bit float PCM at `sampleRate`, at least
+   * as long as the spans (see server/media/render-soundtrack.ts).
+   */
+  audio?: { path: string; sampleRate: number };
 }
 
 /** A span placed on the frame grid, as it will appear in the file. */
@@ -153,26 +160,33 @@ export function buildDemoVideoArgs(input: DemoVideoInput): DemoVideoCommand {
     const color = ffmpegColor(source.color);
     const text = drawtextFilter(source.label, { width, height, color: textColorFor(source.color), fontFile });
     chains.push(`color=c=${color}:s=${width}x${height}:r=${fps}:d=${d},format=yuv420p,${text}[v${i}]`);
+    if (input.audio) {
+      pads.push(`[v${i}]`);
+      return;
+    }
     // Time-gated tone (exact to the sample, unlike volume with eval=frame) over noise at -40 dBFS.
     chains.push(
       `aevalsrc=exprs=0.5*sin(2*PI*${toneHz}*t)*lt(t\\,${toneSeconds})+0.01*(2*random(0)-1):s=${AUDIO_RATE}:c=mono:d=${d}[a${i}]`,
     );
     pads.push(`[v${i}][a${i}]`);
   });
-  chains.push(`${pads.join('')}concat=n=${placed.length}:v=1:a=1[v][a]`);
+  chains.push(`${pads.join('')}concat=n=${placed.length}:v=1:a=${input.audio ? 0 : 1}[v]${input.audio ? '' : '[a]'}`);
+  const last = placed[placed.length - 1] as PlacedSpan;
   const scriptPath = `${trimSlash(input.workDir)}/demo-filter.txt`;
   const script = `${chains.join(';\n')}\n`;
 
   const args = [
     '-hide_banner', '-nostdin', '-y', '-loglevel', 'error', '-nostats', '-progress', 'pipe:1',
+    ...(input.audio ? ['-f', 'f32le', '-ar', String(input.audio.sampleRate), '-ac', '1', '-i', input.audio.path] : []),
     '-filter_complex_script', scriptPath,
-    '-map', '[v]', '-map', '[a]',
+    '-map', '[v]', '-map', input.audio ? '0:a' : '[a]',
+    // The soundtrack may run a few samples past the last frame: stop with the picture.
+    ...(input.audio ? ['-t', last.endSeconds.toFixed(6)] : []),
     '-c:v', 'libx264', '-preset', 'ultrafast', '-tune', 'stillimage', '-pix_fmt', 'yuv420p', '-r', String(fps),
     '-c:a', 'aac', '-b:a', '96k', '-ar', String(AUDIO_RATE),
     '-movflags', '+faststart',
     input.output,
   ];
-  const last = placed[placed.length - 1] as PlacedSpan;
   return { args, files: [{ path: scriptPath, content: script }], spans: placed, durationSeconds: last.endSeconds };
 }
 

@@ -2,6 +2,7 @@
  * The invented demo scenario (../shared/design.md): Fernhill Movement Co. and its people.
  * Demo data only: nothing here is a check value for tests.
  */
+import type { ChangeSignal } from '~/lib/media/class-soundtrack';
 import { evenStations } from '~/lib/plan/even-stations';
 
 export const DEMO_PASSWORD = 'fernhill-demo-2026';
@@ -48,6 +49,8 @@ export interface DemoLesson {
   difficulty: 'beginner' | 'intermediate' | 'advanced';
   cautions: string;
   state: 'draft' | 'published';
+  /** How the coach marks the changes in the demo recording's soundtrack. */
+  changeSignal: ChangeSignal;
   plan: { blocks: Block[]; options?: Record<string, boolean> };
 }
 
@@ -64,6 +67,7 @@ export const lessons: DemoLesson[] = [
     difficulty: 'intermediate',
     cautions: 'Choose a weight you can lift for 40 seconds with good form.',
     state: 'published',
+    changeSignal: 'beeps',
     plan: {
       blocks: [
         { kind: 'warmup', seconds: 240 },
@@ -90,6 +94,7 @@ export const lessons: DemoLesson[] = [
     difficulty: 'advanced',
     cautions: 'High impact throughout: take the low-impact option whenever you need it.',
     state: 'published',
+    changeSignal: 'beeps',
     plan: {
       blocks: [
         { kind: 'intervals', exercise: 'Fast feet', sets: 8, workSeconds: 20, restSeconds: 10 },
@@ -111,6 +116,7 @@ export const lessons: DemoLesson[] = [
     difficulty: 'beginner',
     cautions: '',
     state: 'published',
+    changeSignal: 'count',
     plan: {
       blocks: [
         {
@@ -135,6 +141,7 @@ export const lessons: DemoLesson[] = [
     difficulty: 'intermediate',
     cautions: 'Warm up fully before the jumps.',
     state: 'draft',
+    changeSignal: 'whistle',
     plan: {
       blocks: [
         { kind: 'warmup', seconds: 240 },

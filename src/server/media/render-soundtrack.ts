@@ -39,18 +39,33 @@ export async function speakLines(score: SoundtrackScore, dir: string, clips = ne
   return clips;
 }
 
+/** Options of {@link renderSoundtrack} and {@link writeSoundtrackPcm}. */
+export interface SoundtrackRenderOptions {
+  seed?: number;
+  clips?: Map<string, Float32Array>;
+}
+
+/**
+ * Speaks and mixes the soundtrack into raw mono float PCM at {@link SOUNDTRACK_SAMPLE_RATE}
+ * (`path`), for a caller that encodes it with its own picture (the demo recordings). `dir`
+ * holds the spoken clips meanwhile; the caller owns it.
+ */
+export async function writeSoundtrackPcm(score: SoundtrackScore, path: string, dir: string, options: SoundtrackRenderOptions = {}): Promise<void> {
+  const clips = await speakLines(score, dir, options.clips);
+  const pcm = mixSoundtrack(score, clips, SOUNDTRACK_SAMPLE_RATE, options.seed ?? 1);
+  await writeFile(path, new Uint8Array(pcm.buffer, pcm.byteOffset, pcm.byteLength));
+}
+
 /** Writes the soundtrack to `output` (AAC; in MP4 with a small grey video when `video` is given). */
 export async function renderSoundtrack(
   score: SoundtrackScore,
   output: string,
-  options: { video?: { width: number; height: number; fps: number }; seed?: number; clips?: Map<string, Float32Array> } = {},
+  options: SoundtrackRenderOptions & { video?: { width: number; height: number; fps: number } } = {},
 ): Promise<void> {
   const dir = await mkdtemp(join(tmpdir(), 'roundmark-soundtrack-'));
   try {
-    const clips = await speakLines(score, dir, options.clips);
-    const pcm = mixSoundtrack(score, clips, SOUNDTRACK_SAMPLE_RATE, options.seed ?? 1);
     const raw = join(dir, 'mix.f32');
-    await writeFile(raw, new Uint8Array(pcm.buffer, pcm.byteOffset, pcm.byteLength));
+    await writeSoundtrackPcm(score, raw, dir, options);
     await runFfmpeg(buildEncodeSoundtrackArgs({ input: raw, sampleRate: SOUNDTRACK_SAMPLE_RATE, output, ...(options.video ? { video: options.video } : {}) }));
   } finally {
     await rm(dir, { recursive: true, force: true });
