@@ -1,8 +1,10 @@
 // The coach's "Mark it for me" story through the real app, worker and Chromium: a generated
 // recording (invented for the test: a short intervals class with timer beeps, music and
 // chatter, see lib/media/class-soundtrack.ts) is uploaded with the class page's widget, the
-// coach presses "Mark it for me", reviews the uncertain boundaries with U, accepts, saves, and
-// the check is clean. The API is read only to wait for the worker and to check what was stored.
+// coach presses "Mark it for me", reviews the uncertain boundaries with U, accepts, saves, the
+// check is clean, and the coach publishes. The coach forgot the timer at one change, so that
+// boundary has no sound and must come out uncertain. The API is read only to wait for the
+// worker and to check what was stored.
 // Screenshots go to test-results/screenshots/mark-it-*.png.
 import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
@@ -26,6 +28,9 @@ const planInput = {
   ],
 };
 
+/** The boundary without a signal: the start of the third work interval. */
+const SILENT = 5;
+
 let browser: Browser;
 let api: ApiClient;
 let dir = '';
@@ -35,7 +40,16 @@ let score: SoundtrackScore;
 beforeAll(async () => {
   dir = await mkdtemp(path.join(tmpdir(), 'roundmark-mark-it-'));
   clip = path.join(dir, 'Jump squat intervals.mp4');
-  score = scoreSoundtrack(expandPlan(planSchema.parse(planInput)).segments, { signal: 'beeps', seed: 11, leadInSeconds: 8, longBreak: null });
+  // Drift of at most 0.3 s a part: the silent boundary, placed by the plan after the one before,
+  // then lands within the 0.5 s the story checks.
+  score = scoreSoundtrack(expandPlan(planSchema.parse(planInput)).segments, {
+    signal: 'beeps',
+    seed: 11,
+    leadInSeconds: 8,
+    longBreak: null,
+    driftSeconds: 0.3,
+    silentBoundaries: [SILENT],
+  });
   await renderSoundtrack(score, clip, { video: { width: 320, height: 180, fps: 10 } });
   browser = await launchBrowser();
   api = new ApiClient();
@@ -48,7 +62,7 @@ afterAll(async () => {
 });
 
 describe('Mark it for me', () => {
-  it('upload, mark it for me, review the uncertain boundaries, accept, save: the check is clean', async () => {
+  it('upload, mark it for me, review the uncertain boundaries, accept, save: the check is clean; publish', async () => {
     // The class and its plan exist already (made through the API: the plan builder has its own story).
     const created = await api.post('/api/lessons', { title: 'Mark it story: jump squats', advertisedMinutes: 4 });
     const lessonId = ((await created.json()) as { id: string }).id;
@@ -80,22 +94,42 @@ describe('Mark it for me', () => {
     await page.getByRole('button', { name: 'Mark it for me' }).click();
     const layer = page.locator('[data-proposal]');
     await layer.waitFor({ timeout: 30_000 });
-    const markers = layer.getByRole('listitem');
-    expect(await markers.count()).toBe(score.boundaries.length);
+    // The proposed boundaries are drawn inside the waveform; the silent one is highlighted there.
+    const waveform = page.locator('[data-waveform]');
+    const markers = waveform.locator('[data-proposed-boundary]');
+    await expect.poll(() => markers.count()).toBe(score.boundaries.length);
+    const flagged = waveform.locator('[data-proposed-boundary][data-uncertain]');
+    const flaggedIndexes = await flagged.evaluateAll((els) => els.map((el) => Number((el as HTMLElement).dataset.proposedBoundary)));
+    expect(flaggedIndexes).toContain(SILENT);
     await page.screenshot({ path: `${SHOTS}/mark-it-proposal.png`, fullPage: true });
 
-    // Review: U plays around the next uncertain boundary (or, with none, the button says so by being disabled).
-    const uncertain = await layer.locator('[data-uncertain]').count();
-    if (uncertain > 0) {
-      await page.locator('[data-editor]').click({ position: { x: 5, y: 5 } });
-      await page.keyboard.press('u');
-      await layer.locator('[data-reviewing]').waitFor();
-    } else {
-      expect(await layer.getByRole('button', { name: 'Next uncertain (U)' }).isDisabled()).toBe(true);
-    }
+    // Review: U jumps to the next uncertain boundary and plays 3 s around it, then pauses.
+    await page.locator('[data-editor]').click({ position: { x: 5, y: 5 } });
+    await page.keyboard.press('u');
+    const reviewing = layer.locator('[data-reviewing]');
+    await reviewing.waitFor();
+    const video = page.locator('video');
+    await expect.poll(() => video.evaluate((v: HTMLVideoElement) => !v.paused), { timeout: 10_000 }).toBe(true);
+    await expect.poll(() => video.evaluate((v: HTMLVideoElement) => v.paused), { timeout: 15_000 }).toBe(true);
+    const first = await video.evaluate((v: HTMLVideoElement) => v.currentTime);
+    const firstFlagged = score.boundaries[flaggedIndexes[0]!]!;
+    // It played from 1.5 s before the boundary for about 3 s (timer-driven pause: generous bounds).
+    expect(first).toBeGreaterThan(firstFlagged - 1.5);
+    expect(first).toBeLessThan(firstFlagged + 4);
+    await expect.poll(() => waveform.locator('[data-proposed-boundary][data-reviewing-now]').count()).toBe(1);
+    await page.screenshot({ path: `${SHOTS}/mark-it-review.png`, fullPage: true });
 
     await layer.getByRole('button', { name: 'Accept proposal' }).click();
     await layer.waitFor({ state: 'detached' });
+    expect(await markers.count()).toBe(0);
+    // Undo brings back the marks from before (none here); redo adopts the proposal again.
+    const segments = page.locator('[data-segment-id]');
+    expect(await segments.count()).toBe(score.boundaries.length - 1);
+    await page.locator('[data-editor]').click({ position: { x: 5, y: 5 } });
+    await page.keyboard.press('Control+z');
+    await expect.poll(() => segments.count()).toBe(0);
+    await page.keyboard.press('Control+Shift+z');
+    await expect.poll(() => segments.count()).toBe(score.boundaries.length - 1);
     await expect.poll(() => page.locator('[data-check-summary]').textContent()).toMatch(/^0 errors/);
     await page.getByRole('button', { name: 'Save timeline' }).click();
     await page.locator('[data-save-state="saved"][data-dirty="false"]').waitFor();
@@ -109,9 +143,18 @@ describe('Mark it for me', () => {
     const check = (await (await api.post(`/api/lessons/${lessonId}/check`)).json()) as { findings: { severity: string }[] };
     expect(check.findings.filter((f) => f.severity === 'error')).toEqual([]);
 
-    // Undo restores the marks from before the proposal (none here).
-    await page.keyboard.press('Control+z');
-    await expect.poll(() => page.locator('[data-save-state]').getAttribute('data-dirty')).toBe('true');
+    // Publish from the class page's panel (the short generated class is advertised at 4 minutes:
+    // any length warning is acknowledged, as a coach would). The page is opened afresh, as after a save.
+    await page.reload();
+    await page.getByTestId('publish-panel').waitFor();
+    const panel = page.getByTestId('publish-panel');
+    const acknowledge = panel.getByLabel('I reviewed these warnings; publish anyway.');
+    if (await acknowledge.count()) await acknowledge.check();
+    await panel.getByRole('button', { name: 'Publish now' }).click();
+    await page.getByTestId('publish-panel').getByText(/Live in the library as version 1/).waitFor();
+    expect(((await (await api.get(`/api/lessons/${lessonId}`)).json()) as { state: string }).state).toBe('published');
+    await page.screenshot({ path: `${SHOTS}/mark-it-published.png`, fullPage: true });
+
     expect(pageErrors).toEqual([]);
     await context.close();
   }, 900_000);

@@ -1,8 +1,13 @@
 import type { EditorView } from './controller/use-editor-controller';
+import type { ProposalState } from './controller/use-proposal';
 import { formatEditorTime } from '~/lib/time/format-time';
 import { toolButton } from './tool-button';
+import { EVIDENCE_WORDS, describeBoundary, type ProposalMarkers } from './media/proposal-markers';
 
-const EVIDENCE_WORDS = { tone: 'timer beep', whistle: 'whistle', voice: 'spoken count', energy: 'music change', plan: 'no sound; placed by the plan' } as const;
+/** What the waveform draws of the open proposal (null when none is open). */
+export function proposalMarkers(s: ProposalState): ProposalMarkers | null {
+  return s.status === 'open' ? { boundaries: s.proposal.boundaries, reviewBelow: s.proposal.reviewBelow, reviewing: s.reviewing } : null;
+}
 
 /** The toolbar button: also offered on an empty timeline right after upload. */
 export function MarkItForMeButton({ c }: { c: EditorView }) {
@@ -22,8 +27,9 @@ export function MarkItForMeButton({ c }: { c: EditorView }) {
 }
 
 /**
- * The proposal as a layer over the recording's length: every proposed boundary, the uncertain
- * ones highlighted; U (or the button) plays 3 s around the next uncertain one; Accept adopts it.
+ * The panel of an open proposal. Its boundaries are drawn inside the waveform (uncertain ones
+ * highlighted); here are the summary, the uncertain ones as buttons (for the keyboard), and
+ * U / Next uncertain, Accept and Discard.
  */
 export function ProposalLayer({ c }: { c: EditorView }) {
   const s = c.proposal.state;
@@ -37,44 +43,43 @@ export function ProposalLayer({ c }: { c: EditorView }) {
   }
   if (s.status !== 'open') return null;
   const { proposal, reviewing } = s;
-  const uncertain = proposal.boundaries.filter((b) => b.confidence < proposal.reviewBelow).length;
-  const total = c.mediaSeconds || 1;
+  const uncertain = proposal.boundaries.flatMap((b, i) => (b.confidence < proposal.reviewBelow ? [{ b, i }] : []));
   const current = reviewing !== null ? proposal.boundaries[reviewing] : undefined;
   return (
     <section aria-label="Proposed timeline" className="flex flex-col gap-3 rounded-[10px] border border-ink/30 bg-chalk p-3" data-proposal>
       <p className="text-sm font-semibold">
-        Proposed: {proposal.segments.length} segments, {proposal.boundaries.length} boundaries.{' '}
+        Proposed: {proposal.segments.length} segments, {proposal.boundaries.length} boundaries, drawn as dashed lines in the waveform.{' '}
         {proposal.method === 'plan-only'
           ? 'No beeps, whistles or counts were heard: every boundary is placed by the plan. Check them all.'
-          : uncertain === 0
+          : uncertain.length === 0
             ? 'Every boundary matched a sound.'
-            : `${uncertain} uncertain ${uncertain === 1 ? 'boundary is' : 'boundaries are'} highlighted: check ${uncertain === 1 ? 'it' : 'them'} before accepting.`}
+            : `${uncertain.length} uncertain ${uncertain.length === 1 ? 'boundary is' : 'boundaries are'} highlighted with “?”: check ${uncertain.length === 1 ? 'it' : 'them'} before accepting.`}
       </p>
-      <div className="relative h-8 rounded bg-paper" role="list" aria-label="Proposed boundaries along the recording">
-        {proposal.boundaries.map((b, i) => {
-          const low = b.confidence < proposal.reviewBelow;
-          return (
-            <button
-              key={i}
-              type="button"
-              role="listitem"
-              onClick={() => c.proposal.review(i)}
-              className={`absolute top-0 h-full -translate-x-1/2 ${low ? 'w-1.5 bg-warning' : 'w-0.5 bg-ink/60'} ${reviewing === i ? 'outline outline-2 outline-ink' : ''}`}
-              style={{ left: `${Math.min(100, (100 * b.atSeconds) / total)}%` }}
-              title={`${formatEditorTime(b.atSeconds)} · ${EVIDENCE_WORDS[b.evidence]} · confidence ${Math.round(b.confidence * 100)} %`}
-              aria-label={`Boundary at ${formatEditorTime(b.atSeconds)}, ${EVIDENCE_WORDS[b.evidence]}, confidence ${Math.round(b.confidence * 100)} percent${low ? ', uncertain' : ''}`}
-              data-uncertain={low ? 'true' : undefined}
-            />
-          );
-        })}
-      </div>
+      {uncertain.length > 0 && (
+        <ul className="flex flex-wrap gap-1" aria-label="Uncertain boundaries">
+          {uncertain.map(({ b, i }) => (
+            <li key={i}>
+              <button
+                type="button"
+                onClick={() => c.proposal.review(i)}
+                className={`rounded border-2 border-warning px-2 text-sm tabular-nums ${reviewing === i ? 'bg-warning text-chalk' : 'bg-chalk'}`}
+                aria-label={describeBoundary(b, proposal.reviewBelow)}
+                aria-pressed={reviewing === i}
+                data-uncertain-item
+              >
+                {formatEditorTime(b.atSeconds)}
+              </button>
+            </li>
+          ))}
+        </ul>
+      )}
       {current && (
         <p className="text-sm" aria-live="polite" data-reviewing>
           Playing around {formatEditorTime(current.atSeconds)}: {EVIDENCE_WORDS[current.evidence]}, confidence {Math.round(current.confidence * 100)} %.
         </p>
       )}
       <div className="flex flex-wrap gap-2">
-        <button type="button" className={toolButton} onClick={c.proposal.nextUncertain} disabled={uncertain === 0} aria-keyshortcuts="U">
+        <button type="button" className={toolButton} onClick={c.proposal.nextUncertain} disabled={uncertain.length === 0} aria-keyshortcuts="U">
           Next uncertain (U)
         </button>
         <button type="button" className={toolButton} onClick={c.proposal.accept}>Accept proposal</button>

@@ -6,6 +6,7 @@ import type { PlayheadStore } from './playhead-store';
 import { useAltHeld } from './media/use-alt-held';
 import { useWheelZoom } from './media/use-wheel-zoom';
 import { useMediaWaveform } from './media/use-media-waveform';
+import type { ProposalMarkers } from './media/proposal-markers';
 import { useLatest } from '../use-latest';
 
 export interface MediaTimelineHandle {
@@ -32,6 +33,9 @@ export interface MediaTimelineProps {
   onCueDragged(cueId: string, to: number, bypassSnap: boolean): void;
   onReady(): void;
   onMediaError(message: string): void;
+  /** An open "Mark it for me" proposal: its boundaries are drawn inside the waveform. */
+  proposal: ProposalMarkers | null;
+  onProposalPicked(index: number): void;
   /** Shown beside the video (the findings), and between video and waveform (the toolbar). */
   beside?: ReactNode;
   toolbar?: ReactNode;

@@ -1,5 +1,5 @@
 import '../zod-without-eval'; // first: before any schema is built
-import { useEffect, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import type { Peaks } from '~/lib/media/peaks';
 import { SEGMENT_KIND_ORDER, SEGMENT_KIND_LABELS } from '~/lib/editor/segment-style';
 import { diffTimelines } from '~/lib/editor/timeline-diff';
@@ -18,7 +18,7 @@ import SegmentInspector from './SegmentInspector';
 import SegmentList from './SegmentList';
 import ShortcutHelp from './ShortcutHelp';
 import ConflictDialog from './ConflictDialog';
-import { MarkItForMeButton, ProposalLayer } from './MarkItForMe';
+import { MarkItForMeButton, ProposalLayer, proposalMarkers } from './MarkItForMe';
 import type { StudioClock } from '~/lib/time/date-format';
 import { StudioClockContext } from '../studio-clock-context';
 
@@ -92,6 +92,8 @@ function Editor({ lessonId, data, peaks }: { lessonId: string; data: EditorData;
   // The refs are taken out first: React's checks treat an object that carries refs as a ref itself.
   const { rootRef, media, exerciseInput, ...c } = useEditorController(lessonId, data, peaks);
   const { state, dispatch, handlers: h, saving, selectedSegment, selectedCue } = c;
+  const proposalState = c.proposal.state;
+  const markers = useMemo(() => proposalMarkers(proposalState), [proposalState]);
   return (
     <div ref={rootRef} className="flex flex-col gap-4" data-editor data-editor-ready={c.ready ? 'true' : undefined}>
       <SaveBar saving={saving} />
@@ -113,6 +115,8 @@ function Editor({ lessonId, data, peaks }: { lessonId: string; data: EditorData;
         onCueDragged={h.onCueDragged}
         onReady={() => c.setReady(true)}
         onMediaError={c.setMediaError}
+        proposal={markers}
+        onProposalPicked={c.proposal.review}
         noRecordingNote={noRecordingNote(data.preparing)}
         toolbar={<EditorToolbar c={c} extra={<><InsertSegmentTool c={c} /><MarkItForMeButton c={c} /></>} />}
         beside={<FindingsPanel result={c.check} hasPlan={c.plan !== null} onShow={h.onShowFinding} onApplyFix={h.onApplyFix} onMarkHere={h.onMarkHere} onLeaveOut={(f) => void h.onLeaveOut(f)} onApplyAll={h.onApplyAll} />}

@@ -15,6 +15,7 @@ import type { PlayheadStore } from '../playhead-store';
 import { attachHls } from './attach-hls';
 import { CUE_PREFIX, envelope } from './region-elements';
 import { createRegionSync } from './region-sync';
+import { createProposalMarkers, PROPOSAL_PREFIX, type ProposalMarkers } from './proposal-markers';
 import { useLatest } from '../../use-latest';
 
 /** What the waveform reads on every event (kept in a ref so handlers see the latest). */
@@ -31,6 +32,9 @@ export interface WaveformInputs {
   onCueDragged(cueId: string, to: number, bypassSnap: boolean): void;
   onReady(): void;
   onMediaError(message: string): void;
+  /** An open "Mark it for me" proposal, drawn as markers inside the waveform. */
+  proposal: ProposalMarkers | null;
+  onProposalPicked(index: number): void;
 }
 
 interface Elements {
@@ -45,6 +49,7 @@ export function useMediaWaveform(inputs: WaveformInputs, elements: Elements, alt
   const regionsRef = useRef<ReturnType<typeof RegionsPlugin.create> | null>(null);
   const readyRef = useRef(false);
   const [regionSync] = useState(createRegionSync);
+  const [proposalMarkers] = useState(createProposalMarkers);
 
   // Both read only refs, so they stay the same function for the waveform's whole life.
   const syncRegions = useCallback(
@@ -55,6 +60,11 @@ export function useMediaWaveform(inputs: WaveformInputs, elements: Elements, alt
     },
     [regionSync, inputsRef],
   );
+
+  const syncProposal = useCallback(() => {
+    const regions = regionsRef.current;
+    if (regions && readyRef.current) proposalMarkers.sync(regions, inputsRef.current.proposal);
+  }, [proposalMarkers, inputsRef]);
 
   const wave = elements.wave;
   const applyZoom = useCallback(() => {
@@ -113,6 +123,7 @@ export function useMediaWaveform(inputs: WaveformInputs, elements: Elements, alt
       ws.once('ready', () => {
         readyRef.current = true;
         syncRegions();
+        syncProposal();
         applyZoom();
         inputsRef.current.onReady();
       });
@@ -126,7 +137,8 @@ export function useMediaWaveform(inputs: WaveformInputs, elements: Elements, alt
       regions.on('region-clicked', (region, e) => {
         e.stopPropagation();
         const p = inputsRef.current;
-        if (region.id.startsWith(CUE_PREFIX)) p.onSelect({ type: 'cue', id: region.id.slice(CUE_PREFIX.length) });
+        if (region.id.startsWith(PROPOSAL_PREFIX)) p.onProposalPicked(Number(region.id.slice(PROPOSAL_PREFIX.length)));
+        else if (region.id.startsWith(CUE_PREFIX)) p.onSelect({ type: 'cue', id: region.id.slice(CUE_PREFIX.length) });
         else {
           // A click near an edge selects that boundary; elsewhere the segment (and its start).
           const el = region.element;
@@ -145,6 +157,7 @@ export function useMediaWaveform(inputs: WaveformInputs, elements: Elements, alt
       cancelled = true;
       readyRef.current = false;
       regionSync.clear();
+      proposalMarkers.clear();
       ws?.destroy();
       media.destroy();
       wsRef.current = null;
@@ -155,6 +168,7 @@ export function useMediaWaveform(inputs: WaveformInputs, elements: Elements, alt
   }, [inputs.playlistUrl, inputs.peaks, inputs.duration]);
 
   useEffect(() => syncRegions(), [inputs.timeline, syncRegions]);
+  useEffect(() => syncProposal(), [inputs.proposal, syncProposal]);
   useEffect(() => regionSync.showSelection(inputs.selection), [inputs.selection, regionSync]);
   useEffect(() => applyZoom(), [inputs.zoom, applyZoom]);
 
