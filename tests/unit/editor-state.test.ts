@@ -48,6 +48,25 @@ describe('editor state', () => {
     expect(find(s, 'a').kind).toBe('talk');
   });
 
+  it('edits title, round, set and side of the selected segment in one undoable step each; blank takes a field away', () => {
+    const select: EditorAction = { type: 'select', selection: { type: 'segment', id: 'a', edge: null } };
+    let s = run([select, { type: 'set-details', details: { title: ' Opening move ', round: 2, set: 3, side: 'left' } }]);
+    expect(find(s, 'a')).toMatchObject({ title: 'Opening move', round: 2, set: 3, side: 'left', exercise: 'Fast feet' });
+    s = editorReducer(s, { type: 'set-details', details: { title: '', side: null, set: null } });
+    expect(find(s, 'a')).not.toHaveProperty('title');
+    expect(find(s, 'a')).not.toHaveProperty('side');
+    expect(find(s, 'a')).not.toHaveProperty('set');
+    expect(find(s, 'a').round).toBe(2);
+    s = editorReducer(s, { type: 'undo' });
+    expect(find(s, 'a').side).toBe('left');
+  });
+
+  it('refuses a round of 0 with the schema\'s message and changes nothing', () => {
+    const s = run([{ type: 'select', selection: { type: 'segment', id: 'a', edge: null } }, { type: 'set-details', details: { round: 0 } }]);
+    expect(find(s, 'a')).not.toHaveProperty('round');
+    expect(s.notice).toBe('The round starts at 1.');
+  });
+
   it('nudges the selected boundary by 0.1 s and 1 s, moving a shared boundary on both sides', () => {
     const s = run([
       { type: 'select', selection: { type: 'segment', id: 'b', edge: 'start' } },

@@ -5,7 +5,7 @@
  */
 import { expandPlan, markFieldsOf } from '../plan/expand-plan';
 import type { Plan } from '../plan/plan-schema';
-import type { Cue, CueKind, Segment, SegmentKind, Timeline } from '../timeline/timeline-schema';
+import { segmentSchema, type Cue, type CueKind, type Segment, type SegmentKind, type SegmentSide, type Timeline } from '../timeline/timeline-schema';
 import { roundToMillis } from '../time/format-time';
 import { applyFix, applyNonConflictingFixes } from '../timing/apply-fix';
 import type { Finding } from '../timing/finding-types';
@@ -39,6 +39,8 @@ export type EditorAction =
   | { type: 'split'; at: number }
   | { type: 'set-kind'; kind: SegmentKind; segmentId?: string }
   | { type: 'set-exercise'; exercise: string; segmentId?: string }
+  /** Title, round, set or side of a segment; null (or an empty title) takes the field away. */
+  | { type: 'set-details'; details: SegmentDetails; segmentId?: string }
   | { type: 'nudge'; delta: number }
   | { type: 'move-edge'; segmentId: string; edge: Edge; to: number; linked?: boolean }
   | { type: 'move-cue'; cueId: string; to: number }
@@ -238,6 +240,14 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
       else delete next.exercise;
       return commit(state, replaceSegment(state.timeline, next));
     }
+    case 'set-details': {
+      const seg = selectedSegment(state, action.segmentId);
+      if (!seg) return state;
+      const next = withDetails(seg, action.details);
+      if (!next.ok) return { ...state, notice: next.message };
+      if (sameTimeline({ segments: [seg], cues: [] }, { segments: [next.segment], cues: [] })) return state;
+      return commit(state, replaceSegment(state.timeline, next.segment));
+    }
     case 'nudge': {
       const sel = state.selection;
       if (sel?.type === 'cue') {
@@ -403,4 +413,29 @@ export function appliedFixesNotice(applied: number, skipped: number): string {
   if (skipped === 0) return `Applied ${fixes(applied)}.`;
   const left = skipped === 1 ? '1 more fix changes' : `${skipped} more fixes change`;
   return `Applied ${fixes(applied)}. ${left} the same segments: press “Apply all fixes” again to apply ${skipped === 1 ? 'it' : 'them'}.`;
+}
+
+/** The details of a segment the inspector edits besides its kind, exercise and times. */
+export interface SegmentDetails {
+  title?: string | null;
+  round?: number | null;
+  set?: number | null;
+  side?: SegmentSide | null;
+}
+
+/**
+ * `seg` with `details` applied and checked by the segment schema, so the editor refuses what a
+ * save would refuse (a round of 0, a title on two lines) with the schema's own message.
+ */
+export function withDetails(seg: Segment, details: SegmentDetails): { ok: true; segment: Segment } | { ok: false; message: string } {
+  const next: Record<string, unknown> = { ...seg };
+  for (const [key, value] of Object.entries(details) as [keyof SegmentDetails, unknown][]) {
+    if (value === undefined) continue;
+    const blank = value === null || (typeof value === 'string' && value.trim() === '');
+    if (blank) delete next[key];
+    else next[key] = typeof value === 'string' ? value.trim() : value;
+  }
+  const parsed = segmentSchema.safeParse(next);
+  if (!parsed.success) return { ok: false, message: parsed.error.issues[0]?.message ?? 'That value cannot be saved.' };
+  return { ok: true, segment: parsed.data };
 }

@@ -16,6 +16,7 @@ export function planExerciseNames(plan: Plan): string[] {
   for (const b of plan.blocks) {
     if (b.kind === 'circuit') names.push(...b.stations.map((s) => s.exercise));
     if (b.kind === 'intervals') names.push(b.exercise);
+    if (b.kind === 'amrap' || b.kind === 'emom') names.push(...b.exercises);
   }
   return [...new Set(names)];
 }

@@ -43,7 +43,58 @@ export default function BlockEditor(p: BlockEditorProps) {
       );
     case 'circuit':
       return <CircuitEditor {...p} block={b} />;
+    case 'amrap':
+      return (
+        <div className="flex flex-col gap-3">
+          <p className="text-sm text-ink-soft">As many rounds as possible: one timed span in which members repeat these exercises at their own pace.</p>
+          <div className="grid gap-3 sm:grid-cols-3">
+            <NumberField label="Length (seconds)" value={b.seconds} onChange={(v) => p.onChange({ ...b, seconds: v as number })} error={err('seconds')} min={1} hint="12 minutes = 720" />
+          </div>
+          <ExerciseList {...p} legend="Exercises of one round" exercises={b.exercises} onExercises={(exercises) => p.onChange({ ...b, exercises })} />
+        </div>
+      );
+    case 'emom':
+      return (
+        <div className="flex flex-col gap-3">
+          <p className="text-sm text-ink-soft">Every minute on the minute: work starts at the top of each minute and the rest of the minute is rest. The exercises take turns, one per minute.</p>
+          <div className="grid gap-3 sm:grid-cols-3">
+            <NumberField label="Minutes" value={b.minutes} onChange={(v) => p.onChange({ ...b, minutes: v as number })} error={err('minutes')} min={1} />
+            <NumberField label="Work each minute (s)" value={b.workSeconds} onChange={(v) => p.onChange({ ...b, workSeconds: v as number })} error={err('workSeconds')} min={1} hint="A guide for laying out the marks; the check tests the minute boundaries." />
+          </div>
+          <ExerciseList {...p} legend="Exercises, one per minute in turn" exercises={b.exercises} onExercises={(exercises) => p.onChange({ ...b, exercises })} />
+        </div>
+      );
   }
+}
+
+/** The exercises of an AMRAP or EMOM: type-ahead names, added and removed in place. */
+function ExerciseList(p: BlockEditorProps & { legend: string; exercises: string[] | undefined; onExercises(exercises: string[]): void }) {
+  const list = p.exercises ?? [];
+  const err = (name: string) => p.fields[`${p.path}.${name}`];
+  return (
+    <fieldset className="flex flex-col gap-2" data-exercise-list>
+      <legend className="text-sm font-bold">{p.legend}</legend>
+      {err('exercises') && <p className="text-sm font-semibold text-error" data-field-error>{err('exercises')}</p>}
+      <ol className="flex flex-col gap-2">
+        {list.map((name, i) => (
+          <li key={i} className="grid items-start gap-2 sm:grid-cols-[minmax(0,1fr)_auto]">
+            <ExerciseField
+              label={`Exercise ${i + 1}`}
+              value={name}
+              onChange={(v) => p.onExercises(list.map((x, j) => (j === i ? v : x)))}
+              error={err(`exercises.${i}`)}
+              listId={p.exerciseListId}
+              known={p.knownExercises}
+            />
+            <button type="button" className={`${smallButton} self-end`} onClick={() => p.onExercises(removeItem(list, i))} aria-label={`Remove exercise ${i + 1}`}>Remove</button>
+          </li>
+        ))}
+      </ol>
+      <div>
+        <button type="button" className={smallButton} onClick={() => p.onExercises([...list, ''])}>Add exercise</button>
+      </div>
+    </fieldset>
+  );
 }
 
 function CircuitEditor(p: BlockEditorProps & { block: Circuit }) {
@@ -63,7 +114,7 @@ function CircuitEditor(p: BlockEditorProps & { block: Circuit }) {
         {err('stations') && <p className="text-sm font-semibold text-error" data-field-error>{err('stations')}</p>}
         <ol className="flex flex-col gap-2">
           {b.stations.map((s, i) => (
-            <li key={i} className="grid items-start gap-2 rounded-[10px] border border-stone/60 p-2 sm:grid-cols-[minmax(0,1fr)_7rem_7rem_auto]" data-station>
+            <li key={i} className="grid items-start gap-2 rounded-[10px] border border-stone/60 p-2 sm:grid-cols-[minmax(0,1fr)_7rem_7rem_9rem_auto]" data-station>
               <ExerciseField
                 label={`Station ${i + 1}`}
                 value={s.exercise ?? ''}
@@ -74,6 +125,7 @@ function CircuitEditor(p: BlockEditorProps & { block: Circuit }) {
               />
               <NumberField label="Work (s)" value={s.workSeconds} onChange={(v) => setStation(i, { ...s, workSeconds: v as number })} error={err(`stations.${i}.workSeconds`)} min={1} />
               <NumberField label="Rest (s)" value={s.restSeconds} onChange={(v) => setStation(i, { ...s, restSeconds: v as number })} error={err(`stations.${i}.restSeconds`)} />
+              <StationSides station={s} index={i} error={err(`stations.${i}.switchSeconds`)} onChange={(next) => setStation(i, next)} />
               <div className="flex flex-wrap gap-1 self-end pb-1">
                 <button type="button" className={smallButton} onClick={() => setStations(moveItem(b.stations, i, i - 1))} disabled={i === 0} aria-label={`Move station ${i + 1} up`}>↑</button>
                 <button type="button" className={smallButton} onClick={() => setStations(moveItem(b.stations, i, i + 1))} disabled={i === b.stations.length - 1} aria-label={`Move station ${i + 1} down`}>↓</button>
@@ -94,6 +146,31 @@ function CircuitEditor(p: BlockEditorProps & { block: Circuit }) {
         </div>
       </fieldset>
       <RoundChanges {...p} block={b} />
+    </div>
+  );
+}
+
+/** "Per side" (left, then right, each for the work seconds) and the pause to switch sides. */
+function StationSides(p: { station: Station; index: number; error: string | undefined; onChange(station: Station): void }) {
+  const s = p.station;
+  return (
+    <div className="flex flex-col gap-1">
+      <label className="inline-flex items-center gap-2 pt-6 text-sm font-semibold">
+        <input
+          type="checkbox"
+          className="h-4 w-4 accent-ink"
+          checked={s.perSide === true}
+          onChange={(e) => {
+            const { perSide: _perSide, switchSeconds: _switch, ...rest } = s;
+            // A 5 s pause to change sides is a starting value (common practice, no source); the coach edits it.
+            p.onChange(e.target.checked ? { ...rest, perSide: true, switchSeconds: s.switchSeconds ?? 5 } : rest);
+          }}
+        />
+        Per side
+      </label>
+      {s.perSide === true && (
+        <NumberField label="Switch pause (s)" value={s.switchSeconds} onChange={(v) => p.onChange({ ...s, switchSeconds: v })} error={p.error} hint="Left, pause, then right." />
+      )}
     </div>
   );
 }

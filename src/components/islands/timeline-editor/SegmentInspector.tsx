@@ -1,6 +1,6 @@
 import { useState, type RefObject } from 'react';
 import { CUE_KINDS, type Cue, type CueKind, type Segment, type SegmentKind } from '~/lib/timeline/timeline-schema';
-import type { Edge, Selection } from '~/lib/editor/editor-state';
+import type { Edge, SegmentDetails, Selection } from '~/lib/editor/editor-state';
 import { CUE_KIND_LABELS, KIND_COLOURS, SEGMENT_KIND_LABELS, SEGMENT_KIND_ORDER } from '~/lib/editor/segment-style';
 import { formatEditorTime, formatLength } from '~/lib/time/format-time';
 
@@ -12,6 +12,7 @@ export interface SegmentInspectorProps {
   exerciseInputRef: RefObject<HTMLInputElement | null>;
   onKind(kind: SegmentKind): void;
   onExercise(exercise: string): void;
+  onDetails(details: SegmentDetails): void;
   onEdge(edge: Edge): void;
   onNudge(delta: number): void;
   onCueKind(kind: CueKind): void;
@@ -55,7 +56,7 @@ export default function SegmentInspector({ exerciseInputRef, ...p }: SegmentInsp
         </h3>
         <p className="tabular text-sm text-ink-soft" data-selected-times>
           {formatEditorTime(s.startSeconds)} – {formatEditorTime(s.endSeconds)} · {formatLength(s.endSeconds - s.startSeconds)}
-          {s.round ? ` · round ${s.round}` : ''}{s.set ? ` · set ${s.set}` : ''}
+          {s.round ? ` · round ${s.round}` : ''}{s.set ? ` · set ${s.set}` : ''}{s.side ? ` · ${s.side} side` : ''}
         </p>
         <div className="mt-3 grid gap-3 sm:grid-cols-2">
           <label className="flex flex-col gap-1 text-sm font-semibold">
@@ -90,6 +91,7 @@ export default function SegmentInspector({ exerciseInputRef, ...p }: SegmentInsp
             </datalist>
           </label>
         </div>
+        <SegmentDetailsFields key={`${s.id}|${s.title ?? ''}|${s.round ?? ''}|${s.set ?? ''}|${s.side ?? ''}`} segment={s} onDetails={p.onDetails} />
         <fieldset className="mt-3">
           <legend className="text-sm font-semibold">Boundary to move</legend>
           <div className="mt-1 flex flex-wrap items-center gap-2">
@@ -162,5 +164,46 @@ export default function SegmentInspector({ exerciseInputRef, ...p }: SegmentInsp
         Click a segment or a cue on the timeline, pick one from the list below, or press ] to jump to the next boundary.
       </p>
     </section>
+  );
+}
+
+const field = 'rounded-[10px] border border-slate bg-chalk px-3 py-2 font-normal';
+
+/**
+ * Title, round, set and side of the selected segment. Text and numbers are kept as typed and
+ * applied on Enter or when the field is left (one undo step each); the side applies at once.
+ * A new selection or an undo remounts this (its key), so the drafts always start from the segment.
+ */
+function SegmentDetailsFields({ segment: s, onDetails }: { segment: Segment; onDetails(details: SegmentDetails): void }) {
+  const [title, setTitle] = useState(s.title ?? '');
+  const [round, setRound] = useState(s.round?.toString() ?? '');
+  const [set, setSet] = useState(s.set?.toString() ?? '');
+  const count = (text: string): number | null => (text.trim() === '' ? null : Number(text));
+  const commitOnEnter = (e: React.KeyboardEvent<HTMLInputElement>) => {
+    if (e.key === 'Enter') (e.target as HTMLInputElement).blur();
+  };
+  return (
+    <div className="mt-3 grid gap-3 sm:grid-cols-4" data-segment-details>
+      <label className="flex flex-col gap-1 text-sm font-semibold sm:col-span-2">
+        Title
+        <input value={title} placeholder="Chapter name (optional)" onChange={(e) => setTitle(e.target.value)} onBlur={() => onDetails({ title })} onKeyDown={commitOnEnter} className={field} />
+      </label>
+      <label className="flex flex-col gap-1 text-sm font-semibold">
+        Round
+        <input type="number" min={1} inputMode="numeric" value={round} onChange={(e) => setRound(e.target.value)} onBlur={() => onDetails({ round: count(round) })} onKeyDown={commitOnEnter} className={`${field} tabular`} />
+      </label>
+      <label className="flex flex-col gap-1 text-sm font-semibold">
+        Set
+        <input type="number" min={1} inputMode="numeric" value={set} onChange={(e) => setSet(e.target.value)} onBlur={() => onDetails({ set: count(set) })} onKeyDown={commitOnEnter} className={`${field} tabular`} />
+      </label>
+      <label className="flex flex-col gap-1 text-sm font-semibold">
+        Side
+        <select value={s.side ?? ''} onChange={(e) => onDetails({ side: e.target.value === '' ? null : (e.target.value as 'left' | 'right') })} className={field}>
+          <option value="">Both / not per side</option>
+          <option value="left">Left</option>
+          <option value="right">Right</option>
+        </select>
+      </label>
+    </div>
   );
 }

@@ -136,6 +136,7 @@ function Editor({ lessonId, data, peaks }: { lessonId: string; data: EditorData;
           exerciseInputRef={exerciseInput}
           onKind={(kind) => dispatch({ type: 'set-kind', kind })}
           onExercise={(exercise) => dispatch({ type: 'set-exercise', exercise })}
+          onDetails={(details) => dispatch({ type: 'set-details', details })}
           onEdge={(edge) => selectedSegment && dispatch({ type: 'select', selection: { type: 'segment', id: selectedSegment.id, edge } })}
           onNudge={(delta) => dispatch({ type: 'nudge', delta })}
           onCueKind={(kind) => selectedCue && dispatch({ type: 'set-cue', cueId: selectedCue.id, kind })}
