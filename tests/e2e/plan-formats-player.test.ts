@@ -55,7 +55,7 @@ beforeAll(async () => {
   expect(ready.state).toBe('ready');
   // The only warning is the advertised length (77 s against 1 minute ± 10 %).
   const pub = await coach.post(`/api/lessons/${lesson.id}/publish`, { acknowledgeWarnings: true });
-  expect(pub.status).toBe(200);
+  expect(pub.status).toBe(201);
 }, 300_000);
 
 afterAll(async () => {
