@@ -26,17 +26,19 @@ export class ApiClient {
 
   async request(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Response> {
     const isText = typeof body === 'string';
+    // Bytes (a file's content) are sent as they are.
+    const isBytes = body instanceof Uint8Array;
     const res = await fetch(BASE() + path, {
       method,
       redirect: 'manual',
       headers: {
         origin: BASE(),
         'x-forwarded-for': this.address,
-        ...(body !== undefined ? { 'content-type': isText ? 'text/plain' : 'application/json' } : {}),
+        ...(body !== undefined ? { 'content-type': isBytes ? 'application/octet-stream' : isText ? 'text/plain' : 'application/json' } : {}),
         ...(this.cookie ? { cookie: this.cookie } : {}),
         ...headers,
       },
-      body: body === undefined ? undefined : isText ? body : JSON.stringify(body),
+      body: body === undefined ? undefined : isText || isBytes ? (body as BodyInit) : JSON.stringify(body),
     });
     for (const c of res.headers.getSetCookie()) {
       const pair = c.split(';')[0]!;

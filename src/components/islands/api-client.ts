@@ -30,15 +30,19 @@ export interface CallOptions {
 /** An error answer, or whatever a proxy in between sent instead (hence everything optional). */
 type ErrorBody = { error?: Partial<ErrorOutput['error']> } | null;
 
-/** Sends JSON and answers the parsed body, or throws an ApiError with a message people can act on. */
+/** Sends JSON (or a file's bytes) and answers the parsed body, or throws an ApiError with a message people can act on. */
 export async function apiCall<T>(method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE', path: string, body?: unknown, options: CallOptions = {}): Promise<T> {
   let res: Response;
   try {
     res = await fetch(path, {
       method,
       credentials: 'same-origin',
-      headers: body === undefined ? { accept: 'application/json' } : { accept: 'application/json', 'content-type': 'application/json' },
-      body: body === undefined ? undefined : JSON.stringify(body),
+      // A file (Blob) is sent as its bytes; anything else as JSON.
+      headers:
+        body === undefined
+          ? { accept: 'application/json' }
+          : { accept: 'application/json', 'content-type': body instanceof Blob ? body.type || 'application/octet-stream' : 'application/json' },
+      body: body === undefined ? undefined : body instanceof Blob ? body : JSON.stringify(body),
       signal: options.signal,
     });
   } catch (err) {

@@ -64,6 +64,17 @@ export const lessons = pgTable(
     listedMinutes: doublePrecision().generatedAlwaysAs(
       sql`coalesce(published_seconds / 60.0, advertised_minutes::double precision)`,
     ),
+    /**
+     * The cover picture: a path inside the current recording's media folder (a chapter thumbnail
+     * `chapters/{version}/{n}.jpg` or a made/uploaded `cover/{id}.jpg`); null until there is one.
+     */
+    coverPath: text(),
+    /** Whether staff chose the cover; otherwise each publish sets the first work chapter's thumbnail. */
+    coverChosen: boolean().notNull().default(false),
+    /** An editor's hand-off: who marked the class ready for review, when, and their note; cleared by a publish. */
+    reviewRequestedBy: text().references(() => users.id, { onDelete: 'set null' }),
+    reviewRequestedAt: timestamp({ withTimezone: true }),
+    reviewNote: text(),
     version: integer().notNull().default(1),
     createdAt: writtenAtColumn(),
     updatedAt: writtenAtColumn(),

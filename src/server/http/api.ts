@@ -3,6 +3,7 @@ import { AppError } from '../errors';
 import { databaseUnavailable, isDatabaseUnavailable } from '../unavailable';
 import { statusOf } from './error-status';
 import { MAX_TIMELINE_FILE_BYTES } from '~/lib/api/timeline-file-schemas';
+import { MAX_COVER_UPLOAD_BYTES } from '~/lib/publishing/cover';
 
 /** A JSON response. */
 /**
@@ -47,26 +48,30 @@ export function parseWith<S extends z.ZodType>(schema: S, data: unknown): z.infe
 export const JSON_BODY_LIMIT = 1024 * 1024;
 
 /**
- * The body limit of a path: timeline imports take files up to MAX_TIMELINE_FILE_BYTES (2 MiB),
- * everything else JSON_BODY_LIMIT. The middleware refuses a larger Content-Length on any route
+ * The body limit of a path: timeline imports take files up to MAX_TIMELINE_FILE_BYTES (2 MiB), cover
+ * uploads MAX_COVER_UPLOAD_BYTES (5 MiB), everything else JSON_BODY_LIMIT. The middleware refuses a larger Content-Length on any route
  * (pages' forms included) before anything reads the body.
  */
 export const bodyLimitFor = (pathname: string) =>
-  /^\/api\/lessons\/[^/]+\/timeline\/import\/?$/.test(pathname) ? MAX_TIMELINE_FILE_BYTES : JSON_BODY_LIMIT;
+  /^\/api\/lessons\/[^/]+\/timeline\/import\/?$/.test(pathname)
+    ? MAX_TIMELINE_FILE_BYTES
+    : /^\/api\/lessons\/[^/]+\/cover\/upload\/?$/.test(pathname)
+      ? MAX_COVER_UPLOAD_BYTES
+      : JSON_BODY_LIMIT;
 
 export const tooLarge = (limit: number) =>
   new AppError('too_large', `The request body is larger than ${formatBytes(limit)}, so it was not read. Send less at once.`, undefined, { limitBytes: limit });
 const formatBytes = (n: number) => (n >= 1024 * 1024 ? `${+(n / 1024 / 1024).toFixed(1)} MB` : `${Math.ceil(n / 1024)} KB`);
 
 /**
- * Reads a request body as text, refusing more than `limit` bytes with 413 (too_large): at once when
+ * Reads a request body, refusing more than `limit` bytes with 413 (too_large): at once when
  * Content-Length says so, before a byte is read, and otherwise (chunked uploads) by counting while
  * it streams and stopping at the limit, so an oversize body is never held in memory.
  */
-export async function readBodyText(request: Request, limit = JSON_BODY_LIMIT): Promise<string> {
+export async function readBodyBytes(request: Request, limit = JSON_BODY_LIMIT): Promise<Uint8Array> {
   const declared = request.headers.get('content-length');
   if (declared !== null && Number(declared) > limit) throw tooLarge(limit);
-  if (!request.body) return '';
+  if (!request.body) return new Uint8Array();
   const reader = request.body.getReader();
   const chunks: Uint8Array[] = [];
   let total = 0;
@@ -86,7 +91,12 @@ export async function readBodyText(request: Request, limit = JSON_BODY_LIMIT): P
     bytes.set(c, at);
     at += c.byteLength;
   }
-  return new TextDecoder().decode(bytes);
+  return bytes;
+}
+
+/** Reads a request body as UTF-8 text within `limit` bytes (see readBodyBytes). */
+export async function readBodyText(request: Request, limit = JSON_BODY_LIMIT): Promise<string> {
+  return new TextDecoder().decode(await readBodyBytes(request, limit));
 }
 
 /**

@@ -1,7 +1,9 @@
 import { mkdir } from 'node:fs/promises';
 import { join } from 'node:path';
-import { eq } from 'drizzle-orm';
-import { lessonVersions, recordings } from '~/db/schema';
+import { and, eq } from 'drizzle-orm';
+import { lessons, lessonVersions, recordings } from '~/db/schema';
+import { chapterThumbnailPath, defaultCoverChapter } from '~/lib/publishing/cover';
+import { libraryChanged } from '../services/library';
 import type { VersionSnapshot } from '../services/publishing';
 import { recordingPrefix } from '../services/recordings';
 import { runFfmpeg } from '../media/ffmpeg-runner';
@@ -28,5 +30,15 @@ export const chapterThumbnails: JobHandler<'version.thumbnails'> = async ({ vers
   }
   await uploadFolder(ctx.s3, ctx.bucket, out, `${recordingPrefix(row.rec)}media/chapters/${versionId}/`, ctx.signal);
   await cleanScratch(dir);
+  // A class nobody chose a cover for shows its first work chapter, once that picture exists.
+  const cover = defaultCoverChapter(chapters);
+  if (cover !== null) {
+    const set = await ctx.deps.db
+      .update(lessons)
+      .set({ coverPath: chapterThumbnailPath(versionId, cover) })
+      .where(and(eq(lessons.id, row.version.lessonId), eq(lessons.publishedVersionId, versionId), eq(lessons.coverChosen, false)))
+      .returning({ studioId: lessons.studioId });
+    if (set[0]) await libraryChanged(ctx.deps, set[0].studioId);
+  }
   return { outcome: 'done', detail: `${chapters.length} thumbnails` };
 };

@@ -1,5 +1,7 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
+import { z } from 'zod';
 import { errors, json } from './responses';
+import { coverChoiceInput, coverOutput } from '~/lib/api/cover-schemas';
 import { planPutSchema } from '~/lib/plan/plan-schema';
 import { timelinePutSchema } from '~/lib/timeline/timeline-schema';
 import { timelineExportQuery, timelineFileText, timelineImportQuery } from '~/lib/api/timeline-file-schemas';
@@ -144,6 +146,23 @@ export const apiRoutes: RouteConfig[] = [
       200: { description: 'The file', content: { 'text/csv': { schema: timelineFileText }, 'text/vtt': { schema: timelineFileText } } },
       ...errors(400, 401, 403, 404, 409),
     },
+  },
+  {
+    method: 'get', path: '/api/lessons/{id}/cover', summary: 'The class’s cover and the chapter thumbnails it can choose from', request: { params },
+    responses: { 200: json(coverOutput, 'Cover'), ...errors(401, 403, 404) },
+  },
+  {
+    method: 'put', path: '/api/lessons/{id}/cover', summary: 'Choose a chapter thumbnail as the cover, or go back to the first work chapter’s',
+    request: { params, body: json(coverChoiceInput, 'Where the cover comes from') },
+    responses: { 200: json(coverOutput, 'Chosen'), ...errors(400, 401, 403, 404, 409) },
+  },
+  {
+    method: 'post', path: '/api/lessons/{id}/cover/upload', summary: 'Upload a JPEG or PNG picture (at most 5 MiB; the bytes decide what it is) as the cover; it is cropped to 1280 × 720',
+    request: {
+      params,
+      body: { description: 'The picture’s bytes', content: { 'image/jpeg': { schema: z.string().describe('binary') }, 'image/png': { schema: z.string().describe('binary') } } },
+    },
+    responses: { 200: json(coverOutput, 'Stored'), ...errors(400, 401, 403, 404, 409, 413, 415) },
   },
   {
     method: 'get', path: '/api/exercises', summary: 'The studio’s exercise list',

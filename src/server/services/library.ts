@@ -18,6 +18,7 @@ const cardColumns = {
   coachId: lessons.coachId,
   coachName: users.name,
   recordingId: lessons.currentRecordingId,
+  coverPath: lessons.coverPath,
 };
 
 const published = (studioId: string) =>

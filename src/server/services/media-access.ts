@@ -13,7 +13,7 @@ import { hasEntitlement } from './entitlement';
 
 /** Files a recording's media folder may hold; anything else is not found. */
 const MEDIA_PATH =
-  /^(poster\.jpg|peaks\.bin|hls\/master\.m3u8|hls\/v\d{1,2}\/(index\.m3u8|seg_\d{1,6}\.ts)|chapters\/[0-9a-f-]{36}\/\d{1,4}\.jpg)$/;
+  /^(poster\.jpg|peaks\.bin|hls\/master\.m3u8|hls\/v\d{1,2}\/(index\.m3u8|seg_\d{1,6}\.ts)|chapters\/[0-9a-f-]{36}\/\d{1,4}\.jpg|cover\/[0-9a-f-]{36}\.jpg)$/;
 
 /** Playlists are answered by the app (rewritten); every other file is fetched from storage directly. */
 const PLAYLIST_PATH = /^hls\/(master|v\d{1,2}\/index)\.m3u8$/;
@@ -26,7 +26,7 @@ const CONTENT_TYPES: [RegExp, string][] = [
 ];
 
 /** Still pictures that show what a class is (library cards, chapter list): browsing, not watching. */
-const PREVIEW_PATH = /^(poster\.jpg|chapters\/[0-9a-f-]{36}\/\d{1,4}\.jpg)$/;
+const PREVIEW_PATH = /^(poster\.jpg|chapters\/[0-9a-f-]{36}\/\d{1,4}\.jpg|cover\/[0-9a-f-]{36}\.jpg)$/;
 
 /** What decides whether one person may fetch one recording's files. */
 interface AccessFacts {

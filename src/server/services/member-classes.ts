@@ -6,6 +6,7 @@ import { AppError, notFound } from '../errors';
 import { hasEntitlement } from './entitlement';
 import type { AppDeps } from '../app';
 import type { VersionSnapshot } from './publishing';
+import { coverUrl } from '~/lib/publishing/cover';
 
 export interface PublishedClass {
   lessonId: string;
@@ -14,6 +15,8 @@ export interface PublishedClass {
   versionNumber: number;
   publishedAt: string;
   recordingId: string;
+  /** The cover picture's link, or null while the class has none. */
+  coverUrl: string | null;
   durationSeconds: number;
   snapshot: VersionSnapshot;
 }
@@ -33,6 +36,7 @@ export async function publishedClass(deps: AppDeps, studioId: string, slug: stri
     versionNumber: row.version.number,
     publishedAt: row.version.publishedAt.toISOString(),
     recordingId: row.version.recordingId,
+    coverUrl: coverUrl(row.lesson.currentRecordingId, row.lesson.coverPath),
     durationSeconds: row.version.durationSeconds,
     snapshot: row.version.snapshot as VersionSnapshot,
   };
