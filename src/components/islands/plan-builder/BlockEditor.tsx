@@ -114,7 +114,7 @@ function CircuitEditor(p: BlockEditorProps & { block: Circuit }) {
         {err('stations') && <p className="text-sm font-semibold text-error" data-field-error>{err('stations')}</p>}
         <ol className="flex flex-col gap-2">
           {b.stations.map((s, i) => (
-            <li key={i} className="grid items-start gap-2 rounded-[10px] border border-stone/60 p-2 sm:grid-cols-[minmax(0,1fr)_7rem_7rem_9rem_auto]" data-station>
+            <li key={i} className="grid items-start gap-2 rounded-[10px] border border-stone/60 p-2 sm:grid-cols-[minmax(0,1fr)_6rem_6rem_8rem_auto]" data-station>
               <ExerciseField
                 label={`Station ${i + 1}`}
                 value={s.exercise ?? ''}
