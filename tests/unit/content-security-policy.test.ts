@@ -15,7 +15,7 @@ describe('the content security policy', () => {
   it('allows the store and the payment page only where they are needed', () => {
     const policy = contentSecurityPolicy({ objectStoreOrigin: 'https://media.example', checkoutOrigin: 'https://pay.example', scriptHashes: [H1] });
     const d = new Map(policy.split('; ').map((p) => [p.split(' ')[0], p.split(' ').slice(1)]));
-    expect(d.get('script-src')).toEqual(["'self'", `'${H1}'`]);
+    expect(d.get('script-src')).toEqual(["'self'", `'${H1}'`, "'report-sample'"]);
     expect(d.get('media-src')).toEqual(["'self'", 'blob:', 'https://media.example']);
     expect(d.get('img-src')).toContain('https://media.example');
     expect(d.get('connect-src')).toEqual(["'self'", 'https://media.example']);
