@@ -128,6 +128,13 @@ describe('route ids that are not UUIDs', () => {
 });
 
 describe('numbers past their columns', () => {
+  // Found by tests/integration/openapi-fuzz.test.ts (seed 20261202): PostgreSQL's 4-byte real underflows below ~1.2e-38.
+  it('refuses a recording length too small for its real column instead of failing on it', async () => {
+    const res = await coach.post('/api/lessons', { title: 'Tiny length', advertisedMinutes: 10, mediaSeconds: 1e-300 });
+    const error = await expectError(res, 400);
+    expect(error.fields!.mediaSeconds).toMatch(/at least a millisecond/);
+  });
+
   it('refuses a class version past PostgreSQL integer (2147483647)', async () => {
     const error = await expectError(await coach.patch(`/api/lessons/${cls.lessonId}`, { version: 3_000_000_000, title: 'x' }), 400);
     expect(error.fields!.version).toMatch(/version does not exist/);

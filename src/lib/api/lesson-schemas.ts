@@ -20,7 +20,8 @@ export const lessonFields = {
     .min(1, { error: 'A class lasts at least 1 minute.' })
     .max(240, { error: 'Classes longer than 4 hours are not supported.' })
     .describe('Length shown on the class card, in whole minutes.'),
-  mediaSeconds: z.number().positive().max(24 * 3600).nullable().describe('Length of the recording in seconds, until a recording is uploaded.'),
+  // The column is a 4-byte float: a tiny positive value (1e-300) underflows it, which used to answer 500.
+  mediaSeconds: z.number().min(0.001, { error: 'A recording lasts at least a millisecond (0.001 seconds).' }).max(24 * 3600).nullable().describe('Length of the recording in seconds, until a recording is uploaded.'),
   equipment: shortList('items of equipment'),
   impact: z.enum(impactLevels, { error: 'Choose low, moderate or high impact.' }),
   focus: shortList('focus areas'),
