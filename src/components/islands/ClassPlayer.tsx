@@ -4,6 +4,7 @@ import { ChapterList } from './class-player/ChapterList';
 import { IntervalClock } from './class-player/IntervalClock';
 import type { PlayerProps } from './class-player/types';
 import { useProgress } from './class-player/use-progress';
+import { useCaptions } from './class-player/use-captions';
 import { clockAt, clockTimeline } from '~/lib/publishing/interval-clock';
 import { parseTemporalFragment } from '~/lib/publishing/media-fragment';
 import { startPosition, worthResuming, type NavigationKind } from '~/lib/publishing/start-position';
@@ -33,6 +34,7 @@ export default function ClassPlayer(props: PlayerProps) {
   const timeline = useMemo(() => clockTimeline(props.segments), [props.segments]);
   const notes = useMemo(() => new Map(props.exercises.map((e) => [e.name.toLowerCase(), e])), [props.exercises]);
   const { report, summary, dismissSummary } = useProgress(props.lessonId, video);
+  const { captionsOn, toggleCaptions } = useCaptions(video, !!props.captions, props.captionsOn);
   const clock = clockAt(timeline, time);
   const current = chapterIndexAt(props.chapters, time);
 
@@ -140,6 +142,8 @@ export default function ClassPlayer(props: PlayerProps) {
         if (target) jump(target);
       },
       c: () => setClockShown((s) => !s),
+      // T for the text of what is said: C already shows and hides the clock.
+      ...(props.captions ? { t: toggleCaptions } : {}),
     };
     const action = map[e.key];
     if (action) {
@@ -173,6 +177,7 @@ export default function ClassPlayer(props: PlayerProps) {
             data-testid="class-video"
           >
             <track kind="chapters" src={props.chaptersUrl} srcLang="en" label="Chapters" default />
+            {props.captions && <track kind="captions" src={props.captions.url} srcLang={props.captions.language} label={props.captions.label} />}
           </video>
           {clockShown && cautionOk && <IntervalClock clock={clock} note={clock.current?.exercise ? notes.get(clock.current.exercise.toLowerCase()) : undefined} />}
           {!cautionOk && (
@@ -211,7 +216,13 @@ export default function ClassPlayer(props: PlayerProps) {
           <button type="button" className="rounded-[10px] border border-ink px-3 py-1 text-sm" onClick={() => setClockShown((s) => !s)} aria-pressed={clockShown}>
             {clockShown ? 'Hide clock' : 'Show clock'}
           </button>
-          <p className="text-sm text-ink-soft">Keys: space play/pause · ← → 10 s · N / P next or previous chapter · C clock</p>
+          {props.captions && (
+            <button type="button" className="rounded-[10px] border border-ink px-3 py-1 text-sm aria-pressed:bg-ink aria-pressed:text-paper" onClick={toggleCaptions} aria-pressed={captionsOn} data-testid="captions-toggle">
+              <span aria-hidden="true" className="mr-1 rounded-sm border border-current px-0.5 text-xs font-bold">CC</span>
+              Captions
+            </button>
+          )}
+          <p className="text-sm text-ink-soft" data-testid="player-keys">Keys: space play/pause · ← → 10 s · N / P next or previous chapter · C clock{props.captions && ' · T captions'}</p>
         </div>
         {summary && (
           <section className="mt-4 rounded-[10px] border-l-4 border-mint bg-mint/10 p-4" role="status" aria-label="Class finished">

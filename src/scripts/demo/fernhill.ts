@@ -52,6 +52,8 @@ export interface DemoLesson {
   /** How the coach marks the changes in the demo recording's soundtrack. */
   changeSignal: ChangeSignal;
   plan: { blocks: Block[]; options?: Record<string, boolean> };
+  /** Seeded with demo captions (demo-captions.ts) that publish with the class. */
+  captioned?: boolean;
 }
 
 export const lessons: DemoLesson[] = [
@@ -117,6 +119,7 @@ export const lessons: DemoLesson[] = [
     cautions: '',
     state: 'published',
     changeSignal: 'count',
+    captioned: true,
     plan: {
       blocks: [
         {

@@ -24,4 +24,8 @@ export interface PlayerProps {
   resumeAt: number;
   finished: boolean;
   cautionAcknowledged: boolean;
+  /** The published version's captions track, when it has captions. */
+  captions: { url: string; language: string; label: string } | null;
+  /** Whether the member last turned captions on (remembered with their account). */
+  captionsOn: boolean;
 }
