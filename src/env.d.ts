@@ -8,5 +8,7 @@ declare namespace App {
     session: import('lucia').Session | null;
     /** The studio this request acts in and the user's roles there; null for visitors and people with no studio. */
     studio: import('./server/services/accounts').StudioAccess | null;
+    /** Every studio the person belongs to (the switcher lists them). */
+    studios: import('./server/services/accounts').StudioAccess[];
   }
 }

@@ -1,12 +1,15 @@
 import { defineMiddleware } from 'astro:middleware';
 import type { APIContext, MiddlewareNext } from 'astro';
 import { app } from './server/app';
-import { resolveStudio } from './server/services/accounts';
+import { pickStudio, studioAccess } from './server/services/accounts';
 import { isRouteId } from './lib/api/route-params';
 import { bodyLimitFor, errorResponse, tooLarge } from './server/http/api';
 import { notFound } from './server/errors';
 import { withSecurityHeaders } from './server/http/security-headers';
 import { databaseUnavailable, isDatabaseUnavailable } from './server/unavailable';
+
+/** Pages that show one studio's data (the API answers 403/404 by itself instead). */
+const needsStudio = (pathname: string) => /^\/(studio|library|classes|account\/membership)(\/|$)/.test(pathname);
 
 const isApiPath = (pathname: string) => pathname.startsWith('/api/') || pathname.startsWith('/media/');
 
@@ -50,6 +53,7 @@ const handle = async (context: APIContext, next: MiddlewareNext): Promise<Respon
   context.locals.user = null;
   context.locals.session = null;
   context.locals.studio = null;
+  context.locals.studios = [];
   const deps = app();
   // The cookie carries the session's token; the database knows only its hash (src/server/auth/lucia.ts).
   const token = context.cookies.get(deps.auth.sessionCookieName)?.value ?? null;
@@ -66,7 +70,12 @@ const handle = async (context: APIContext, next: MiddlewareNext): Promise<Respon
     if (session && user) {
       context.locals.session = session;
       context.locals.user = user;
-      context.locals.studio = await resolveStudio(deps, user.id);
+      context.locals.studios = await studioAccess(deps, user.id);
+      context.locals.studio = pickStudio(context.locals.studios, session.currentStudioId);
+      // Someone in several studios works in the one they chose; until then studio pages ask.
+      if (!context.locals.studio && context.locals.studios.length > 1 && needsStudio(context.url.pathname)) {
+        return context.redirect(`/studios?next=${encodeURIComponent(context.url.pathname + context.url.search)}`);
+      }
     }
   }
   let response = await next();

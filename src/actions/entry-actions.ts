@@ -3,7 +3,7 @@ import { acceptAsNewAccountInput, forgotPasswordInput, resetPasswordInput } from
 import { app } from '~/server/app';
 import { parseWith } from '~/server/http/api';
 import { requestAddress } from '~/server/http/client-address';
-import { homePath, requireUser } from '~/server/http/guards';
+import { homeAfterSignIn, requireUser } from '~/server/http/guards';
 import { clearSessionCookie, setSessionCookie } from '~/server/http/session-cookie';
 import { resolveStudio, SIGN_UP_ANSWER, signIn, signUp } from '~/server/services/accounts';
 import { FORGOT_PASSWORD_ANSWER, requestPasswordReset, resetPassword, sendVerificationLink } from '~/server/services/email-auth';
@@ -25,7 +25,7 @@ export const entryActions = {
     const deps = app();
     const session = await signIn(deps, parseWith(signInInput, formValues(form)), requestAddress(ctx));
     setSessionCookie(ctx.cookies, deps.auth, session);
-    return homePath({ studio: await resolveStudio(deps, session.userId) });
+    return homeAfterSignIn(await resolveStudio(deps, session.userId));
   }),
 
   /** "Create account": the same answer whether or not the address already has an account. */

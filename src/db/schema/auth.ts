@@ -1,5 +1,6 @@
-import { bigint, index, integer, pgTable, text, timestamp, uniqueIndex, varchar } from 'drizzle-orm/pg-core';
+import { bigint, index, integer, pgTable, text, timestamp, uniqueIndex, uuid, varchar, type AnyPgColumn } from 'drizzle-orm/pg-core';
 import { writtenAtColumn } from './columns';
+import { studios } from './studio';
 import { sql } from 'drizzle-orm';
 
 /** People who sign in. E-mail is stored lower-cased; uniqueness is case-insensitive. */
@@ -28,6 +29,8 @@ export const sessions = pgTable(
       .notNull()
       .references(() => users.id, { onDelete: 'cascade' }),
     expiresAt: timestamp({ withTimezone: true, mode: 'date' }).notNull(),
+    /** The studio staff pages work on in this session, chosen by the person (a studio they belong to). */
+    currentStudioId: uuid().references((): AnyPgColumn => studios.id, { onDelete: 'set null' }),
   },
   (t) => [index('sessions_user_idx').on(t.userId)],
 );

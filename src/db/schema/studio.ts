@@ -12,6 +12,17 @@ export const studios = pgTable('studios', {
   timeZone: text().notNull().default('UTC'),
   /** BCP 47 locale for dates and numbers on the studio's pages and e-mails. */
   locale: text().notNull().default('en-GB'),
+  /** Behind button and badge text on the studio's pages; white or ink text on it reaches 4.5:1 (lib/studios/studio-rules.ts). */
+  accentColour: text().notNull().default('#B93A17'),
+  createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+});
+
+/** Addresses a studio used before: old links redirect to its current slug, and nobody else may take them. */
+export const studioSlugRedirects = pgTable('studio_slug_redirects', {
+  slug: text().primaryKey(),
+  studioId: uuid()
+    .notNull()
+    .references(() => studios.id, { onDelete: 'cascade' }),
   createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
 });
 

@@ -16,6 +16,8 @@ function createLucia(db: Db, secure: boolean) {
       attributes: { secure, sameSite: 'lax', path: '/' },
     },
     // The session check already reads the user row, so pages need no second query for these.
+    // The studio chosen in this session rides along with the session check (no second query).
+    getSessionAttributes: (attrs) => ({ currentStudioId: attrs.currentStudioId }),
     getUserAttributes: (attrs) => ({ email: attrs.email, name: attrs.name, emailVerified: attrs.emailVerifiedAt != null }),
   });
 }
@@ -44,9 +46,9 @@ export function createAuth(db: Db, secure: boolean) {
   return {
     sessionCookieName: lucia.sessionCookieName,
     /** A new session with a fresh 200-bit token (ASVS 3.2.2 asks for at least 64 bits). */
-    async createSession(userId: string): Promise<NewSession> {
+    async createSession(userId: string, currentStudioId: string | null = null): Promise<NewSession> {
       const token = generateIdFromEntropySize(25);
-      const session = await lucia.createSession(userId, {}, { sessionId: sessionIdOf(token) });
+      const session = await lucia.createSession(userId, { currentStudioId }, { sessionId: sessionIdOf(token) });
       return { ...session, token };
     },
     /** The session and user for a cookie's token; lucia extends the session in its second half (`fresh`). */
@@ -64,5 +66,6 @@ declare module 'lucia' {
   interface Register {
     Lucia: ReturnType<typeof createLucia>;
     DatabaseUserAttributes: { email: string; name: string; emailVerifiedAt: Date | null };
+    DatabaseSessionAttributes: { currentStudioId: string | null };
   }
 }

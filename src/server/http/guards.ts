@@ -40,6 +40,11 @@ export function homePath(locals: Pick<Locals, 'studio'>): string {
   return '/library';
 }
 
+/** Where sign-in lands: the home of the studio worked in, or the studio chooser when there is none yet. */
+export function homeAfterSignIn(studio: Locals['studio']): string {
+  return studio ? homePath({ studio }) : '/studios';
+}
+
 /**
  * For pages: the signed-in studio user, or what to do instead (send to sign-in, or show 403).
  */

@@ -9,6 +9,7 @@ import { billingRoutes } from './routes-billing';
 import { mailRoutes } from './routes-mail';
 import { markingRoutes } from './routes-marking';
 import { captionRoutes } from './routes-captions';
+import { studioRoutes } from './routes-studios';
 
 /** Every API route, described from the same zod schemas the endpoints use. */
 export function openApiDocument() {
@@ -78,7 +79,7 @@ export function openApiDocument() {
     method: 'delete', path: '/api/lessons/{id}', summary: 'Delete a draft class (owner, coach)', request: { params: lessonIdParams },
     responses: { 204: { description: 'Deleted' }, ...errors(401, 403, 404, 409) },
   });
-  for (const extra of [...apiRoutes, ...billingRoutes, ...mailRoutes, ...markingRoutes, ...captionRoutes]) add(extra);
+  for (const extra of [...apiRoutes, ...billingRoutes, ...mailRoutes, ...markingRoutes, ...captionRoutes, ...studioRoutes]) add(extra);
 
   const document = new OpenApiGeneratorV31(registry.definitions).generateDocument({
     openapi: '3.1.0',

@@ -2,7 +2,7 @@ import { and, eq, ne, sql } from 'drizzle-orm';
 import type { RateLimiterRes } from 'rate-limiter-flexible';
 import { memberships, sessions, studios, users } from '~/db/schema';
 import type { ChangePasswordInput, Role, SignInInput, SignUpInput } from '~/lib/api/auth-schemas';
-import { AppError } from '../errors';
+import { AppError, notFound } from '../errors';
 import { consumeEach, pleaseWait } from '../http/rate-limit';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import type { AppDeps } from '../app';
@@ -36,6 +36,49 @@ function tooManyTries(res: RateLimiterRes): AppError {
     undefined,
     { retryAfterSeconds: Math.ceil(res.msBeforeNext / 1000) },
   );
+}
+
+/** A checked, not yet stored account: write `row` inside the caller's transaction, then `openFirstSession`. */
+export interface NewAccount {
+  userId: string;
+  row: typeof users.$inferInsert;
+}
+
+/**
+ * The checks of an account made together with a studio ("start a studio"): sign-up limits, a free
+ * e-mail, the password hash. Unlike sign-up it says when the address has an account, because the
+ * founder must then sign in to start the studio (see the note on account enumeration).
+ */
+export async function prepareAccount(deps: AppDeps, input: SignUpInput, address: string): Promise<NewAccount> {
+  await consumeEach(
+    [
+      [deps.limits.signUpPerAddress, address],
+      [deps.limits.signUpPerAccount, input.email],
+    ],
+    pleaseWait('sign-ups'),
+  );
+  const existing = await deps.db.query.users.findFirst({ where: sql`lower(${users.email}) = ${input.email}` });
+  if (existing) throw emailTaken();
+  const userId = newUserId();
+  return { userId, row: { id: userId, email: input.email, name: input.name, passwordHash: await hashPassword(input.password) } };
+}
+
+export const emailTaken = () =>
+  new AppError('conflict', 'An account with this e-mail already exists. Sign in first, then start your studio.', {
+    email: 'An account with this e-mail already exists. Sign in first, then start your studio.',
+  });
+
+/** A unique-index refusal (PostgreSQL 23505, as drizzle's wrapper or pg's own error): two founders racing for one e-mail or one studio address. */
+export const isUniqueViolation = (err: unknown) => {
+  const e = err as { code?: string; cause?: { code?: string } } | null;
+  return e?.code === '23505' || e?.cause?.code === '23505';
+};
+
+/** The new account's first session, working in `studioId`, and its confirmation e-mail. */
+export async function openFirstSession(deps: AppDeps, userId: string, studioId: string | null): Promise<NewSession> {
+  const session = await deps.auth.createSession(userId, studioId);
+  await deps.jobs('mail.verify-email', { userId });
+  return session;
 }
 
 /** The one answer to a sign-up, whether the address was new or already had an account. */
@@ -153,11 +196,24 @@ export async function studioAccess(deps: AppDeps, userId: string): Promise<Studi
 }
 
 /**
- * The studio a signed-in person acts in: the studio this deployment serves when they belong to
- * it, otherwise the first studio they belong to, or null. Middleware and both sign-ins use it, so
- * the landing page after sign-in and every later request agree.
+ * The studio a signed-in person works in: the one chosen in this session (while they still
+ * belong to it), or their only studio. Someone in several studios who has not chosen gets null
+ * and is asked to choose: never "the first one". Middleware and both sign-ins use it.
  */
-export async function resolveStudio(deps: AppDeps, userId: string): Promise<StudioAccess | null> {
-  const studios = await studioAccess(deps, userId);
-  return studios.find((s) => s.studioSlug === deps.studioSlug) ?? studios[0] ?? null;
+export async function resolveStudio(deps: AppDeps, userId: string, chosenStudioId: string | null = null): Promise<StudioAccess | null> {
+  return pickStudio(await studioAccess(deps, userId), chosenStudioId);
+}
+
+/** The choice rule on a list already read. */
+export function pickStudio(studios: StudioAccess[], chosenStudioId: string | null): StudioAccess | null {
+  const chosen = chosenStudioId ? studios.find((s) => s.studioId === chosenStudioId) : undefined;
+  return chosen ?? (studios.length === 1 ? studios[0]! : null);
+}
+
+/** Remembers the studio this session works in; a studio the person does not belong to is simply not there (404). */
+export async function chooseStudio(deps: AppDeps, session: { sessionId: string; userId: string }, studioId: string): Promise<StudioAccess> {
+  const access = (await studioAccess(deps, session.userId)).find((s) => s.studioId === studioId);
+  if (!access) throw notFound('That studio');
+  await deps.db.update(sessions).set({ currentStudioId: studioId }).where(and(eq(sessions.id, session.sessionId), eq(sessions.userId, session.userId)));
+  return access;
 }

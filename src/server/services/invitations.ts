@@ -252,7 +252,8 @@ export async function acceptWithNewAccount(
     await tx.insert(users).values({ id: userId, email: found.email!, name: input.name, passwordHash, emailVerifiedAt: new Date() });
     const inv = await claim(deps, tx, token, found.email!, userId);
     await tx.insert(memberships).values({ userId, studioId: inv.studioId, role: inv.role });
-    return inv.role;
+    return inv;
   });
-  return { session: await deps.auth.createSession(userId), role };
+  // The new account works in the studio that invited it.
+  return { session: await deps.auth.createSession(userId, role.studioId), role: role.role };
 }

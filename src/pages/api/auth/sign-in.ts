@@ -3,7 +3,7 @@ import { signedInOutput, signInInput } from '~/lib/api/auth-schemas';
 import { app } from '~/server/app';
 import { answer, endpoint, readJson } from '~/server/http/api';
 import { setSessionCookie } from '~/server/http/session-cookie';
-import { homePath } from '~/server/http/guards';
+import { homeAfterSignIn } from '~/server/http/guards';
 import { requestAddress } from '~/server/http/client-address';
 import { resolveStudio, signIn } from '~/server/services/accounts';
 
@@ -13,5 +13,5 @@ export const POST: APIRoute = endpoint(async (ctx) => {
   const deps = app();
   const session = await signIn(deps, input, requestAddress(ctx));
   setSessionCookie(cookies, deps.auth, session);
-  return answer(signedInOutput, { userId: session.userId, home: homePath({ studio: await resolveStudio(deps, session.userId) }) });
+  return answer(signedInOutput, { userId: session.userId, home: homeAfterSignIn(await resolveStudio(deps, session.userId)) });
 });
