@@ -1,0 +1,73 @@
+// A visitor starts a studio through the real /start form (a refused colour shown at its field
+// first), lands on the first-class checklist with the studio's join link, and the session works
+// in the new studio. JavaScript is on, so the form offers the browser's own time zone, which the
+// test sets (Europe/Lisbon, invented for the test) and then finds stored.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { eq } from 'drizzle-orm';
+import type { Browser } from 'playwright-core';
+import { BASE } from '../helpers/api-client';
+import { launchBrowser, SHOTS } from '../helpers/browser';
+import { createAppDeps } from '~/server/app';
+import { billingSettings, memberships, studios } from '~/db/schema';
+
+const deps = createAppDeps(process.env.DATABASE_URL!);
+let browser: Browser;
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  await browser?.close();
+  await deps.pool.end();
+});
+
+describe('start a studio in the browser', () => {
+  it('a visitor fills in the form, is told about an unreadable colour, then lands on the checklist with the join link', async () => {
+    const context = await browser.newContext({ timezoneId: 'Europe/Lisbon' });
+    const page = await context.newPage();
+    const run = Date.now().toString(36);
+    const slug = `story-${run}`;
+    try {
+      await page.goto(BASE() + '/start');
+      // The browser's zone is offered as the default.
+      expect(await page.getByLabel('Time zone').inputValue()).toBe('Europe/Lisbon');
+      await page.getByLabel('Your name').fill('Story Founder');
+      await page.getByLabel('E-mail').fill(`founder-${run}@story.example`);
+      await page.getByLabel('Password').fill('a long enough password');
+      await page.getByLabel('Studio name').fill('Story Pilates');
+      await page.getByLabel('Address').fill(slug);
+      await page.getByLabel('Currency').selectOption('gbp');
+      await page.getByLabel('Monthly price').fill('12.50');
+      await page.getByLabel('Free trial (days)').fill('10');
+      // A mid grey neither white nor ink text reaches 4.5:1 on (WCAG 2.2 AA; worked in tests/unit/studio-rules.test.ts).
+      await page.getByLabel('Accent colour').fill('#6f7a89');
+      await page.getByRole('button', { name: 'Start my studio' }).click();
+      const colourError = page.locator('[data-field-error="accentColour"]');
+      await colourError.waitFor();
+      expect(await colourError.textContent()).toContain('WCAG 2.2 AA asks for 4.5:1');
+      expect(await deps.db.select().from(studios).where(eq(studios.slug, slug))).toHaveLength(0);
+
+      await page.getByLabel('Password').fill('a long enough password');
+      await page.getByLabel('Accent colour').fill('#2e5e4e');
+      await page.getByRole('button', { name: 'Start my studio' }).click();
+      await page.waitForURL((u) => u.pathname === '/studio/welcome');
+      await page.getByTestId('first-class-checklist').waitFor();
+      expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('Welcome to Story Pilates');
+      expect(await page.getByTestId('join-link').inputValue()).toBe(`${BASE()}/s/${slug}/join`);
+      expect(await page.locator('[data-step-done="true"]').count()).toBe(0);
+      await page.screenshot({ path: `${SHOTS}/start-studio-checklist.png`, fullPage: true });
+
+      const [studio] = await deps.db.select().from(studios).where(eq(studios.slug, slug));
+      expect(studio).toMatchObject({ name: 'Story Pilates', timeZone: 'Europe/Lisbon', accentColour: '#2E5E4E' });
+      const [offer] = await deps.db.select().from(billingSettings).where(eq(billingSettings.studioId, studio!.id));
+      expect(offer).toMatchObject({ currency: 'gbp', monthlyPriceMinor: 1250, trialDays: 10 });
+      const owners = await deps.db.select().from(memberships).where(eq(memberships.studioId, studio!.id));
+      expect(owners.map((m) => m.role)).toEqual(['owner']);
+
+      // The staff pages work in the new studio: its (empty) class list, not Fernhill's.
+      await page.goto(BASE() + '/studio/classes');
+      expect(await page.content()).not.toContain('Lunch-hour Ladder');
+    } finally {
+      await context.close();
+    }
+  });
+});
