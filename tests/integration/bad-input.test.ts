@@ -142,11 +142,22 @@ describe('numbers past their columns', () => {
     expect(timeline.fields!.version).toBeDefined();
   });
 
+  it('refuses a recording length too small for its 4-byte real column (1e-300), and changes nothing', async () => {
+    const before = await (await coach.get(`/api/lessons/${cls.lessonId}`)).json();
+    const error = await expectError(await coach.patch(`/api/lessons/${cls.lessonId}`, { version: before.version, mediaSeconds: 1e-300 }), 400);
+    expect(error.fields!.mediaSeconds).toMatch(/at least a millisecond/);
+    const after = await (await coach.get(`/api/lessons/${cls.lessonId}`)).json();
+    expect(after).toEqual(before);
+  });
+
   it('refuses progress positions past a day, which a 4-byte real cannot even hold at 1e300', async () => {
     for (const body of [
       { positionSeconds: 1, fromSeconds: 1e300, event: 'seek' },
       { positionSeconds: 1, watched: [[0, 1e300]] },
       { positionSeconds: 1e39 },
+      // Found by tests/integration/openapi-fuzz.test.ts: too small for a 4-byte real as well.
+      { positionSeconds: 1e-300 },
+      { positionSeconds: 1, watched: [[0, 1e-300]] },
     ]) {
       await expectError(await member.post(`/api/lessons/${cls.lessonId}/progress`, body), 400);
     }

@@ -1,7 +1,12 @@
 import { z } from 'zod';
 
 /** Play positions: never negative, never past a day (the longest class); the service also clamps them to the class's length. */
-const playSeconds = z.number().nonnegative().max(24 * 3600, { error: 'A position is at most 24 hours into the class.' });
+const playSeconds = z
+  .number()
+  .nonnegative()
+  .max(24 * 3600, { error: 'A position is at most 24 hours into the class.' })
+  // Stored as 4-byte floats, which cannot hold tiny values such as 1e-300 (they underflow).
+  .refine((seconds) => seconds === 0 || seconds >= 0.001, { error: 'A position is 0 or at least a millisecond into the class.' });
 
 export const publishInput = z
   .object({
