@@ -42,7 +42,8 @@ export default defineConfig({
           setupFiles: ['tests/e2e/browser-checks-setup.ts'],
           environment: 'node',
           testTimeout: 180_000,
-          hookTimeout: 240_000,
+          // Long enough for ensureDeskBreakPublished (demo recording made on the machine, up to 5 min).
+          hookTimeout: 360_000,
           poolOptions: { forks: { singleFork: true } },
         },
       },
