@@ -30,3 +30,18 @@ describe('the staff class page', () => {
     expect(html).not.toContain('Upload the recording and wait until it is ready.');
   });
 });
+
+describe('a class page that is not there', () => {
+  it('answers 404 with the product’s page and a way back, for members and staff', async () => {
+    const member = await signedIn(DEMO.member);
+    const res = await member.get('/classes/no-such-class-here');
+    expect(res.status).toBe(404);
+    const html = await res.text();
+    expect(html).toContain("We can't find that page");
+    expect(html).toContain('href="/library"');
+    const coach = await signedIn(DEMO.coach);
+    const staff = await coach.get('/studio/classes/00000000-0000-4000-8000-000000000000');
+    expect(staff.status).toBe(404);
+    expect(await staff.text()).toContain('href="/studio"');
+  });
+});
