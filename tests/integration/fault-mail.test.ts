@@ -63,6 +63,10 @@ describe('SMTP server down', () => {
     await waitUntil('the retried mail job to complete', async () => (await mailJob(versionId))?.state === 'completed', 120_000, 250);
     for (const m of members) await waitForMessage(m.email, { timeoutMs: 30_000, match: (e) => (e.subject ?? '').includes(title) });
     const arrived = (await listMessages()).filter((e) => (e.subject ?? '').includes(title));
-    expect(arrived.flatMap((e) => e.to).sort()).toEqual(members.map((m) => m.email).sort());
+    // Other opted-in members of the studio (made by other test files) get the class's mail too;
+    // what must hold is that each of these members got it, and that nobody got it twice.
+    const recipients = arrived.flatMap((e) => e.to);
+    for (const m of members) expect(recipients.filter((to) => to === m.email), m.email).toHaveLength(1);
+    expect(recipients.length, recipients.join(', ')).toBe(new Set(recipients).size);
   }, 300_000);
 });
