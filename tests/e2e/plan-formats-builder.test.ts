@@ -20,7 +20,17 @@ afterAll(async () => {
 });
 
 interface StoredPlan {
-  plan: { blocks: { kind: string; minutes?: number; workSeconds?: number; exercises?: string[]; stations?: { exercise: string; perSide?: boolean; switchSeconds?: number }[] }[] } | null;
+  plan: {
+    blocks: {
+      kind: string;
+      minutes?: number;
+      workSeconds?: number;
+      exercises?: string[];
+      perSide?: boolean;
+      switchSeconds?: number;
+      stations?: { exercise: string; perSide?: boolean; switchSeconds?: number }[];
+    }[];
+  } | null;
   schedule: { totals: { classSeconds: number } } | null;
 }
 
@@ -82,6 +92,70 @@ describe('the plan builder with the formats coaches teach', () => {
     expect(stored.plan?.blocks[1]).toMatchObject({ minutes: 12, workSeconds: 40, exercises: ['Formats e2e swing', 'Formats e2e burpee'] });
     expect(stored.plan?.blocks[2]?.stations?.[1]).toMatchObject({ exercise: 'Formats e2e side lunge', perSide: true, switchSeconds: 10 });
     expect(stored.schedule?.totals.classSeconds).toBe(29 * 60 + 30);
+    expect(pageErrors).toEqual([]);
+    await context.close();
+  }, 120_000);
+
+  it('builds intervals done per side and an AMRAP with its exercises, and saves them', async () => {
+    const { context, page } = await signedInPage(browser, DEMO.coach, { viewport: { width: 1366, height: 900 } });
+    const pageErrors: string[] = [];
+    page.on('pageerror', (e) => pageErrors.push(e.message));
+    await page.goto(BASE() + '/studio/classes');
+    await page.getByLabel('Title').fill('Sides and AMRAP builder check');
+    await page.getByLabel('Advertised length (minutes)').fill('20');
+    await page.getByRole('button', { name: 'Create class' }).click();
+    await page.waitForURL(/\/studio\/classes\/[0-9a-f-]{36}/);
+    const lessonId = page.url().split('/').pop()!;
+    const plan = page.locator('[data-plan-builder]');
+    await plan.waitFor();
+
+    // Intervals of one move done per side: 8 sets of 20 s work and 10 s rest to start with.
+    await page.getByRole('button', { name: '+ Intervals' }).click();
+    const intervals = page.locator('[data-plan-block="intervals"]');
+    await intervals.getByLabel('Exercise', { exact: true }).fill('Formats e2e single-leg deadlift');
+    await intervals.getByLabel('Sets').fill('4');
+    await intervals.getByLabel('Work (s)').fill('30');
+    await intervals.getByLabel('Rest (s)').fill('20');
+    // 4 × 30 + 3 × 20 (the final rest dropped by default) = 180 s, worked by hand.
+    await expect.poll(() => intervals.locator('[data-block-length]').textContent()).toBe('3:00');
+    await intervals.getByLabel('Per side').check();
+    const pause = intervals.getByLabel('Switch pause (s)');
+    expect(await pause.inputValue()).toBe('5');
+    // Each set becomes left 30 + switch 5 + right 30: 4 × 65 + 3 × 20 = 320 s = 5:20.
+    await expect.poll(() => intervals.locator('[data-block-length]').textContent()).toBe('5:20');
+    // Keyboard: the pause field takes a typed value too.
+    await pause.fill('');
+    await pause.press('1');
+    await pause.press('0');
+    // 4 × 70 + 60 = 340 s = 5:40.
+    await expect.poll(() => intervals.locator('[data-block-length]').textContent()).toBe('5:40');
+
+    // An AMRAP whose exercises come from the studio's list (type-ahead), one new name.
+    await page.getByRole('button', { name: '+ AMRAP' }).click();
+    const amrap = page.locator('[data-plan-block="amrap"]');
+    await amrap.getByLabel('Length (seconds)').fill('600');
+    await amrap.getByLabel('Exercise 1', { exact: true }).fill('Formats e2e thruster');
+    await amrap.getByLabel('Exercise 2', { exact: true }).fill('Formats e2e box step');
+    await amrap.getByRole('button', { name: 'Remove exercise 3' }).click();
+    await expect.poll(() => amrap.locator('[data-exercise-input]').count()).toBe(2);
+    await expect.poll(() => amrap.locator('[data-block-length]').textContent()).toBe('10:00');
+    // Warm-up 5:00 + intervals 5:40 + AMRAP 10:00 = 20:40, within 20 min ± 10 %.
+    await expect.poll(() => plan.locator('[data-planned-total]').textContent()).toBe('20:40');
+
+    await page.getByRole('button', { name: 'Save plan' }).click();
+    await expect.poll(() => plan.locator('[data-plan-save-state]').getAttribute('data-plan-save-state')).toBe('saved');
+    const stored = (await (await api.get(`/api/lessons/${lessonId}/plan`)).json()) as StoredPlan;
+    expect(stored.plan?.blocks.map((b) => b.kind)).toEqual(['warmup', 'intervals', 'amrap']);
+    expect(stored.plan?.blocks[1]).toMatchObject({ perSide: true, switchSeconds: 10, workSeconds: 30 });
+    expect(stored.plan?.blocks[2]).toMatchObject({ exercises: ['Formats e2e thruster', 'Formats e2e box step'] });
+    expect(stored.schedule?.totals.classSeconds).toBe(20 * 60 + 40);
+
+    // After a reload the builder shows the sides again.
+    await page.reload();
+    await plan.waitFor();
+    const reloaded = page.locator('[data-plan-block="intervals"]');
+    await expect.poll(() => reloaded.getByLabel('Per side').isChecked()).toBe(true);
+    expect(await reloaded.getByLabel('Switch pause (s)').inputValue()).toBe('10');
     expect(pageErrors).toEqual([]);
     await context.close();
   }, 120_000);

@@ -59,6 +59,8 @@ export type ExpectedSchedule = z.infer<typeof expectedScheduleSchema>;
  * - a station done per side is left work, the switch pause (a rest marked left), right work,
  *   then the station's rest (marked right); a switch pause of 0 is not emitted.
  * Intervals: each set is work then rest; `dropFinalRest: true` leaves out the last set's rest.
+ * Intervals done per side: each set is left work, the switch pause (a rest marked left), right
+ * work, then the set's rest (marked right), exactly as a station done per side.
  * AMRAP: one work span of the block's seconds (format `amrap`).
  * EMOM: per minute (= round), the work at the top of the minute and the rest of the minute as
  * rest (format `emom`); the last minute's rest is kept whatever `dropFinalRest` says, since an
@@ -111,13 +113,21 @@ export function expandPlan(plan: Plan, startSeconds = 0): ExpectedSchedule {
       case 'talk':
         push(block.kind, block.seconds, blockIndex, block.kind);
         break;
-      case 'intervals':
+      case 'intervals': {
+        const perSide = block.perSide === true;
         for (let set = 1; set <= block.sets; set++) {
           const place = { stationIndex: 0, exercise: block.exercise, set };
-          push('work', block.workSeconds, blockIndex, 'intervals', place);
-          if (!(dropFinalRest && set === block.sets)) push('rest', block.restSeconds, blockIndex, 'intervals', place);
+          if (perSide) {
+            // As a station done per side: left, the switch pause (the left side's rest), then right.
+            push('work', block.workSeconds, blockIndex, 'intervals', { ...place, side: 'left' });
+            push('rest', block.switchSeconds ?? 0, blockIndex, 'intervals', { ...place, side: 'left' });
+          }
+          const last = { ...place, ...(perSide ? { side: 'right' as const } : {}) };
+          push('work', block.workSeconds, blockIndex, 'intervals', last);
+          if (!(dropFinalRest && set === block.sets)) push('rest', block.restSeconds, blockIndex, 'intervals', last);
         }
         break;
+      }
       case 'amrap':
         // One timed span; the exercises are repeated inside it, not marked one by one.
         push('work', block.seconds, blockIndex, 'amrap', { format: 'amrap' });

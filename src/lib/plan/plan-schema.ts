@@ -49,23 +49,36 @@ const blockTitle = z
   .optional()
   .describe('Optional title shown for this block.');
 
+/**
+ * "Per side" and the switch pause, shared by a circuit's station and an intervals block: the
+ * move is done on the left, then on the right, each for the work seconds.
+ */
+const perSideFields = (what: string) => ({
+  perSide: z
+    .boolean({ error: 'Per side must be true or false.' })
+    .optional()
+    .describe(`When true, ${what} is done on the left, then on the right, each for its work seconds.`),
+  switchSeconds: secondsOrZero('The switch pause')
+    .optional()
+    .describe('Per-side only: seconds of pause between the left and the right side (0 or left out for none).'),
+});
+
+/** A switch pause without "per side" would be planned time nobody does. */
+const switchNeedsPerSide = (s: { perSide?: boolean | undefined; switchSeconds?: number | undefined }): boolean =>
+  s.perSide === true || !s.switchSeconds;
+const switchNeedsPerSideMessage = (what: string) => ({
+  error: `A switch pause is only for ${what} done per side: turn on "per side" or set the pause to 0.`,
+  path: ['switchSeconds'],
+});
+
 export const stationSchema = z
   .object({
     exercise: exerciseNameSchema,
     workSeconds: seconds('Work').describe('Seconds of work at this station (per side when done per side).'),
     restSeconds: secondsOrZero('Rest').describe('Seconds of rest after this station (0 for none).'),
-    perSide: z
-      .boolean({ error: 'Per side must be true or false.' })
-      .optional()
-      .describe('When true, the station is done on the left, then on the right, each for its work seconds.'),
-    switchSeconds: secondsOrZero('The switch pause')
-      .optional()
-      .describe('Per-side stations only: seconds of pause between the left and the right side (0 or left out for none).'),
+    ...perSideFields('the station'),
   })
-  .refine((s) => s.perSide === true || !s.switchSeconds, {
-    error: 'A switch pause is only for a station done per side: turn on "per side" or set the pause to 0.',
-    path: ['switchSeconds'],
-  })
+  .refine(switchNeedsPerSide, switchNeedsPerSideMessage('a station'))
   .describe('One move inside a circuit, with its work and rest seconds.');
 
 /** Every exercise list (AMRAP, EMOM) has the same bounds and the same words. */
@@ -193,11 +206,13 @@ export const intervalsBlockSchema = z
       .min(1, { error: 'Intervals need at least 1 set.' })
       .max(MAX_SETS, { error: `Intervals can have at most ${MAX_SETS} sets.` })
       .describe('Number of work/rest sets.'),
-    workSeconds: seconds('Work').describe('Seconds of work in each set.'),
+    workSeconds: seconds('Work').describe('Seconds of work in each set (per side when done per side).'),
     restSeconds: secondsOrZero('Rest').describe('Seconds of rest after each set.'),
+    ...perSideFields('every set'),
     title: blockTitle,
   })
-  .describe('Intervals: one exercise, work and rest repeated for a number of sets.');
+  .refine(switchNeedsPerSide, switchNeedsPerSideMessage('intervals'))
+  .describe('Intervals: one exercise, work and rest repeated for a number of sets (each set left, then right, when done per side).');
 
 export const planBlockSchema = z
   .discriminatedUnion('kind', [
@@ -299,7 +314,8 @@ export function blockPlannedSeconds(block: PlanBlock, options: PlanOptions): num
       return block.seconds;
     case 'intervals': {
       const rest = block.restSeconds * (options.dropFinalRest ? block.sets - 1 : block.sets);
-      return block.workSeconds * block.sets + rest;
+      const set = block.perSide === true ? block.workSeconds * 2 + (block.switchSeconds ?? 0) : block.workSeconds;
+      return set * block.sets + rest;
     }
     case 'amrap':
       return block.seconds;
@@ -394,7 +410,7 @@ function checkRoundChanges(block: CircuitBlock, blockIndex: number, ctx: z.Refin
 function blockSegmentCount(block: PlanBlock): number {
   // A station done per side is at most four (left, switch pause, right, rest).
   if (block.kind === 'circuit') return block.rounds * (block.stations.length * 4 + 1);
-  if (block.kind === 'intervals') return block.sets * 2;
+  if (block.kind === 'intervals') return block.sets * (block.perSide === true ? 4 : 2);
   if (block.kind === 'emom') return block.minutes * 2;
   return 1;
 }

@@ -62,7 +62,7 @@ interface CountedUnits {
 
 /**
  * Circuits count rounds (a round has one work per station, two per station done per side),
- * intervals count sets, an EMOM counts minutes; an AMRAP is one span, so a missing one is
+ * intervals count sets (two work spans a set when done per side), an EMOM counts minutes; an AMRAP is one span, so a missing one is
  * reported like a missing station. Warm-up, cool-down and talk are matched elsewhere.
  */
 function countedUnits(block: PlanBlock, blockIndex: number): CountedUnits | undefined {
@@ -80,7 +80,7 @@ function countedUnits(block: PlanBlock, blockIndex: number): CountedUnits | unde
     case 'emom':
       return { unitsPlanned: block.minutes, unitSize: 1, unit: 'minute', name: `EMOM (block ${blockIndex + 1})`, keys: perRound(block.minutes), unitsPerKey: 1 };
     case 'intervals':
-      return { unitsPlanned: block.sets, unitSize: block.sets, unit: 'set', name: `${block.exercise} intervals (block ${blockIndex + 1})`, keys: [`${blockIndex}:sets`], unitsPerKey: block.sets };
+      return { unitsPlanned: block.sets, unitSize: block.sets * (block.perSide === true ? 2 : 1), unit: 'set', name: `${block.exercise} intervals (block ${blockIndex + 1})`, keys: [`${blockIndex}:sets`], unitsPerKey: block.sets };
     case 'amrap':
       return { unitsPlanned: 1, unitSize: 1, unit: 'set', name: `AMRAP (block ${blockIndex + 1})`, keys: [`${blockIndex}:sets`], unitsPerKey: 0 };
     default:

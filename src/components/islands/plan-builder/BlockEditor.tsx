@@ -39,6 +39,7 @@ export default function BlockEditor(p: BlockEditorProps) {
           <NumberField label="Sets" value={b.sets} onChange={(v) => p.onChange({ ...b, sets: v as number })} error={err('sets')} min={1} />
           <NumberField label="Work (s)" value={b.workSeconds} onChange={(v) => p.onChange({ ...b, workSeconds: v as number })} error={err('workSeconds')} min={1} />
           <NumberField label="Rest (s)" value={b.restSeconds} onChange={(v) => p.onChange({ ...b, restSeconds: v as number })} error={err('restSeconds')} />
+          <PerSideFields value={b} error={err('switchSeconds')} onChange={(next) => p.onChange(withSides(b, next))} hint="Each set: left, pause, then right." />
         </div>
       );
     case 'circuit':
@@ -125,7 +126,7 @@ function CircuitEditor(p: BlockEditorProps & { block: Circuit }) {
               />
               <NumberField label="Work (s)" value={s.workSeconds} onChange={(v) => setStation(i, { ...s, workSeconds: v as number })} error={err(`stations.${i}.workSeconds`)} min={1} />
               <NumberField label="Rest (s)" value={s.restSeconds} onChange={(v) => setStation(i, { ...s, restSeconds: v as number })} error={err(`stations.${i}.restSeconds`)} />
-              <StationSides station={s} index={i} error={err(`stations.${i}.switchSeconds`)} onChange={(next) => setStation(i, next)} />
+              <PerSideFields value={s} error={err(`stations.${i}.switchSeconds`)} hint="Left, pause, then right." onChange={(next) => setStation(i, withSides(s, next))} />
               <div className="flex flex-wrap gap-1 self-end pb-1">
                 <button type="button" className={smallButton} onClick={() => setStations(moveItem(b.stations, i, i - 1))} disabled={i === 0} aria-label={`Move station ${i + 1} up`}>↑</button>
                 <button type="button" className={smallButton} onClick={() => setStations(moveItem(b.stations, i, i + 1))} disabled={i === b.stations.length - 1} aria-label={`Move station ${i + 1} down`}>↓</button>
@@ -150,29 +151,39 @@ function CircuitEditor(p: BlockEditorProps & { block: Circuit }) {
   );
 }
 
-/** "Per side" (left, then right, each for the work seconds) and the pause to switch sides. */
-function StationSides(p: { station: Station; index: number; error: string | undefined; onChange(station: Station): void }) {
-  const s = p.station;
+type PerSide = { perSide?: boolean | undefined; switchSeconds?: number | undefined };
+
+/**
+ * "Per side" (left, then right, each for the work seconds) and the pause to switch sides, for a
+ * station or an intervals block. `onChange` gets the two fields (left out when not per side).
+ */
+function PerSideFields(p: { value: PerSide; error: string | undefined; hint: string; onChange(next: PerSide): void }) {
+  const s = p.value;
   return (
-    <div className="flex flex-col gap-1">
+    <div className="flex flex-col gap-1" data-per-side>
       <label className="inline-flex items-center gap-2 pt-6 text-sm font-semibold">
         <input
           type="checkbox"
           className="h-4 w-4 accent-ink"
           checked={s.perSide === true}
           onChange={(e) => {
-            const { perSide: _perSide, switchSeconds: _switch, ...rest } = s;
             // A 5 s pause to change sides is a starting value (common practice, no source); the coach edits it.
-            p.onChange(e.target.checked ? { ...rest, perSide: true, switchSeconds: s.switchSeconds ?? 5 } : rest);
+            p.onChange(e.target.checked ? { perSide: true, switchSeconds: s.switchSeconds ?? 5 } : { perSide: undefined, switchSeconds: undefined });
           }}
         />
         Per side
       </label>
       {s.perSide === true && (
-        <NumberField label="Switch pause (s)" value={s.switchSeconds} onChange={(v) => p.onChange({ ...s, switchSeconds: v })} error={p.error} hint="Left, pause, then right." />
+        <NumberField label="Switch pause (s)" value={s.switchSeconds} onChange={(v) => p.onChange({ perSide: true, switchSeconds: v })} error={p.error} hint={p.hint} />
       )}
     </div>
   );
+}
+
+/** Drops the per-side fields a coach turned off, so the saved plan has no empty keys. */
+function withSides<T extends PerSide>(item: T, next: PerSide): T {
+  const { perSide: _perSide, switchSeconds: _switch, ...rest } = item;
+  return { ...rest, ...(next.perSide ? { perSide: true, switchSeconds: next.switchSeconds } : {}) } as T;
 }
 
 /**
