@@ -10,5 +10,7 @@ declare namespace App {
     studio: import('./server/services/accounts').StudioAccess | null;
     /** Every studio the person belongs to (the switcher lists them). */
     studios: import('./server/services/accounts').StudioAccess[];
+    /** The studio a `/s/{slug}/…` address names (visitors too), or null elsewhere. */
+    pageStudio: import('./server/services/studio-identity').PublicStudio | null;
   }
 }

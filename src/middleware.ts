@@ -2,6 +2,7 @@ import { defineMiddleware } from 'astro:middleware';
 import type { APIContext, MiddlewareNext } from 'astro';
 import { app } from './server/app';
 import { pickStudio, studioAccess } from './server/services/accounts';
+import { studioAtAddress } from './server/services/studio-identity';
 import { isRouteId } from './lib/api/route-params';
 import { bodyLimitFor, errorResponse, tooLarge } from './server/http/api';
 import { notFound } from './server/errors';
@@ -54,6 +55,7 @@ const handle = async (context: APIContext, next: MiddlewareNext): Promise<Respon
   context.locals.session = null;
   context.locals.studio = null;
   context.locals.studios = [];
+  context.locals.pageStudio = null;
   const deps = app();
   // The cookie carries the session's token; the database knows only its hash (src/server/auth/lucia.ts).
   const token = context.cookies.get(deps.auth.sessionCookieName)?.value ?? null;
@@ -76,6 +78,20 @@ const handle = async (context: APIContext, next: MiddlewareNext): Promise<Respon
       if (!context.locals.studio && context.locals.studios.length > 1 && needsStudio(context.url.pathname)) {
         return context.redirect(`/studios?next=${encodeURIComponent(context.url.pathname + context.url.search)}`);
       }
+    }
+  }
+  // Member-facing pages live under the studio's address; an address the studio left redirects for good.
+  const address = /^\/s\/([A-Za-z0-9-]{1,80})(\/.*)?$/.exec(context.url.pathname);
+  if (address) {
+    const found = await studioAtAddress(deps, address[1]!.toLowerCase());
+    if (found && 'movedTo' in found) {
+      return early(new Response(null, { status: 308, headers: { location: `/s/${found.movedTo}${address[2] ?? ''}${context.url.search}` } }));
+    }
+    if (found) {
+      context.locals.pageStudio = found.studio;
+      // On a studio's pages a person works in that studio (for this request; the session's choice stays).
+      const mine = context.locals.studios.find((s) => s.studioId === found.studio.id);
+      if (mine) context.locals.studio = mine;
     }
   }
   let response = await next();

@@ -7,8 +7,11 @@ import { requireActor } from '~/server/http/guards';
 import { billingDeps } from '~/server/payments/billing-deps';
 import { createPromo, setPromoCodeActive, updateMembershipSettings } from '~/server/use-cases/studio-billing';
 import { inviteToTeam, withdrawInvitation } from '~/server/use-cases/team';
-import { studioClockInput } from '~/lib/api/studio-schemas';
-import { updateStudioClock } from '~/server/use-cases/studio-settings';
+import { studioClockInput, studioIdentityInput } from '~/lib/api/studio-schemas';
+import { changeStudioIdentity, deleteStudioLogo, updateStudioClock, uploadStudioLogo } from '~/server/use-cases/studio-settings';
+import { AppError } from '~/server/errors';
+import { storage } from '~/server/storage';
+import { MAX_LOGO_UPLOAD_BYTES } from '~/lib/studios/studio-logo';
 import { clockOf } from '~/lib/time/date-format';
 import { wallClockToInstant } from '~/lib/time/wall-clock';
 import { formAction, formValues } from './form-action';
@@ -25,6 +28,32 @@ export const studioActions = {
     const actor = requireActor(locals);
     const saved = await updateStudioClock(actor, app(), parseWith(studioClockInput, formValues(form)));
     return `Saved. Dates now read in ${saved.timeZone}; scheduled publishes keep their moment.`;
+  }),
+
+  /** "Name, address and colour" on the studio settings page. */
+  updateStudioIdentity: formAction(async (form, { locals }) => {
+    const actor = requireActor(locals);
+    const saved = await changeStudioIdentity(actor, app(), parseWith(studioIdentityInput, formValues(form)));
+    if (locals.studio) locals.studio = { ...locals.studio, studioName: saved.name, studioSlug: saved.slug }; // this page's header
+    return `Saved. Your studio’s address is /s/${saved.slug}; links to an address it had before lead there too.`;
+  }),
+
+  /** "Logo" on the studio settings page: the chosen file, checked by its bytes. */
+  uploadStudioLogo: formAction(async (form, { locals }) => {
+    const actor = requireActor(locals);
+    const file = form.get('logo');
+    if (!(file instanceof File) || file.size === 0) throw new AppError('invalid_input', 'Choose a picture file for the logo.', { logo: 'Choose a .png, .jpg or .webp picture.' });
+    if (file.size > MAX_LOGO_UPLOAD_BYTES) throw new AppError('too_large', 'That picture is larger than 2 MB. Choose a smaller file.', { logo: 'At most 2 MB.' });
+    const saved = await uploadStudioLogo(actor, app(), storage(), new Uint8Array(await file.arrayBuffer()));
+    if (locals.studio) locals.studio = { ...locals.studio, logoUrl: saved.logoUrl };
+    return 'Logo saved. It shows in the header and on your studio’s page.';
+  }),
+
+  /** "Remove logo" on the studio settings page. */
+  removeStudioLogo: formAction(async (_form, { locals }) => {
+    await deleteStudioLogo(requireActor(locals), app(), storage());
+    if (locals.studio) locals.studio = { ...locals.studio, logoUrl: null };
+    return 'Logo removed.';
   }),
 
   /** "Invite someone" on the team page. */

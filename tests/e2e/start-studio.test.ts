@@ -1,10 +1,12 @@
 // A visitor starts a studio through the real /start form (a refused colour shown at its field
 // first), lands on the first-class checklist with the studio's join link, and the session works
-// in the new studio. JavaScript is on, so the form offers the browser's own time zone, which the
+// in the new studio; later the owner renames it, moves its address (the old link still leads
+// there) and uploads a logo on the settings page. JavaScript is on, so the form offers the browser's own time zone, which the
 // test sets (Europe/Lisbon, invented for the test) and then finds stored.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import type { Browser } from 'playwright-core';
+import sharp from 'sharp';
 import { BASE } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
 import { createAppDeps } from '~/server/app';
@@ -66,6 +68,30 @@ describe('start a studio in the browser', () => {
       // The staff pages work in the new studio: its (empty) class list, not Fernhill's.
       await page.goto(BASE() + '/studio/classes');
       expect(await page.content()).not.toContain('Lunch-hour Ladder');
+
+      // Later the owner renames the studio, moves its address and adds a logo on the settings page.
+      await page.getByRole('link', { name: 'Settings' }).first().click();
+      await page.waitForURL((u) => u.pathname === '/studio/settings');
+      const moved = `${slug}-moved`;
+      await page.getByLabel('Studio name').fill('Story Pilates & Barre');
+      await page.getByRole('textbox', { name: 'Address' }).fill(moved);
+      await page.getByRole('button', { name: 'Save name, address and colour' }).click();
+      await page.getByText(`Your studio’s address is /s/${moved}`).waitFor();
+      expect(await page.getByTestId('studio-address').textContent()).toBe(`${BASE()}/s/${moved}`);
+      // An invented logo: a 600 × 300 PNG made here.
+      const logo = await sharp({ create: { width: 600, height: 300, channels: 4, background: { r: 46, g: 94, b: 78, alpha: 1 } } }).png().toBuffer();
+      await page.getByLabel('Logo picture').setInputFiles({ name: 'story-logo.png', mimeType: 'image/png', buffer: logo });
+      await page.getByRole('button', { name: 'Upload logo' }).click();
+      await page.getByText('Logo saved.').waitFor();
+      const headerLogo = page.locator('header img[data-studio-logo]');
+      await headerLogo.waitFor();
+      expect(await headerLogo.evaluate((img: HTMLImageElement) => [img.complete, img.naturalWidth, img.naturalHeight])).toEqual([true, 256, 128]);
+      // A link to the old address leads to the moved studio's page, which shows the logo.
+      await page.goto(`${BASE()}/s/${slug}`);
+      expect(new URL(page.url()).pathname).toBe(`/s/${moved}`);
+      await page.locator('img[data-studio-page-logo]').waitFor();
+      expect(await page.getByText('Story Pilates & Barre').first().isVisible()).toBe(true);
+      await page.screenshot({ path: `${SHOTS}/studio-page-after-move.png`, fullPage: true });
     } finally {
       await context.close();
     }

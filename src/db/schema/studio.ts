@@ -14,6 +14,8 @@ export const studios = pgTable('studios', {
   locale: text().notNull().default('en-GB'),
   /** Behind button and badge text on the studio's pages; white or ink text on it reaches 4.5:1 (lib/studios/studio-rules.ts). */
   accentColour: text().notNull().default('#B93A17'),
+  /** File name of the studio's logo in the object store (lib/studios/studio-logo.ts), or null; a new name on every upload. */
+  logoFile: text(),
   createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
 });
 

@@ -62,7 +62,7 @@ export const signedOutOutput = z.object({ signedOut: z.boolean() }).meta({ id: '
 export const meOutput = z
   .object({
     user: z.object({ id: z.string(), email: z.string(), name: z.string() }),
-    studio: z.object({ studioId: z.string(), studioSlug: z.string(), studioName: z.string(), timeZone: z.string().describe('IANA time zone the studio reads dates in'), locale: z.string().describe('BCP 47 locale of its dates'), roles: z.array(z.enum(roles)) }).nullable(),
+    studio: z.object({ studioId: z.string(), studioSlug: z.string(), studioName: z.string(), timeZone: z.string().describe('IANA time zone the studio reads dates in'), locale: z.string().describe('BCP 47 locale of its dates'), logoUrl: z.string().nullable().describe('The studio’s logo, or null'), roles: z.array(z.enum(roles)) }).nullable(),
   })
   .meta({ id: 'Me' });
 export type MeOutput = z.infer<typeof meOutput>;

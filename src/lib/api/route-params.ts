@@ -17,3 +17,4 @@ export const recordingIdParams = idParams('Recording');
 export const promoCodeIdParams = idParams('Promo code');
 export const invitationIdParams = idParams('Invitation');
 export const exerciseIdParams = idParams('Exercise');
+export const studioIdParams = idParams('Studio');

@@ -88,6 +88,17 @@ export type StartStudioInput = z.infer<typeof startStudioInput>;
 export const studioIdentityInput = startStudioInput.pick({ name: true, slug: true, accentColour: true }).meta({ id: 'StudioIdentityInput' });
 export type StudioIdentityInput = z.infer<typeof studioIdentityInput>;
 
+/** The studio's name, address, colour and logo after an owner's change. */
+export const studioIdentityOutput = z
+  .object({
+    id: z.uuid(),
+    name: z.string(),
+    slug: z.string(),
+    accentColour: z.string(),
+    logoUrl: z.string().nullable().describe('The logo (PNG, at most 256 × 256), or null when the studio has none'),
+  })
+  .meta({ id: 'StudioIdentity' });
+
 /** A studio as its people see it. */
 export const studioOutput = z
   .object({

@@ -4,6 +4,7 @@ import { databaseUnavailable, isDatabaseUnavailable } from '../unavailable';
 import { statusOf } from './error-status';
 import { MAX_TIMELINE_FILE_BYTES } from '~/lib/api/timeline-file-schemas';
 import { MAX_COVER_UPLOAD_BYTES } from '~/lib/publishing/cover';
+import { MAX_LOGO_UPLOAD_BYTES } from '~/lib/studios/studio-logo';
 
 /** A JSON response. */
 /**
@@ -49,7 +50,7 @@ export const JSON_BODY_LIMIT = 1024 * 1024;
 
 /**
  * The body limit of a path: timeline imports take files up to MAX_TIMELINE_FILE_BYTES (2 MiB), cover
- * uploads MAX_COVER_UPLOAD_BYTES (5 MiB), everything else JSON_BODY_LIMIT. The middleware refuses a larger Content-Length on any route
+ * uploads MAX_COVER_UPLOAD_BYTES (5 MiB), studio logos MAX_LOGO_UPLOAD_BYTES (2 MiB), everything else JSON_BODY_LIMIT. The middleware refuses a larger Content-Length on any route
  * (pages' forms included) before anything reads the body.
  */
 export const bodyLimitFor = (pathname: string) =>
@@ -57,7 +58,9 @@ export const bodyLimitFor = (pathname: string) =>
     ? MAX_TIMELINE_FILE_BYTES
     : /^\/api\/lessons\/[^/]+\/cover\/upload\/?$/.test(pathname)
       ? MAX_COVER_UPLOAD_BYTES
-      : JSON_BODY_LIMIT;
+      : /^\/api\/studios\/[^/]+\/logo\/?$/.test(pathname) || /^\/_actions\/uploadStudioLogo\/?$/.test(pathname) || pathname === '/studio/settings'
+        ? MAX_LOGO_UPLOAD_BYTES + 64 * 1024 // the form's multipart framing around the file
+        : JSON_BODY_LIMIT;
 
 export const tooLarge = (limit: number) =>
   new AppError('too_large', `The request body is larger than ${formatBytes(limit)}, so it was not read. Send less at once.`, undefined, { limitBytes: limit });

@@ -1,6 +1,6 @@
 import { can, refusalFor, type Action, type Actor } from '~/lib/policy';
 import type { StudioAccess } from '../services/accounts';
-import { AppError } from '../errors';
+import { AppError, notFound } from '../errors';
 
 type Locals = App.Locals;
 export type SignedIn = { user: NonNullable<Locals['user']>; session: NonNullable<Locals['session']> };
@@ -17,6 +17,14 @@ export function requireActor(locals: Locals): Actor {
   const { user } = requireUser(locals);
   if (!locals.studio) throw new AppError('forbidden', 'Your account does not belong to this studio.');
   return actorOf(user.id, locals.studio);
+}
+
+/** The person as they act in the studio a URL names: any studio they belong to; any other is simply not there (404). */
+export function actorIn(locals: Locals, studioId: string): Actor {
+  const { user } = requireUser(locals);
+  const studio = locals.studios.find((s) => s.studioId === studioId);
+  if (!studio) throw notFound('That studio');
+  return actorOf(user.id, studio);
 }
 
 export const actorOf = (userId: string, studio: StudioAccess): Actor => ({ userId, studioId: studio.studioId, roles: studio.roles });

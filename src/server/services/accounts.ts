@@ -7,6 +7,7 @@ import { consumeEach, pleaseWait } from '../http/rate-limit';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import type { AppDeps } from '../app';
 import { newUserId, type NewSession } from '../auth/lucia';
+import { logoUrl } from '~/lib/studios/studio-logo';
 
 /** A studio role as the middleware puts it on Astro.locals. */
 export interface StudioAccess {
@@ -16,6 +17,8 @@ export interface StudioAccess {
   /** The studio's clock: every date on its pages is read in this zone and locale. */
   timeZone: string;
   locale: string;
+  /** The studio's logo (lib/studios/studio-logo.ts), or null. */
+  logoUrl: string | null;
   roles: Role[];
 }
 
@@ -181,14 +184,14 @@ export async function changePassword(
 /** The studios a user belongs to, with their roles there. */
 export async function studioAccess(deps: AppDeps, userId: string): Promise<StudioAccess[]> {
   const rows = await deps.db
-    .select({ studioId: studios.id, studioSlug: studios.slug, studioName: studios.name, timeZone: studios.timeZone, locale: studios.locale, role: memberships.role })
+    .select({ studioId: studios.id, studioSlug: studios.slug, studioName: studios.name, timeZone: studios.timeZone, locale: studios.locale, logoFile: studios.logoFile, role: memberships.role })
     .from(memberships)
     .innerJoin(studios, eq(studios.id, memberships.studioId))
     .where(eq(memberships.userId, userId));
   const byStudio = new Map<string, StudioAccess>();
   for (const r of rows) {
-    const { role, ...studio } = r;
-    const entry = byStudio.get(r.studioId) ?? { ...studio, roles: [] };
+    const { role, logoFile, ...studio } = r;
+    const entry = byStudio.get(r.studioId) ?? { ...studio, logoUrl: logoUrl(r.studioId, logoFile), roles: [] };
     entry.roles.push(role);
     byStudio.set(r.studioId, entry);
   }

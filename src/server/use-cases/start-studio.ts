@@ -1,11 +1,12 @@
-import { eq, sql } from 'drizzle-orm';
+import { eq } from 'drizzle-orm';
 import type { NewSession } from '../auth/lucia';
-import { billingSettings, memberships, studios, studioSlugRedirects, users } from '~/db/schema';
+import { billingSettings, memberships, studios, users } from '~/db/schema';
 import type { SignUpInput } from '~/lib/api/auth-schemas';
 import type { StartStudioInput } from '~/lib/api/studio-schemas';
 import { AppError } from '../errors';
 import type { AppDeps } from '../app';
 import { isUniqueViolation, openFirstSession, prepareAccount } from '../services/accounts';
+import { slugInUse, slugTaken } from '../services/studio-identity';
 
 /** Who starts the studio: a signed-in person, or a visitor whose account is made in the same step. */
 export type Founder = { userId: string } | { account: SignUpInput; address: string };
@@ -16,17 +17,6 @@ export interface StartedStudio {
   userId: string;
   /** Set when the founder was a visitor: the new account's first session, working in the new studio. */
   session?: NewSession;
-}
-
-const SLUG_TAKEN = 'Another studio uses or used that address. Choose another one.';
-const slugTaken = () => new AppError('conflict', SLUG_TAKEN, { slug: SLUG_TAKEN });
-
-/** Whether a slug is in use, now or before (old addresses keep redirecting, so they stay taken). */
-export async function slugInUse(deps: AppDeps, slug: string): Promise<boolean> {
-  const [row] = await deps.db.execute<{ taken: boolean }>(
-    sql`select exists(select 1 from ${studios} where ${studios.slug} = ${slug}) or exists(select 1 from ${studioSlugRedirects} where ${studioSlugRedirects.slug} = ${slug}) as taken`,
-  ).then((r) => r.rows);
-  return !!row?.taken;
 }
 
 /**

@@ -1,0 +1,1 @@
+ALTER TABLE "studios" ADD COLUMN "logo_file" text;
