@@ -34,6 +34,8 @@ export const POLICY = {
   'class.delete': { roles: PUBLISHERS, refusal: 'Only coaches and the studio owner can delete a class.' },
   'class.check': { roles: STAFF, refusal: staffOnly },
   'class.publish': { roles: PUBLISHERS, refusal: 'Only coaches and the studio owner can publish. Let them know the class is ready.' },
+  'class.request-review': { roles: STAFF, refusal: staffOnly },
+  'class.send-back': { roles: PUBLISHERS, refusal: 'Only coaches and the studio owner review classes and send them back.' },
   'class.schedule': { roles: OWNER, refusal: 'Only the studio owner can schedule a publish.' },
   'class.unpublish': { roles: PUBLISHERS, refusal: 'Only coaches and the studio owner can take a class out of the library.' },
   'class.archive': { roles: PUBLISHERS, refusal: 'Only coaches and the studio owner can archive a class.' },

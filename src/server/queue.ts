@@ -19,6 +19,10 @@ export interface JobPayloads {
   'mail.sign-up-attempt': { email: string };
   /** A "forgot password" request: the lookup and the link happen here, never in the request. */
   'mail.password-reset': { email: string };
+  /** A class was marked ready for review: its coaches and owner hear about it (the time names the hand-off). */
+  'mail.review-requested': { lessonId: string; requestedAt: string };
+  /** A coach or the owner sent a class back: whoever prepared it hears why. */
+  'mail.review-sent-back': { lessonId: string; userId: string; sentBy: string; note: string; sentAt: string };
 }
 export type JobName = keyof JobPayloads;
 export const JOB_NAMES: JobName[] = [
@@ -33,6 +37,8 @@ export const JOB_NAMES: JobName[] = [
   'mail.verify-email',
   'mail.sign-up-attempt',
   'mail.password-reset',
+  'mail.review-requested',
+  'mail.review-sent-back',
 ];
 
 // Media jobs can run for most of an hour on a 2-core machine (facts: 60 min of 1080p needs ~45 min),
@@ -52,6 +58,9 @@ const QUEUE_OPTIONS: Record<JobName, PgBoss.Queue> = {
   'mail.verify-email': { name: 'mail.verify-email', retryLimit: 5, retryDelay: 10, retryBackoff: true, expireInSeconds: 900 },
   'mail.sign-up-attempt': { name: 'mail.sign-up-attempt', retryLimit: 5, retryDelay: 10, retryBackoff: true, expireInSeconds: 900 },
   'mail.password-reset': { name: 'mail.password-reset', retryLimit: 5, retryDelay: 10, retryBackoff: true, expireInSeconds: 900 },
+  // Staff hand-offs: someone waits on the other side, so retry soon.
+  'mail.review-requested': { name: 'mail.review-requested', retryLimit: 5, retryDelay: 10, retryBackoff: true, expireInSeconds: 900 },
+  'mail.review-sent-back': { name: 'mail.review-sent-back', retryLimit: 5, retryDelay: 10, retryBackoff: true, expireInSeconds: 900 },
 };
 
 /** Starts pg-boss on the app database and makes sure every queue exists (sending to a missing one is silently dropped). */

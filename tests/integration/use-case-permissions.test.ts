@@ -12,6 +12,7 @@ import { saveClassPlan, saveClassTimeline } from '~/server/use-cases/class-marks
 import { publishClass } from '~/server/use-cases/publish-class';
 import { schedulePublish } from '~/server/use-cases/schedule-publish';
 import { archiveClass, unpublishClass } from '~/server/use-cases/withdraw-class';
+import { markReadyForReview, sendBackForChanges } from '~/server/use-cases/review-hand-off';
 import { planSchema } from '~/lib/plan/plan-schema';
 import { SMALL_PLAN } from '../helpers/published-class';
 import { billingDeps } from '~/server/payments/billing-deps';
@@ -58,6 +59,8 @@ const writes: [string, Role[], (actor: Actor) => Promise<unknown>][] = [
   ['schedulePublish', ['coach', 'editor', 'member'], (a) => schedulePublish(a, deps, { lessonId: lesson.id, when: { at: soon() }, acknowledgeWarnings: true })],
   ['unpublishClass', ['editor', 'member'], (a) => unpublishClass(a, deps, { lessonId: lesson.id })],
   ['archiveClass', ['editor', 'member'], (a) => archiveClass(a, deps, { lessonId: lesson.id })],
+  ['markReadyForReview', ['member'], (a) => markReadyForReview(a, deps, { lessonId: lesson.id, note: 'Refused' })],
+  ['sendBackForChanges', ['editor', 'member'], (a) => sendBackForChanges(a, deps, { lessonId: lesson.id, note: 'Refused' })],
   ['inviteToTeam', ['coach', 'editor', 'member'], (a) => inviteToTeam(a, deps, { email: 'refused@members.example', role: 'coach' })],
   ['withdrawInvitation', ['coach', 'editor', 'member'], (a) => withdrawInvitation(a, deps, { id: '00000000-0000-4000-8000-000000000000' })],
   ['updateMembershipSettings', ['coach', 'editor', 'member'], (a) => updateMembershipSettings(a, billing(), { monthlyPriceMinor: 1, trialDays: 0, pastDueGraceDays: 0, version: null })],

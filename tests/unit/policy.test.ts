@@ -14,6 +14,8 @@ const expected: Record<Action, string> = {
   'class.delete': 'OC',
   'class.check': 'OCE',
   'class.publish': 'OC',
+  'class.request-review': 'OCE',
+  'class.send-back': 'OC',
   'class.schedule': 'O',
   'class.unpublish': 'OC',
   'class.archive': 'OC',

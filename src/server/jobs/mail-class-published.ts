@@ -3,7 +3,7 @@ import { emailPreferences, memberships, users } from '~/db/schema';
 import type { AppDeps } from '../app';
 import { publishedClass, sendClassPublished } from '../mail/messages';
 import type { JobHandler } from './job-context';
-import { sendOnce } from './sent-once';
+import { sendToEach } from './sent-once';
 
 /**
  * People of the studio who asked to hear about new classes. Unconfirmed addresses are left out:
@@ -28,15 +28,6 @@ export const mailClassPublished: JobHandler<'mail.class-published'> = async ({ v
   if (!cls) return { outcome: 'skipped', detail: 'version gone' };
   if (cls.number !== 1) return { outcome: 'skipped', detail: `version ${cls.number} is a republish` };
   const recipients = await newClassRecipients(ctx.deps, cls.studioId);
-  let sent = 0;
-  let failed: unknown;
-  for (const userId of recipients) {
-    try {
-      if (await sendOnce(ctx.deps, `class-published:${versionId}:${userId}`, () => sendClassPublished(ctx.deps, { userId, cls }))) sent++;
-    } catch (err) {
-      failed ??= err;
-    }
-  }
-  if (failed) throw failed;
+  const sent = await sendToEach(ctx.deps, recipients, (userId) => `class-published:${versionId}:${userId}`, (userId) => sendClassPublished(ctx.deps, { userId, cls }));
   return { outcome: recipients.length ? 'done' : 'skipped', detail: `${sent} sent of ${recipients.length} opted in` };
 };

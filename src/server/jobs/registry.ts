@@ -9,6 +9,7 @@ import { recordingStep } from './recording-step';
 import { analyzeAudioEvents } from './analyze-audio-events';
 import { mailClassPublished } from './mail-class-published';
 import { mailTrialReminders } from './mail-trial-reminders';
+import { mailReviewRequested, mailReviewSentBack } from './mail-review';
 import { mailPasswordReset, mailSignUpAttempt, mailVerifyEmail } from './mail-account';
 
 /** One handler per job name. */
@@ -24,6 +25,8 @@ export const JOB_HANDLERS: { [N in JobName]: JobHandler<N> } = {
   'mail.verify-email': mailVerifyEmail,
   'mail.sign-up-attempt': mailSignUpAttempt,
   'mail.password-reset': mailPasswordReset,
+  'mail.review-requested': mailReviewRequested,
+  'mail.review-sent-back': mailReviewSentBack,
 };
 
 /** Refuses to start when a queue has no handler or a handler no queue (checked at worker start). */

@@ -18,3 +18,22 @@ export async function sendOnce(deps: AppDeps, key: string, send: () => Promise<v
   }
   return true;
 }
+
+/**
+ * Sends one message to each recipient, each at most once per key. A failure for one person does
+ * not stop the others; the first failure is thrown at the end so the job's retry sends only the rest.
+ * Answers how many were sent by this run.
+ */
+export async function sendToEach(deps: AppDeps, recipients: readonly string[], keyFor: (userId: string) => string, send: (userId: string) => Promise<void>): Promise<number> {
+  let sent = 0;
+  let failed: unknown;
+  for (const userId of recipients) {
+    try {
+      if (await sendOnce(deps, keyFor(userId), () => send(userId))) sent++;
+    } catch (err) {
+      failed ??= err;
+    }
+  }
+  if (failed) throw failed;
+  return sent;
+}

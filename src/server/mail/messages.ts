@@ -7,6 +7,7 @@ import { clockOf, formatInstant, type StudioClock } from '~/lib/time/date-format
 import { TOKEN_LIFETIME } from './tokens';
 import { passwordResetMessage, signUpAttemptMessage, verifyEmailMessage } from './templates/account-messages';
 import { invitationMessage } from './templates/team-messages';
+import { reviewRequestedMessage, reviewSentBackMessage } from './templates/review-messages';
 import { classPublishedMessage, paymentFailedMessage, trialEndingMessage } from './templates/member-messages';
 
 // Each function looks up what its message needs, builds absolute links from PUBLIC_BASE_URL and
@@ -175,5 +176,41 @@ export async function sendPaymentFailed(deps: AppDeps, m: { userId: string; stud
     graceDays: settings?.pastDueGraceDays ?? null,
     accountUrl: absoluteUrl('/account'),
   });
+  await deliver({ ...content, studio, to: { name: user.name, address: user.email } });
+}
+
+/** The class page's publishing panel, where a review happens. */
+const reviewUrl = (lessonId: string) => absoluteUrl(`/studio/classes/${encodeURIComponent(lessonId)}#publish-title`);
+
+async function lessonTitle(deps: AppDeps, lessonId: string): Promise<{ title: string; studioId: string }> {
+  const row = await deps.db.query.lessons.findFirst({ where: eq(lessons.id, lessonId), columns: { title: true, studioId: true } });
+  if (!row) throw new Error(`lesson ${lessonId} not found`);
+  return row;
+}
+
+/** Tells one coach (or the owner) that a class waits for their review. */
+export async function sendReviewRequested(deps: AppDeps, m: { userId: string; lessonId: string; preparedBy: string | null; note: string }): Promise<void> {
+  const lesson = await lessonTitle(deps, m.lessonId);
+  const [user, studio, preparer] = await Promise.all([
+    person(deps, m.userId),
+    studioNamed(deps, { id: lesson.studioId }),
+    m.preparedBy ? deps.db.query.users.findFirst({ where: eq(users.id, m.preparedBy) }) : undefined,
+  ]);
+  const content = reviewRequestedMessage({
+    studioName: studio.name,
+    name: user.name,
+    preparedBy: preparer?.name ?? 'Someone on the team',
+    title: lesson.title,
+    note: m.note,
+    url: reviewUrl(m.lessonId),
+  });
+  await deliver({ ...content, studio, to: { name: user.name, address: user.email } });
+}
+
+/** Tells whoever prepared a class that it was sent back, with the reviewer's note. */
+export async function sendReviewSentBack(deps: AppDeps, m: { userId: string; lessonId: string; sentBy: string; note: string }): Promise<void> {
+  const lesson = await lessonTitle(deps, m.lessonId);
+  const [user, studio, reviewer] = await Promise.all([person(deps, m.userId), studioNamed(deps, { id: lesson.studioId }), person(deps, m.sentBy)]);
+  const content = reviewSentBackMessage({ studioName: studio.name, name: user.name, sentBy: reviewer.name, title: lesson.title, note: m.note, url: reviewUrl(m.lessonId) });
   await deliver({ ...content, studio, to: { name: user.name, address: user.email } });
 }

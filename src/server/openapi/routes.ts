@@ -31,9 +31,20 @@ import {
   versionListOutput,
 } from '~/lib/api/publish-schemas';
 import { cautionOutput } from '~/lib/api/auth-schemas';
+import { readyForReviewInput, reviewRequestOutput, sendBackInput, sentBackOutput } from '~/lib/api/review-schemas';
 
 /** Routes of the plan, timeline, check, exercise, recording, publishing and playback features. */
 export const apiRoutes: RouteConfig[] = [
+  {
+    method: 'put', path: '/api/lessons/{id}/review', summary: 'Mark the class ready for review with an optional note (staff); its coaches and owner are e-mailed. A later hand-off replaces the earlier one',
+    request: { params, body: json(readyForReviewInput, 'The hand-off') },
+    responses: { 200: json(reviewRequestOutput, 'Waiting for review'), ...errors(400, 401, 403, 404, 409) },
+  },
+  {
+    method: 'post', path: '/api/lessons/{id}/review/send-back', summary: 'Send a class that waits for review back to whoever prepared it, with a note (coach, owner); publishing also ends the wait',
+    request: { params, body: json(sendBackInput, 'What needs another look') },
+    responses: { 200: json(sentBackOutput, 'Sent back'), ...errors(400, 401, 403, 404, 409) },
+  },
   {
     method: 'post', path: '/api/lessons/{id}/publish', summary: 'Publish a new immutable version (coach, owner); errors block, warnings need acknowledgeWarnings; publishAt schedules (owner)',
     request: { params, body: json(publishInput, 'Publish options') },

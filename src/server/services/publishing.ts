@@ -110,6 +110,10 @@ export async function writeVersion(
     .set({
       state: 'published',
       publishedVersionId: version!.id,
+      // Publishing is the review's answer: the class no longer waits in the review list.
+      reviewRequestedBy: null,
+      reviewRequestedAt: null,
+      reviewNote: null,
       publishedSeconds: recording.durationSeconds!,
       publishedAt: version!.publishedAt,
       searchDocument: [l.title, l.description, ...names, ...l.focus, ...l.equipment].join(' \n'),
