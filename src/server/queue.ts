@@ -11,6 +11,8 @@ export interface JobPayloads {
   'uploads.cleanup': Record<string, never>;
   'lessons.publish-due': Record<string, never>;
   'version.thumbnails': { versionId: string };
+  /** A cover picture from one moment of a class's recording ("Use this frame as cover"). */
+  'cover.frame': { frameId: string };
   'mail.class-published': { versionId: string };
   'mail.trial-reminders': Record<string, never>;
   /** The first "confirm your address" link of a new account. */
@@ -32,6 +34,7 @@ export const JOB_NAMES: JobName[] = [
   'uploads.cleanup',
   'lessons.publish-due',
   'version.thumbnails',
+  'cover.frame',
   'mail.class-published',
   'mail.trial-reminders',
   'mail.verify-email',
@@ -51,6 +54,8 @@ const QUEUE_OPTIONS: Record<JobName, PgBoss.Queue> = {
   'uploads.cleanup': { name: 'uploads.cleanup', retryLimit: 1, expireInSeconds: 600 },
   'lessons.publish-due': { name: 'lessons.publish-due', retryLimit: 1, expireInSeconds: 300 },
   'version.thumbnails': { name: 'version.thumbnails', retryLimit: 3, retryDelay: 20, retryBackoff: true, expireInSeconds: 3600 },
+  // Staff wait on the page for this one: retry soon, twice; one frame takes seconds even from a long recording.
+  'cover.frame': { name: 'cover.frame', retryLimit: 2, retryDelay: 5, retryBackoff: true, expireInSeconds: 900 },
   // Mail jobs retry when the SMTP server refuses; each message is sent once per key (sent_notices).
   'mail.class-published': { name: 'mail.class-published', retryLimit: 5, retryDelay: 60, retryBackoff: true, expireInSeconds: 900 },
   'mail.trial-reminders': { name: 'mail.trial-reminders', retryLimit: 2, retryDelay: 120, expireInSeconds: 900 },

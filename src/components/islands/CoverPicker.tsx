@@ -3,10 +3,11 @@ import type { CoverOutput } from '~/lib/api/cover-schemas';
 import { MAX_COVER_UPLOAD_BYTES } from '~/lib/publishing/cover';
 import { ApiError, apiCall } from './api-client';
 import { smallButton } from './plan-builder/fields';
+import CoverFromFrame from './CoverFromFrame';
 
 /**
  * The class's cover: the current picture, any chapter thumbnail of the published version to choose
- * from, back to the default (the first work chapter's), or a JPEG/PNG upload. The server checks the
+ * from, the frame where the editor's video is paused (made by the worker), back to the default (the first work chapter's), or a JPEG/PNG upload. The server checks the
  * upload's bytes; the size limit is also checked here so a huge photo is not sent for nothing.
  */
 export default function CoverPicker({ lessonId }: { lessonId: string }) {
@@ -89,6 +90,7 @@ export default function CoverPicker({ lessonId }: { lessonId: string }) {
           </ul>
         </fieldset>
       )}
+      <CoverFromFrame lessonId={lessonId} disabled={busy} onCover={(next) => { setCover(next); setMessage(null); }} />
       <div className="flex flex-wrap items-end gap-3">
         <div className="flex flex-col gap-1">
           <label htmlFor={`${id}-file`} className="text-sm font-semibold">Upload a picture (JPEG or PNG, at most 5 MB)</label>

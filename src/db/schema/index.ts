@@ -7,3 +7,4 @@ export * from './billing';
 export * from './plan-templates';
 export * from './recording-audio';
 export * from './captions';
+export * from './cover-frames';

@@ -22,3 +22,26 @@ export const coverOutput = z
   })
   .meta({ id: 'Cover' });
 export type CoverOutput = z.infer<typeof coverOutput>;
+
+/** "Use this frame as cover": the moment of the class's recording to take the picture at. */
+export const coverFrameInput = z
+  .object({
+    atSeconds: z
+      .number({ error: 'Say where in the recording the picture is, in seconds from its start.' })
+      .finite({ error: 'Say where in the recording the picture is, in seconds from its start.' })
+      .min(0, { error: 'A moment of the recording starts at 0 seconds or later.' })
+      .describe('Seconds from the start of the class’s current recording; must be before its end'),
+  })
+  .meta({ id: 'CoverFrameInput' });
+export type CoverFrameInput = z.infer<typeof coverFrameInput>;
+
+export const coverFrameOutput = z
+  .object({
+    id: z.string().describe('The request; ask for it again to follow its progress'),
+    atSeconds: z.number(),
+    state: z.enum(['waiting', 'working', 'done', 'failed']).describe('waiting for the worker, being taken, the cover now, or failed'),
+    message: z.string().nullable().describe('Why it failed, and what to do next; null otherwise'),
+    coverUrl: z.string().nullable().describe('The app link of the picture once done'),
+  })
+  .meta({ id: 'CoverFrame' });
+export type CoverFrameOutput = z.infer<typeof coverFrameOutput>;

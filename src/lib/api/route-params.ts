@@ -18,3 +18,5 @@ export const promoCodeIdParams = idParams('Promo code');
 export const invitationIdParams = idParams('Invitation');
 export const exerciseIdParams = idParams('Exercise');
 export const studioIdParams = idParams('Studio');
+/** `{id}` of the class and `{frameId}` of one of its frame-as-cover requests. */
+export const coverFrameParams = z.object({ id: routeIdSchema.describe('Class id'), frameId: routeIdSchema.describe('Frame-as-cover request id') });

@@ -1,6 +1,7 @@
 import { JOB_NAMES, type JobName } from '../queue';
 import type { JobHandler } from './job-context';
 import { chapterThumbnails } from './chapter-thumbnails';
+import { coverFrame } from './cover-frame';
 import { cleanupUploads } from './cleanup-uploads';
 import { publishDue } from './publish-due';
 import { packageRecording } from './package-recording';
@@ -20,6 +21,7 @@ export const JOB_HANDLERS: { [N in JobName]: JobHandler<N> } = {
   'uploads.cleanup': cleanupUploads,
   'lessons.publish-due': publishDue,
   'version.thumbnails': chapterThumbnails,
+  'cover.frame': coverFrame,
   'mail.class-published': mailClassPublished,
   'mail.trial-reminders': mailTrialReminders,
   'mail.verify-email': mailVerifyEmail,

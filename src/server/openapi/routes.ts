@@ -1,12 +1,12 @@
 import type { RouteConfig } from '@asteasolutions/zod-to-openapi';
 import { z } from 'zod';
 import { errors, json } from './responses';
-import { coverChoiceInput, coverOutput } from '~/lib/api/cover-schemas';
+import { coverChoiceInput, coverFrameInput, coverFrameOutput, coverOutput } from '~/lib/api/cover-schemas';
 import { planPutSchema } from '~/lib/plan/plan-schema';
 import { timelinePutSchema } from '~/lib/timeline/timeline-schema';
 import { timelineExportQuery, timelineFileText, timelineImportQuery } from '~/lib/api/timeline-file-schemas';
 import { timelineImportErrorOutput } from '~/lib/api/error-schemas';
-import { exerciseIdParams, lessonIdParams as params, recordingIdParams as recordingParams } from '~/lib/api/route-params';
+import { coverFrameParams, exerciseIdParams, lessonIdParams as params, recordingIdParams as recordingParams } from '~/lib/api/route-params';
 import {
   createExerciseInput,
   exerciseListOutput,
@@ -174,6 +174,16 @@ export const apiRoutes: RouteConfig[] = [
       body: { description: 'The picture’s bytes', content: { 'image/jpeg': { schema: z.string().describe('binary') }, 'image/png': { schema: z.string().describe('binary') } } },
     },
     responses: { 200: json(coverOutput, 'Stored'), ...errors(400, 401, 403, 404, 409, 413, 415) },
+  },
+  {
+    method: 'post', path: '/api/lessons/{id}/cover/frame', summary: 'Use the frame at a moment of the current recording as the cover: the worker takes it (1280 × 720 JPEG) and switches the cover when done',
+    request: { params, body: json(coverFrameInput, 'The moment, in seconds from the recording’s start') },
+    responses: { 202: json(coverFrameOutput, 'Queued'), ...errors(400, 401, 403, 404, 409) },
+  },
+  {
+    method: 'get', path: '/api/lessons/{id}/cover/frame/{frameId}', summary: 'How far a frame-as-cover request got',
+    request: { params: coverFrameParams },
+    responses: { 200: json(coverFrameOutput, 'The request'), ...errors(401, 403, 404) },
   },
   {
     method: 'get', path: '/api/exercises', summary: 'The studio’s exercise list',

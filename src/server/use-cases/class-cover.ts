@@ -1,7 +1,8 @@
-import type { CoverChoiceInput, CoverOutput } from '~/lib/api/cover-schemas';
+import type { CoverChoiceInput, CoverFrameInput, CoverFrameOutput, CoverOutput } from '~/lib/api/cover-schemas';
 import type { AppDeps } from '../app';
 import type { S3Client } from '@aws-sdk/client-s3';
 import { chooseCover, uploadCover } from '../services/lesson-cover';
+import { requestCoverFrame } from '../services/cover-frames';
 import { assertCan, type Actor } from './actor';
 
 /** Chooses a chapter's thumbnail as the class's cover, or goes back to the default (staff). */
@@ -19,4 +20,10 @@ export async function uploadClassCover(
 ): Promise<CoverOutput> {
   assertCan(actor, 'class.edit');
   return uploadCover(deps, storage, actor.studioId, input.lessonId, input.bytes);
+}
+
+/** Asks the worker for a cover picture from the moment of the recording staff paused at (staff). */
+export async function coverFromFrame(actor: Actor, deps: AppDeps, input: { lessonId: string; frame: CoverFrameInput }): Promise<CoverFrameOutput> {
+  assertCan(actor, 'class.edit');
+  return requestCoverFrame(deps, actor.studioId, input.lessonId, input.frame, actor.userId);
 }

@@ -86,6 +86,7 @@ export default function MediaTimeline(props: MediaTimelineProps) {
             playsInline
             preload="metadata"
             aria-label="Class recording"
+            data-editor-video
             onClick={() => void wsRef.current?.playPause()}
           />
         ) : (
