@@ -14,21 +14,14 @@ import { makeClip, ffmpeg } from '../helpers/media-files';
 import { SignedUpload, uploadWhole, waitForRecording } from '../helpers/upload-flow';
 import { sendJob, startQueue } from '~/server/queue';
 import { createAppDeps } from '~/server/app';
-import { createS3 } from '~/server/storage';
+import { testS3 } from '../helpers/object-store';
 import { memberships, recordings, studios, users } from '~/db/schema';
 import { decodePeaks } from '~/lib/media/peaks';
 import { fetchMedia, STORE_ORIGIN } from '../helpers/media-fetch';
 import { REASONS } from '~/lib/media/probe-verdict';
 
 const deps = createAppDeps(process.env.DATABASE_URL!);
-const s3 = createS3({
-  endpoint: process.env.S3_ENDPOINT!,
-  region: process.env.S3_REGION!,
-  bucket: process.env.S3_BUCKET!,
-  accessKeyId: process.env.S3_ACCESS_KEY_ID!,
-  secretAccessKey: process.env.S3_SECRET_ACCESS_KEY!,
-  forcePathStyle: true,
-});
+const s3 = testS3();
 let dir: string;
 let coach: ApiClient;
 let member: ApiClient;
