@@ -1,6 +1,7 @@
 // A member plays a published class whose plan has a station done per side, an AMRAP and an
 // EMOM, through the real player in Chromium: the chapters (the page's list and Chromium's own
-// WebVTT reader) and the interval clock say the side and the format's words. The class, its
+// WebVTT reader) and the interval clock say the side and the format's words, and the AMRAP's
+// chapter and clock list the exercises members repeat. The class, its
 // plan, marks and generated recording are invented for the test; only the publish and the set-up
 // go through the API, the member uses the page.
 import { mkdtemp, readFile, rm } from 'node:fs/promises';
@@ -102,6 +103,10 @@ describe('the player for a class with sides, an AMRAP and an EMOM', () => {
     await jump(3);
     await expect.poll(() => clock.getByTestId('clock-now').textContent()).toBe('Round as many as you can');
     expect(await clock.getByTestId('clock-kind').textContent()).toBe('AMRAP 0:08');
+    // What to repeat, from the plan's AMRAP block: on the clock and in the chapter list.
+    expect(await clock.getByTestId('clock-repeat').textContent()).toBe('Repeat: Player burpee · Player squat');
+    expect(await page.locator('[data-chapter="3"] [data-chapter-repeat]').textContent()).toBe('Repeat: Player burpee · Player squat');
+    expect(await page.locator('[data-chapter-repeat]').count()).toBe(1);
     await jump(4);
     await expect.poll(() => clock.getByTestId('clock-now').textContent()).toBe('Player swing');
     expect(await clock.getByTestId('clock-kind').textContent()).toBe('EMOM minute 1 of 1');

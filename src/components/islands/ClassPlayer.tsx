@@ -179,7 +179,13 @@ export default function ClassPlayer(props: PlayerProps) {
             <track kind="chapters" src={props.chaptersUrl} srcLang="en" label="Chapters" default />
             {props.captions && <track kind="captions" src={props.captions.url} srcLang={props.captions.language} label={props.captions.label} />}
           </video>
-          {clockShown && cautionOk && <IntervalClock clock={clock} note={clock.current?.exercise ? notes.get(clock.current.exercise.toLowerCase()) : undefined} />}
+          {clockShown && cautionOk && (
+            <IntervalClock
+              clock={clock}
+              note={clock.current?.exercise ? notes.get(clock.current.exercise.toLowerCase()) : undefined}
+              repeat={props.chapters[current]?.exercises}
+            />
+          )}
           {!cautionOk && (
             <div className="absolute inset-0 flex items-start justify-center overflow-y-auto bg-ink/90 p-4 text-paper sm:items-center sm:p-6" role="dialog" aria-modal="true" aria-labelledby="caution-title">
               <div className="max-w-lg">

@@ -20,6 +20,8 @@ export function describeSegment(s: Segment): string {
   if (s.exercise) parts.push(`"${s.exercise}"`);
   if (s.round) parts.push(`round ${s.round}`);
   if (s.set) parts.push(`set ${s.set}`);
+  if (s.side) parts.push(`${s.side} side`);
+  if (s.format) parts.push(s.format.toUpperCase());
   return `${parts.join(' ')} ${formatEditorTime(s.startSeconds)}–${formatEditorTime(s.endSeconds)}`;
 }
 
@@ -43,7 +45,7 @@ export function diffTimelines(mine: Timeline, theirs: Timeline): TimelineDiffere
     for (const y of b) if (!mineIds.has(y.id)) out.push({ kind, id: y.id, change: 'only-theirs', mine: null, theirs: describe(y), at: at(y) });
   };
   compare('segment', mine.segments, theirs.segments, describeSegment, (s) => s.startSeconds, (s) =>
-    JSON.stringify([s.kind, s.startSeconds, s.endSeconds, s.exercise ?? null, s.round ?? null, s.set ?? null, s.title ?? null]));
+    JSON.stringify([s.kind, s.startSeconds, s.endSeconds, s.exercise ?? null, s.round ?? null, s.set ?? null, s.title ?? null, s.side ?? null, s.format ?? null]));
   compare('cue', mine.cues, theirs.cues, describeCue, (c) => c.atSeconds, (c) => JSON.stringify([c.kind, c.atSeconds, c.text]));
   return out.sort((a, b) => a.at - b.at).map(({ at: _at, ...rest }) => rest);
 }

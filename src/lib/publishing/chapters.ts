@@ -18,6 +18,8 @@ export interface Chapter {
   side?: Segment['side'];
   /** amrap or emom: the chapter is that format's span or minute (`round` is the EMOM minute). */
   format?: Segment['format'];
+  /** An AMRAP's span: the exercises members repeat, from the plan's AMRAP block. */
+  exercises?: string[];
 }
 
 
@@ -25,8 +27,10 @@ export interface Chapter {
  * Chapters from a checked timeline: every part except rests starts a chapter, and a rest
  * belongs to the chapter before it (members jump to moves, not to rests). Chapters are
  * back-to-back and never overlap, as WebVTT chapter cues must not (W3C WebVTT §4.5.1).
+ * `amrapExercises` (segment id -> exercises, from `amrapExercisesBySegment`) gives an AMRAP's
+ * chapter the list members repeat.
  */
-export function buildChapters(segments: readonly Segment[]): Chapter[] {
+export function buildChapters(segments: readonly Segment[], amrapExercises: ReadonlyMap<string, readonly string[]> = new Map()): Chapter[] {
   const sorted = [...segments].sort((a, b) => a.startSeconds - b.startSeconds);
   const rounds = circuitRounds(sorted);
   const emomMinutes = emomMinutesById(sorted);
@@ -52,6 +56,7 @@ export function buildChapters(segments: readonly Segment[]): Chapter[] {
       ...(s.set ? { set: s.set, ...(sets ? { sets } : {}) } : {}),
       ...(s.side ? { side: s.side } : {}),
       ...(s.format ? { format: s.format } : {}),
+      ...(amrapExercises.has(s.id) ? { exercises: [...amrapExercises.get(s.id)!] } : {}),
     };
     chapters.push(chapter);
   }

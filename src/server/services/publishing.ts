@@ -1,6 +1,7 @@
 import { and, desc, eq, inArray, max, sql } from 'drizzle-orm';
 import { exercises, lessons, lessonVersions, users } from '~/db/schema';
 import { buildChapters, chaptersToVtt, type Chapter } from '~/lib/publishing/chapters';
+import { amrapExercisesBySegment } from '~/lib/timing/amrap-exercises';
 import type { CheckResult, Finding } from '~/lib/timing/finding-types';
 import type { Segment, Cue } from '~/lib/timeline/timeline-schema';
 import type { Plan } from '~/lib/plan/plan-schema';
@@ -51,8 +52,10 @@ export async function writeVersion(
 ): Promise<{ versionId: string; number: number }> {
   const { lesson: l, timeline } = loaded;
   const recording = loaded.recording!;
-  const chapters = buildChapters(timeline.segments);
-  const names = [...new Set(timeline.segments.flatMap((s) => (s.exercise ? [s.exercise] : [])))];
+  const amrapExercises = amrapExercisesBySegment(loaded.plan, timeline.segments);
+  const chapters = buildChapters(timeline.segments, amrapExercises);
+  // The studio's notes (cautions, easier options) for every exercise members do, the ones an AMRAP repeats too.
+  const names = [...new Set([...timeline.segments.flatMap((s) => (s.exercise ? [s.exercise] : [])), ...[...amrapExercises.values()].flat()])];
   const notes = names.length
     ? await tx
         .select({ name: exercises.name, cautions: exercises.cautions, easierOption: exercises.easierOption, harderOption: exercises.harderOption })

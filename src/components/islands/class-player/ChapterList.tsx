@@ -44,6 +44,14 @@ export function ChapterList(props: {
                 <span className="block text-sm text-ink-soft tabular">
                   {formatClock(c.startSeconds)} · {formatClock(c.endSeconds - c.startSeconds)}
                 </span>
+                {c.exercises && c.exercises.length > 0 && (
+                  <span className="block text-sm" data-chapter-repeat>
+                    Repeat: {c.exercises.join(' · ')}
+                  </span>
+                )}
+                {c.exercises?.map((name) => props.notes.get(name.toLowerCase())?.cautions).filter(Boolean).map((caution) => (
+                  <span key={caution} className="block text-xs text-warning">{caution}</span>
+                ))}
                 {note?.easierOption && <span className="block text-xs text-ink-soft">Easier: {note.easierOption}</span>}
                 {note?.cautions && <span className="block text-xs text-warning">{note.cautions}</span>}
               </span>

@@ -14,7 +14,7 @@ const KIND_RING: Record<string, string> = {
  * The overlay members follow from their mat: big digits and a ring for the time left, the part
  * now on (always in words, never colour alone), the round, and what comes next.
  */
-export function IntervalClock({ clock, note }: { clock: ClockState; note: ExerciseNote | undefined }) {
+export function IntervalClock({ clock, note, repeat }: { clock: ClockState; note: ExerciseNote | undefined; repeat?: readonly string[] | undefined }) {
   const { current } = clock;
   const share = clock.length > 0 ? clock.remaining / clock.length : 0;
   const r = 54;
@@ -78,6 +78,12 @@ export function IntervalClock({ clock, note }: { clock: ClockState; note: Exerci
         {clock.next && (
           <p className="text-sm text-stone" data-testid="clock-next">
             Next: {clock.next.label} in <span className="tabular">{formatClock(Math.ceil(clock.next.inSeconds))}</span>
+          </p>
+        )}
+        {repeat && repeat.length > 0 && current?.kind === 'work' && (
+          // An AMRAP's span has no exercise of its own: members need the list they repeat.
+          <p className="text-sm font-semibold" data-testid="clock-repeat">
+            Repeat: {repeat.join(' · ')}
           </p>
         )}
         {note && current?.kind === 'work' && (note.easierOption || note.cautions) && (

@@ -9,6 +9,8 @@ export interface SegmentInspectorProps {
   segment: Segment | undefined;
   cue: Cue | undefined;
   exercises: readonly string[];
+  /** An AMRAP span: the exercises of the plan's AMRAP block it stands for (undefined when none matches). */
+  amrapExercises: readonly string[] | undefined;
   exerciseInputRef: RefObject<HTMLInputElement | null>;
   onKind(kind: SegmentKind): void;
   onExercise(exercise: string): void;
@@ -91,6 +93,7 @@ export default function SegmentInspector({ exerciseInputRef, ...p }: SegmentInsp
             </datalist>
           </label>
         </div>
+        {s.format === 'amrap' && s.kind === 'work' && <AmrapList exercises={p.amrapExercises} />}
         <SegmentDetailsFields key={`${s.id}|${s.title ?? ''}|${s.round ?? ''}|${s.set ?? ''}|${s.side ?? ''}`} segment={s} onDetails={p.onDetails} />
         <fieldset className="mt-3">
           <legend className="text-sm font-semibold">Boundary to move</legend>
@@ -168,6 +171,25 @@ export default function SegmentInspector({ exerciseInputRef, ...p }: SegmentInsp
 }
 
 const field = 'rounded-[10px] border border-slate bg-chalk px-3 py-2 font-normal';
+
+/** What members repeat in this AMRAP span; the list is edited in the plan, where it lives. */
+function AmrapList({ exercises }: { exercises: readonly string[] | undefined }) {
+  if (!exercises) {
+    return (
+      <p className="mt-3 text-sm text-ink-soft" data-amrap-exercises="none">
+        No AMRAP block of the plan matches this span, so members see no list of exercises. Add an AMRAP block to the plan, or change the span’s format.
+      </p>
+    );
+  }
+  return (
+    <div className="mt-3 rounded-[10px] bg-paper p-3" data-amrap-exercises>
+      <p className="text-sm font-semibold">Members repeat, as many rounds as they can (from the plan):</p>
+      <ol className="mt-1 list-decimal pl-5 text-sm">
+        {exercises.map((name, i) => <li key={i}>{name}</li>)}
+      </ol>
+    </div>
+  );
+}
 
 /**
  * Title, round, set and side of the selected segment. Text and numbers are kept as typed and

@@ -133,6 +133,7 @@ function Editor({ lessonId, data, peaks }: { lessonId: string; data: EditorData;
           segment={selectedSegment}
           cue={selectedCue}
           exercises={c.exercises}
+          amrapExercises={selectedSegment ? c.amrapExercises.get(selectedSegment.id) : undefined}
           exerciseInputRef={exerciseInput}
           onKind={(kind) => dispatch({ type: 'set-kind', kind })}
           onExercise={(exercise) => dispatch({ type: 'set-exercise', exercise })}

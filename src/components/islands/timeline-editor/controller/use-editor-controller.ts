@@ -17,6 +17,7 @@ import type { EditorData } from '../editor-api';
 import { announcePlanSaved, onPlanSaved } from '../../plan-events';
 import { savePlan } from '../../plan-builder/plan-api';
 import { leaveStationOut } from '~/lib/plan/leave-out';
+import { amrapExercisesBySegment } from '~/lib/timing/amrap-exercises';
 import { createPlayheadStore } from '../playhead-store';
 import type { MediaTimelineHandle } from '../MediaTimeline';
 import { runCommand, ZOOM_LEVELS, type CommandArgs, type CommandContext } from './editor-commands';
@@ -81,6 +82,8 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
   const onsets = useMemo(() => (peaks ? findOnsets(peaks) : []), [peaks]);
   const planned = useMemo(() => (plan ? plannedBoundaries(plan, planAnchor(plan, state.timeline)) : []), [plan, state.timeline]);
   const exercises = useMemo(() => exerciseNames(plan, state.timeline.segments), [plan, state.timeline.segments]);
+  // What members repeat in each marked AMRAP span, from the plan (matched as the check matches).
+  const amrapExercises = useMemo(() => (plan ? amrapExercisesBySegment(plan, state.timeline.segments) : new Map<string, string[]>()), [plan, state.timeline.segments]);
 
   // About 10 pixels on screen, whatever the zoom.
   const snapDistance = () => Math.min(2, Math.max(0.05, (media.current?.secondsPerPixel() ?? 0.05) * 10));
@@ -205,6 +208,7 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
     exerciseInput,
     check,
     exercises,
+    amrapExercises,
     snapOn,
     setSnapOn,
     zoomIndex,
