@@ -153,6 +153,13 @@ describe('timeline diff for the save conflict', () => {
     expect(d.map((x) => [x.id, x.change])).toEqual([['a', 'changed'], ['c', 'only-mine'], ['q9', 'only-theirs']]);
     expect(d[0]).toMatchObject({ mine: 'Work "Fast feet" 0:10.0–0:30.0', theirs: 'Work "Fast feet" 0:11.0–0:30.0' });
   });
+
+  it('counts a changed side or format as a change, in words', () => {
+    const theirs: Timeline = { ...base, segments: [{ ...base.segments[0]!, side: 'left' }, { ...base.segments[1]!, format: 'amrap' }] };
+    const d = diffTimelines(base, theirs);
+    expect(d.filter((x) => x.kind === 'segment').map((x) => [x.id, x.change])).toEqual([['a', 'changed'], ['b', 'changed'], ['c', 'only-mine']]);
+    expect(d[0]).toMatchObject({ mine: 'Work "Fast feet" 0:10.0–0:30.0', theirs: 'Work "Fast feet" left side 0:10.0–0:30.0' });
+  });
 });
 
 describe('keyboard map', () => {
