@@ -34,12 +34,16 @@ export default async function setup() {
 /** Where the running worker's pid is kept, so a fault test can kill it and start another. */
 export const WORKER_PID_FILE = `test-results/worker-${process.env.ROUNDMARK_TEST_PORT ?? '4399'}.pid`;
 
-/** Starts the job worker; a short stale limit lets recovery tests finish in seconds. */
-export function startWorker(): ChildProcess {
+/**
+ * Starts the job worker; a short stale limit lets recovery tests finish in seconds. `env` adds
+ * settings; `prefix` runs it through another program first (a test's size-limited scratch disk).
+ */
+export function startWorker(options: { env?: Record<string, string>; prefix?: string[] } = {}): ChildProcess {
   mkdirSync('test-results', { recursive: true });
   const log = openSync('test-results/worker.log', 'a');
-  const child = spawn('node', ['--import', 'tsx', 'src/worker.ts'], {
-    env: { ...process.env, ROUNDMARK_STALE_SECONDS: '8' },
+  const [program, ...args] = [...(options.prefix ?? []), 'node', '--import', 'tsx', 'src/worker.ts'];
+  const child = spawn(program!, args, {
+    env: { ...process.env, ROUNDMARK_STALE_SECONDS: '8', ...options.env },
     stdio: ['ignore', log, log],
   });
   writeFileSync(WORKER_PID_FILE, String(child.pid));

@@ -41,6 +41,11 @@ export const recordings = pgTable(
      */
     heartbeatAt: timestamp({ withTimezone: true }),
     failureReason: text(),
+    /**
+     * While processing: why the step's last attempt failed (the queue tries it again), in words for
+     * the coach; cleared by the next state change.
+     */
+    retryReason: text(),
     /** Whether Retry can help (interrupted) or not (refused); set only when failed. */
     failureKind: recordingFailureEnum(),
     warnings: text().array().notNull().default(sql`'{}'::text[]`),

@@ -64,6 +64,7 @@ export const recordingOutput = z
     step: z.enum(RECORDING_STEPS).nullable(),
     progress: z.number(),
     failureReason: z.string().nullable(),
+    retryReason: z.string().nullable().describe('While processing: why the last attempt failed; the step is being tried again.'),
     warnings: z.array(z.string()),
     durationSeconds: z.number().nullable().describe('The length used everywhere: what the video packets cover, when the container disagrees.'),
     containerSeconds: z.number().nullable().describe('The length the file claims, when it differs from durationSeconds by more than a second or is missing.'),

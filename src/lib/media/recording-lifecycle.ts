@@ -28,6 +28,16 @@ export type FailureKind = (typeof FAILURE_KINDS)[number];
 export const INTERRUPTED_REASON =
   'Processing stopped because of a problem on our side (the worker or the file store), not because of your file. Press Retry to process it again.';
 
+/** Shown when the processing server's scratch space ran out on the last automatic attempt; Retry can help once there is room. */
+export const SCRATCH_FULL_REASON =
+  'Processing stopped because the processing server ran out of scratch space, not because of your file. Press Retry to process it again.';
+
+/** Shown while the queue tries a step again after an attempt failed on our side. */
+export const RETRY_REASONS = {
+  scratchFull: 'The last attempt stopped because the processing server ran out of scratch space (not because of your file). It will try again by itself.',
+  ourSide: 'The last attempt stopped because of a problem on our side (the worker or the file store), not because of your file. It will try again by itself.',
+} as const;
+
 /** A recording's position in its life. `step` is set only while uploading or processing. */
 export interface RecordingStatus {
   state: RecordingState;

@@ -88,6 +88,10 @@ export const packageRecording: JobHandler<'recording.package'> = async ({ record
     // "Mark it for me" needs the recording's audio events; hearing them does not hold up readiness.
     await ctx.send('recording.audio-events', { recordingId: rec.id }, `recording.audio-events:${rec.id}`);
     return { outcome: 'done', detail: `${ladder.length} renditions` };
+  } catch (err) {
+    // Half-written outputs would only fill the scratch disk until the retry; the source stays for it.
+    await cleanScratch(out).catch(() => {});
+    throw err;
   } finally {
     stopHeartbeat();
   }

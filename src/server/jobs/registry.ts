@@ -15,8 +15,8 @@ import { mailPasswordReset, mailSignUpAttempt, mailVerifyEmail } from './mail-ac
 
 /** One handler per job name. */
 export const JOB_HANDLERS: { [N in JobName]: JobHandler<N> } = {
-  'recording.probe': recordingStep(probeRecording),
-  'recording.package': recordingStep(packageRecording),
+  'recording.probe': recordingStep('recording.probe', probeRecording),
+  'recording.package': recordingStep('recording.package', packageRecording),
   'recording.audio-events': analyzeAudioEvents,
   'uploads.cleanup': cleanupUploads,
   'lessons.publish-due': publishDue,

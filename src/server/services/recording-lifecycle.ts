@@ -118,6 +118,7 @@ async function applyEventWith(db: Db | Tx, row: RecordingRow, event: RecordingEv
       step: to.step,
       failureKind: to.failureKind,
       ...(to.state === 'failed' ? {} : { failureReason: facts.failureReason ?? null }),
+      retryReason: null,
       progress: to.state === 'ready' ? 100 : to.step === 'upload-outputs' ? 95 : 0,
       // A step handed to the queue has no heartbeat until a worker picks it up.
       heartbeatAt: sameJobContinues(from, to) ? now : null,
@@ -239,9 +240,22 @@ export async function recoverLostSteps(deps: AppDeps, staleSeconds: number, queu
  * Records that processing stopped on our side after the queue's last attempt (a worker crash, a
  * store outage): the coach is offered Retry, which can help here.
  */
-export async function markInterrupted(deps: AppDeps, recordingId: string): Promise<void> {
+export async function markInterrupted(deps: AppDeps, recordingId: string, reason = INTERRUPTED_REASON): Promise<void> {
   const row = await loadRecording(deps, recordingId);
-  if (row && canHappen('interrupted', statusOf(row))) await applyEvent(deps, row, 'interrupted', { failureReason: INTERRUPTED_REASON });
+  if (row && canHappen('interrupted', statusOf(row))) await applyEvent(deps, row, 'interrupted', { failureReason: reason });
+}
+
+/**
+ * Says on a processing recording why its last attempt failed while the queue tries again (the
+ * coach sees it under the progress); the next state change clears it. The step now waits for its
+ * retry in the queue, so it has no heartbeat: recovery must not take the failed attempt for a
+ * dead worker and queue a second job beside the queue's own retry.
+ */
+export async function noteRetry(deps: AppDeps, recordingId: string, reason: string): Promise<void> {
+  await deps.db
+    .update(recordings)
+    .set({ retryReason: reason, heartbeatAt: null, updatedAt: new Date() })
+    .where(and(eq(recordings.id, recordingId), eq(recordings.state, 'processing')));
 }
 
 /** Uploads still open and untouched since `before` (abandoned by their browser). */

@@ -49,6 +49,7 @@ export function toRecordingOutput(r: RecordingRow, currentId: string | null): Re
     step: r.step,
     progress: r.progress,
     failureReason: r.failureReason,
+    retryReason: r.state === 'processing' ? r.retryReason : null,
     warnings: r.warnings,
     durationSeconds: r.durationSeconds,
     containerSeconds: r.containerSeconds,

@@ -92,6 +92,12 @@ function RecordingItem({ rec, uploadingHere, onRetry }: { rec: RecordingOutput }
             />
           )}
 
+          {kind === 'processing' && rec.retryReason && (
+            <p className="text-sm text-warning" data-retry-reason>
+              {rec.retryReason}
+            </p>
+          )}
+
           {kind === 'stalled' && (
             <p className="text-sm text-ink-soft">
               This upload stopped before it finished: it was cancelled, the page was closed, or it is still running in
