@@ -52,7 +52,7 @@ let added = 0;
 for (const l of demo.lessons) {
   const exists = await db.query.lessons.findFirst({ where: and(eq(lessons.studioId, studio.id), eq(lessons.slug, l.slug)) });
   if (exists) continue;
-  const { coach, changeSignal: _soundtrackOnly, captioned, ...fields } = l;
+  const { coach, changeSignal, captioned, ...fields } = l;
   const plan = planSchema.parse(l.plan);
   const schedule = expandPlan(plan);
   const timeline = l.state === 'draft' ? withDeliberateMistakes(demoTimeline(schedule)) : demoTimeline(schedule);
@@ -77,7 +77,7 @@ for (const l of demo.lessons) {
   if (captioned) {
     // Written here, not through the captions save: that one waits for a ready recording, and the
     // demo recording is made later from this same timeline (its length is `mediaSeconds`).
-    const cues = captionCuesSchema.parse(demoCaptions(timeline));
+    const cues = captionCuesSchema.parse(demoCaptions(timeline, mediaSeconds, changeSignal ?? 'beeps'));
     const past = Object.values(captionsPastRecording(cues, mediaSeconds));
     if (past.length) throw new Error(`demo captions of ${l.title}: ${past[0]}`);
     await db.insert(lessonCaptions).values({ lessonId: row!.id, version: 1, language: 'en', label: 'English captions', cues }).onConflictDoNothing();

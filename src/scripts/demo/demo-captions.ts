@@ -1,43 +1,53 @@
 import type { CaptionCue } from '~/lib/captions/caption-schema';
+import type { ChangeSignal, SoundtrackScore, SpokenLine } from '~/lib/media/class-soundtrack';
 import type { Timeline } from '~/lib/timeline/timeline-schema';
-
-/** What the coach says during each Desk-Break Mobility station (invented demo text). */
-const STATION_LINES: Record<string, string> = {
-  'Neck release': 'Ear towards the shoulder, let the weight of the head do the work.',
-  'Shoulder circles': 'Big slow circles, lift the shoulders up, back and down.',
-  'Cat-cow': 'Hands on the desk, round the back, then lengthen through the chest.',
-  'Thoracic rotation': 'Hips stay still, turn from the middle of the back.',
-  'Hip flexor stretch': 'Small step back, tuck the tailbone, feel the front of the hip open.',
-  'Reverse lunge': 'Step back softly, hold the desk if you need the balance.',
-};
+import { DEMO_FPS, demoSoundtrackScore, demoSpans } from './demo-spans';
 
 /**
- * Captions for a demo class, following its marked timeline: the coach's words at each part
- * (invented demo text). They are not yet derived from the demo soundtrack's own spoken lines
- * (lib/media/class-soundtrack.ts), so they do not caption its count or music.
+ * How long a spoken line stays on screen: about 0.4 s a word plus a little, at least 1.2 s.
+ * A rule of thumb for a speech synthesiser's default pace (common practice, no source); the
+ * next coach line cuts it short, so captions never pile up behind the voice.
  */
-export function demoCaptions(timeline: Timeline): CaptionCue[] {
-  const cues: CaptionCue[] = [];
-  const add = (startSeconds: number, endSeconds: number, text: string) => cues.push({ startSeconds, endSeconds, text });
-  const segments = [...timeline.segments].sort((a, b) => a.startSeconds - b.startSeconds);
-  const rounds = Math.max(1, ...segments.map((s) => s.round ?? 1));
-  segments.forEach((s, i) => {
-    const next = segments[i + 1];
-    const at = s.startSeconds;
-    if (s.kind === 'intro') {
-      add(at + 0.5, at + 6, 'Welcome to Desk-Break Mobility: ten quiet minutes, no equipment.');
-      add(at + 6.5, at + 13, 'Move gently, and stop if anything hurts or you feel dizzy.');
-    } else if (s.kind === 'work' && s.exercise) {
-      add(at, at + 4, `${s.exercise}${rounds > 1 && s.round ? `, round ${s.round} of ${rounds}` : ''}.`);
-      const line = STATION_LINES[s.exercise];
-      if (line) add(at + 6, at + 13, line);
-      add(s.endSeconds - 6, s.endSeconds - 1, 'Keep breathing, a few more seconds.');
-    } else if (s.kind === 'rest') {
-      add(at, at + 4, `Rest.${next?.exercise ? ` Next: ${next.exercise}.` : ''}`);
-    } else if (s.kind === 'outro') {
-      add(at, at + 6, 'Well done. Roll the shoulders once more before you sit back down.');
-      add(at + 6.5, s.endSeconds - 2, 'Have some water. See you at the next desk break.');
-    }
+const SECONDS_PER_WORD = 0.4;
+const MIN_CAPTION_SECONDS = 1.2;
+
+const words = (text: string) => text.trim().split(/\s+/).length;
+const sentence = (text: string) => text.charAt(0).toUpperCase() + text.slice(1);
+
+/** The caption text of one spoken line: the coach's words as said, others marked as from the room. */
+export function captionText(line: SpokenLine): string {
+  return line.voice === 'chatter' ? `[In the room] ${sentence(line.text)}` : `${sentence(line.text)}.`;
+}
+
+/**
+ * Captions of a demo soundtrack: one caption per spoken line, starting when it is spoken, and
+ * the music marked where it starts (captions carry the sounds that matter, HTML Standard, the
+ * track element's `captions` kind).
+ */
+export function captionsFromScore(score: SoundtrackScore): CaptionCue[] {
+  const coachStarts = score.lines.filter((l) => l.voice === 'coach').map((l) => l.atSeconds);
+  const cues: CaptionCue[] = score.lines.map((line) => {
+    const said = Math.max(MIN_CAPTION_SECONDS, words(line.text) * SECONDS_PER_WORD + 0.4);
+    const nextCoach = line.voice === 'coach' ? coachStarts.find((t) => t > line.atSeconds + 0.05) : undefined;
+    // Half a second inside the end: the measured recording may come out a frame shorter.
+    const end = Math.min(line.atSeconds + said, nextCoach ?? Infinity, score.durationSeconds - 0.5);
+    return { startSeconds: line.atSeconds, endSeconds: end, text: captionText(line) };
   });
-  return cues;
+  if (score.music.to - score.music.from > 3) {
+    cues.push({ startSeconds: score.music.from, endSeconds: score.music.from + 3, text: '[Music starts, quietly]' });
+  }
+  // WebVTT §4.1: cue starts never go backwards; times in milliseconds as the schema stores them.
+  return cues
+    .map((c) => ({ ...c, startSeconds: Math.round(c.startSeconds * 1000) / 1000, endSeconds: Math.round(c.endSeconds * 1000) / 1000 }))
+    .filter((c) => c.endSeconds > c.startSeconds)
+    .sort((a, b) => a.startSeconds - b.startSeconds);
+}
+
+/**
+ * Captions for a demo class: the words its generated recording speaks, at the times they are
+ * spoken. Built from the same score the demo recording job mixes (same spans, frame rate and
+ * change signal), so the words and times match what members hear (invented demo content).
+ */
+export function demoCaptions(timeline: Timeline, mediaSeconds: number, signal: ChangeSignal): CaptionCue[] {
+  return captionsFromScore(demoSoundtrackScore(demoSpans(timeline.segments, mediaSeconds), DEMO_FPS, signal));
 }

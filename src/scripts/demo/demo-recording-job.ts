@@ -18,7 +18,7 @@ import { insertRecording } from '~/server/services/recording-lifecycle';
 import type { JobContext, JobOutcome } from '~/server/jobs/job-context';
 import { cleanScratch } from '~/server/jobs/recording-files';
 import { buildDemoVideoArgs } from './demo-video-args';
-import { demoSoundtrackScore, demoSpans } from './demo-spans';
+import { DEMO_FPS, demoSoundtrackScore, demoSpans } from './demo-spans';
 import { lessons as demoLessons } from './fernhill';
 
 /** The demo queue's name; deliberately outside the production job names in src/server/queue.ts. */
@@ -43,9 +43,6 @@ export async function registerDemoRecordingJob(
   await boss.createQueue(DEMO_RECORDING_JOB, QUEUE);
   await work(DEMO_RECORDING_JOB, (data) => demoRecording(data as { lessonId: string }, ctx));
 }
-
-/** Frame rate of demo recordings: the soundtrack's change signals sit on this frame grid. */
-const DEMO_FPS = 30;
 
 /**
  * Generates a demo class's recording (coloured spans naming each part, following the class's

@@ -41,6 +41,9 @@ export function demoSpans(segments: readonly Segment[], mediaSeconds: number): D
   return spans;
 }
 
+/** Frame rate of the demo recordings (their spans and sounds sit on its frame grid). */
+export const DEMO_FPS = 30;
+
 /** Parts the coach signals the change into: everything the plan lays out (not the welcome and goodbye). */
 const SIGNALLED = new Set<string>(['warmup', 'work', 'rest', 'round-break', 'cooldown', 'talk']);
 
