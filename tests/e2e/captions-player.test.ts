@@ -3,23 +3,28 @@
  * with its demo captions): the published WebVTT file, Chromium's own reading of the captions
  * track, and the CC button and key, remembered with the member's account across a reload.
  */
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import type { Browser, Page } from 'playwright-core';
 import { WebVTTParser } from 'webvtt-parser';
 import { BASE, DEMO, signedIn } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
+import { holdCaptionsChoice } from '../helpers/captions-choice';
 import { ensureDeskBreakPublished } from '../helpers/demo-class';
 import { signedInPage } from '../helpers/role-pages';
 
 let browser: Browser;
+let choice: Awaited<ReturnType<typeof holdCaptionsChoice>>;
 
 beforeAll(async () => {
   await ensureDeskBreakPublished();
+  choice = await holdCaptionsChoice(DEMO.member);
   browser = await launchBrowser();
 }, 360_000);
+// Each test starts with the member's captions off, whatever another test file left behind…
+beforeEach(() => choice.set(false));
 afterAll(async () => {
-  // Leave the demo member with captions off, as the other browser tests expect them.
-  await (await signedIn(DEMO.member)).put('/api/me/player-preferences', { captionsOn: false });
+  // …and the member gets back the choice they had before this file ran.
+  await choice?.restore();
   await browser?.close();
 });
 

@@ -1,20 +1,34 @@
 /**
  * A member without a mouse: signs in, filters the library, opens a class, plays it and jumps
- * between chapters with the keyboard only. Every stop the Tab key makes shows a visible focus
+ * between chapters and turns captions on with the keyboard only. Every stop the Tab key makes shows a visible focus
  * indicator (WCAG 2.2 SC 2.4.7 Focus Visible).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Browser, Locator, Page } from 'playwright-core';
 import { BASE, DEMO, DEMO_PASSWORD } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
+import { holdCaptionsChoice } from '../helpers/captions-choice';
 import { ensureDeskBreakPublished } from '../helpers/demo-class';
 
 let browser: Browser;
+let choice: Awaited<ReturnType<typeof holdCaptionsChoice>>;
 beforeAll(async () => {
   await ensureDeskBreakPublished();
+  // The member starts with captions off here, whatever another test left, and gets their choice back after.
+  choice = await holdCaptionsChoice(DEMO.member);
+  await choice.set(false);
   browser = await launchBrowser();
 }, 360_000);
-afterAll(() => browser?.close());
+afterAll(async () => {
+  await choice?.restore();
+  await browser?.close();
+});
+
+/** The captions track's mode as Chromium has it ('showing' when members see the captions). */
+const captionsMode = (page: Page) =>
+  page.getByTestId('class-video').evaluate((v: HTMLVideoElement) => Array.from(v.textTracks).find((t) => t.kind === 'captions')?.mode ?? 'none');
+/** Waits for the player to remember a captions choice with the account. */
+const remembered = (page: Page) => page.waitForResponse((r) => r.url().endsWith('/api/me/player-preferences') && r.request().method() === 'PUT' && r.status() === 200);
 
 /** What has focus, and whether it shows it (an outline or a ring). */
 const focused = (page: Page) =>
@@ -98,6 +112,29 @@ describe('keyboard only', () => {
     await expect.poll(async () => Number(await current())).toBe(before + 2);
     await page.keyboard.press('p');
     await expect.poll(async () => Number(await current())).toBe(before + 1);
+
+    // Captions: T (C is the clock's key) turns them on and off again…
+    const cc = page.getByTestId('captions-toggle');
+    expect(await cc.getAttribute('aria-pressed')).toBe('false');
+    expect(await captionsMode(page)).toBe('hidden');
+    let saved = remembered(page);
+    await page.keyboard.press('t');
+    await saved;
+    expect(await cc.getAttribute('aria-pressed')).toBe('true');
+    expect(await captionsMode(page)).toBe('showing');
+    saved = remembered(page);
+    await page.keyboard.press('t');
+    await saved;
+    expect(await cc.getAttribute('aria-pressed')).toBe('false');
+    expect(await captionsMode(page)).toBe('hidden');
+    // …and the CC button is reached with Tab (focus visible on the way) and pressed with Enter.
+    await tabTo(page, cc, stops);
+    saved = remembered(page);
+    await page.keyboard.press('Enter');
+    await saved;
+    expect(await cc.getAttribute('aria-pressed')).toBe('true');
+    expect(await captionsMode(page)).toBe('showing');
+    expect((await focused(page)).visible).toBe(true);
     await page.screenshot({ path: `${SHOTS}/keyboard-player.png` });
     console.log(`keyboard stops (${stops.length}): ${stops.join(' → ')}`);
     await context.close();

@@ -1,10 +1,13 @@
-import { mkdtemp, rm } from 'node:fs/promises';
+import { mkdtemp, readFile, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { WebVTTParser } from 'webvtt-parser';
 import { type ApiClient, DEMO, signedIn } from '../helpers/api-client';
-import { createSmallClass } from '../helpers/published-class';
+import { makeClip } from '../helpers/media-files';
+import { newMember } from '../helpers/payments';
+import { createSmallClass, SMALL_PLAN, smallTimeline } from '../helpers/published-class';
+import { uploadWhole, waitForRecording } from '../helpers/upload-flow';
 
 let dir: string;
 let coach: ApiClient;
@@ -119,9 +122,63 @@ describe('published captions (members)', () => {
   });
 
   it('remember the member’s captions choice, and refuse a bad one', async () => {
-    const ok = await member.put('/api/me/player-preferences', { captionsOn: true });
+    // A fresh account of its own: the demo member's choice is left alone for the browser tests.
+    const { client } = await newMember('captions-choice');
+    const ok = await client.put('/api/me/player-preferences', { captionsOn: true });
     expect(ok.status).toBe(200);
     expect(await ok.json()).toEqual({ captionsOn: true });
-    expect((await member.put('/api/me/player-preferences', { captionsOn: 'yes' })).status).toBe(400);
+    expect((await client.put('/api/me/player-preferences', { captionsOn: 'yes' })).status).toBe(400);
+    expect(await (await client.put('/api/me/player-preferences', { captionsOn: false })).json()).toEqual({ captionsOn: false });
   });
+});
+
+/** Uploads a generated test-pattern clip of `seconds` as the class's newest recording and waits until it is ready (and so current). */
+async function uploadRecording(lessonId: string, seconds: number): Promise<void> {
+  const clip = join(dir, `${lessonId}-${seconds}.mp4`);
+  await makeClip(clip, { seconds, size: '320x180' });
+  const { recordingId } = await uploadWhole(coach, lessonId, `take-${seconds}.mp4`, new Uint8Array(await readFile(clip)));
+  const ready = await waitForRecording(coach, recordingId);
+  if (ready.state !== 'ready') throw new Error(`recording ${ready.state}`);
+}
+
+describe('captions against a newer, shorter recording', () => {
+  it('block the publish and list the captions past the end until they are trimmed', async () => {
+    // The 12 s plan of the small class, first recorded in 20 s, then replaced by a 13 s take (generated clips).
+    const lesson = await (await coach.post('/api/lessons', { title: `Captions shorter take ${Date.now()}`, advertisedMinutes: 1, impact: 'low' })).json();
+    await coach.put(`/api/lessons/${lesson.id}/plan`, { version: lesson.version, ...SMALL_PLAN });
+    await coach.put(`/api/lessons/${lesson.id}/timeline`, { version: 0, ...smallTimeline() });
+    await uploadRecording(lesson.id, 20);
+    const captionsPath = `/api/lessons/${lesson.id}/captions`;
+    // Invented captions timed against the 20 s recording.
+    const cues = [
+      { startSeconds: 1, endSeconds: 3, text: 'Step up.' },
+      { startSeconds: 11, endSeconds: 14.5, text: 'Runs past the new end.' },
+      { startSeconds: 16, endSeconds: 19, text: 'After the new end.' },
+    ];
+    expect((await coach.put(captionsPath, { version: 0, language: 'en', label: 'English captions', cues })).status).toBe(200);
+
+    await uploadRecording(lesson.id, 13);
+    const draft = (await (await coach.get(captionsPath)).json()) as { version: number; cues: typeof cues; recordingSeconds: number };
+    // One video frame at 30 fps of tolerance on the measured length (shared/check-values.md, 'Media measurement (ffmpeg 5.1, checked here)').
+    expect(Math.abs(draft.recordingSeconds - 13)).toBeLessThan(0.034);
+    expect(draft.cues).toEqual(cues); // nothing changed behind the coach's back
+
+    // The publishing panel lists it, and the publish refuses with the same words.
+    const page = await (await coach.get(`/studio/classes/${lesson.id}`)).text();
+    expect(page).toContain('2 captions end after the recording');
+    const refused = await coach.post(`/api/lessons/${lesson.id}/publish`, { acknowledgeWarnings: true });
+    expect(refused.status).toBe(409);
+    expect((await refused.json()).error.message).toMatch(/^Not published: 2 captions end after the recording \(now 0:13\.\d{3} long\)/);
+    expect((await (await coach.get(`/api/lessons/${lesson.id}/versions`)).json()).versions).toEqual([]);
+
+    // The editor's fix (trim to the recording), saved like the editor saves it, lets the publish through.
+    const end = draft.recordingSeconds;
+    const trimmed = [cues[0]!, { ...cues[1]!, endSeconds: end }];
+    expect((await coach.put(captionsPath, { version: draft.version, language: 'en', label: 'English captions', cues: trimmed })).status).toBe(200);
+    expect(await (await coach.get(`/studio/classes/${lesson.id}`)).text()).not.toContain('end after the recording');
+    expect((await coach.post(`/api/lessons/${lesson.id}/publish`, { acknowledgeWarnings: true })).status).toBe(201);
+    const vtt = new WebVTTParser().parse(await (await member.get(`/classes/${lesson.slug}/captions.vtt`)).text());
+    expect(vtt.errors).toEqual([]);
+    expect(vtt.cues.map((c) => c.endTime)).toEqual([3, Math.round(end * 1000) / 1000]);
+  }, 240_000);
 });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { WebVTTParser } from 'webvtt-parser';
-import { captionsPastRecording, captionsPutSchema, MAX_CAPTION_CUES, type CaptionCue } from '~/lib/captions/caption-schema';
+import { captionsPastRecording, captionsPutSchema, MAX_CAPTION_CUES, trimCaptionsToRecording, type CaptionCue } from '~/lib/captions/caption-schema';
 import { captionFileFormat, captionsFromFile, captionsToVtt } from '~/lib/captions/captions-vtt';
 
 /**
@@ -94,5 +94,25 @@ describe('caption files', () => {
       'cues.1.endSeconds': expect.stringMatching(/Caption 2 ends after the recording/),
     });
     expect(captionsPastRecording([cue(9, 10, 'b')], 10)).toEqual({});
+  });
+});
+
+describe('captions against a shorter recording', () => {
+  // Invented cues around a recording that now ends at 10 s.
+  const cues: CaptionCue[] = [
+    { startSeconds: 1, endSeconds: 4, text: 'inside' },
+    { startSeconds: 8, endSeconds: 12, text: 'runs past the end' },
+    { startSeconds: 10, endSeconds: 11, text: 'starts at the end' },
+    { startSeconds: 11, endSeconds: 13, text: 'after the end' },
+  ];
+
+  it('lists each caption past the end by its field', () => {
+    expect(Object.keys(captionsPastRecording(cues, 10))).toEqual(['cues.1.endSeconds', 'cues.2.endSeconds', 'cues.3.endSeconds']);
+  });
+
+  it('trims to the recording: drops what starts at or after the end, ends the rest at the end', () => {
+    const trimmed = trimCaptionsToRecording(cues, 10);
+    expect(trimmed).toEqual([cues[0], { startSeconds: 8, endSeconds: 10, text: 'runs past the end' }]);
+    expect(captionsPastRecording(trimmed, 10)).toEqual({});
   });
 });

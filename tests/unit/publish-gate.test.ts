@@ -20,6 +20,12 @@ describe('the publish gate', () => {
     ['recording not ready', { ...ready, recordingReady: false }, 'recording-not-ready', ['Upload the recording and wait until it is ready.']],
     ['recording processing', { ...ready, recordingReady: false, recordingInProgress: true }, 'recording-not-ready', ['Wait for the recording to finish uploading and processing (reload this page to see its progress).']],
     ['two errors', { ...ready, findings: [finding('error'), finding('error'), finding('warning')] }, 'errors', ['Fix the 2 errors the timing check found.']],
+    [
+      'captions past a shorter recording',
+      { ...ready, captionsPastEnd: { count: 2, recordingSeconds: 40.5 } },
+      'captions-past-end',
+      ['2 captions end after the recording (now 0:40.500 long): in Captions, press “Trim to the recording” or change their times.'],
+    ],
   ] as const)('%s: the panel lists what the publish refuses', (_name, input, reason, blockers) => {
     const gate = publishGate(input);
     expect(gate.blockers).toEqual(blockers);

@@ -108,6 +108,14 @@ export function captionsPastRecording(cues: readonly CaptionCue[], recordingSeco
   return fields;
 }
 
+/**
+ * The captions fitted to a recording that is now shorter: captions that start at or after its end
+ * are dropped, captions that run past it end where it ends. The fix the editor offers.
+ */
+export function trimCaptionsToRecording(cues: readonly CaptionCue[], recordingSeconds: number): CaptionCue[] {
+  return cues.filter((c) => c.startSeconds < recordingSeconds).map((c) => (c.endSeconds > recordingSeconds ? { ...c, endSeconds: recordingSeconds } : c));
+}
+
 /** The member's player preferences (captions on or off), remembered with their account. */
 export const playerPreferencesPut = z
   .object({ captionsOn: z.boolean({ error: 'Say whether captions are on (true) or off (false).' }) })

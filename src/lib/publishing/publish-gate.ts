@@ -1,4 +1,5 @@
 import type { Finding } from '../timing/finding-types';
+import { formatPreciseTime } from '../time/format-time';
 
 /**
  * The publish rule, once: the panel lists what it says, and the publish itself refuses with the
@@ -12,6 +13,11 @@ export interface GateInput {
   recordingInProgress?: boolean;
   /** The timing check's findings; empty when there is no plan to check against. */
   findings: readonly Finding[];
+  /**
+   * Draft captions that end after the current recording (a newer, shorter recording replaced the
+   * one they were timed against): members would read them after the video ends, so they block.
+   */
+  captionsPastEnd?: { count: number; recordingSeconds: number };
 }
 
 export interface PublishGate {
@@ -34,8 +40,13 @@ export function publishGate(input: GateInput): PublishGate {
         ? ['Wait for the recording to finish uploading and processing (reload this page to see its progress).']
         : ['Upload the recording and wait until it is ready.']),
     ...(errors.length ? [`Fix the ${errors.length} error${plural(errors.length, '', 's')} the timing check found.`] : []),
+    ...(input.captionsPastEnd?.count ? [captionsPastEndMessage(input.captionsPastEnd)] : []),
   ];
   return { blockers, errors, warnings };
+}
+
+function captionsPastEndMessage({ count, recordingSeconds }: { count: number; recordingSeconds: number }): string {
+  return `${count} caption${plural(count, ' ends', 's end')} after the recording (now ${formatPreciseTime(recordingSeconds)} long): in Captions, press “Trim to the recording” or change ${plural(count, 'its', 'their')} times.`;
 }
 
 /** Why a publish is refused right now, or null when it may go ahead. */
@@ -43,6 +54,7 @@ export type GateRefusal =
   | { reason: 'no-plan'; message: string }
   | { reason: 'recording-not-ready'; message: string }
   | { reason: 'errors'; message: string; findings: Finding[] }
+  | { reason: 'captions-past-end'; message: string }
   | { reason: 'needs-acknowledgement'; message: string; findings: Finding[] };
 
 export function gateRefusal(gate: PublishGate, input: GateInput, acknowledgeWarnings: boolean): GateRefusal | null {
@@ -56,6 +68,7 @@ export function gateRefusal(gate: PublishGate, input: GateInput, acknowledgeWarn
       findings: gate.errors,
     };
   }
+  if (input.captionsPastEnd?.count) return { reason: 'captions-past-end', message: `Not published: ${captionsPastEndMessage(input.captionsPastEnd)}` };
   const w = gate.warnings.length;
   if (w && !acknowledgeWarnings) {
     return {

@@ -27,6 +27,10 @@ export const captionRoutes: RouteConfig[] = [
     responses: { 200: json(captionsSavedOutput, 'Imported'), ...errors(400, 401, 403, 404, 409, 413, 422) },
   },
   {
+    method: 'get', path: '/api/me/player-preferences', summary: 'The member’s remembered player choices (captions off until turned on)',
+    responses: { 200: json(playerPreferencesPut, 'Remembered choices'), ...errors(401) },
+  },
+  {
     method: 'put', path: '/api/me/player-preferences', summary: 'Remember the member’s captions choice for every device they play on',
     request: { body: json(playerPreferencesPut, 'Captions on or off') },
     responses: { 200: json(playerPreferencesPut, 'Remembered'), ...errors(400, 401) },

@@ -74,6 +74,12 @@ export async function captionsToPublish(tx: DbOrTx, lessonId: string): Promise<P
   return row && cues.length > 0 ? { language: row.language, label: row.label, cues } : undefined;
 }
 
+/** How many draft captions end after a recording of this length (publishing waits until none do). */
+export async function captionsPastEnd(db: DbOrTx, lessonId: string, recordingSeconds: number): Promise<number> {
+  const [row] = await db.select({ cues: lessonCaptions.cues }).from(lessonCaptions).where(eq(lessonCaptions.lessonId, lessonId));
+  return row ? Object.keys(captionsPastRecording(captionCuesSchema.parse(row.cues), recordingSeconds)).length : 0;
+}
+
 /** Whether the member turned captions on last time (off until they do). */
 export async function captionsPreference(deps: AppDeps, userId: string): Promise<boolean> {
   const [row] = await deps.db.select({ on: playerPreferences.captionsOn }).from(playerPreferences).where(eq(playerPreferences.userId, userId));

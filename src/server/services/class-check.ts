@@ -9,6 +9,7 @@ import type { AppDeps } from '../app';
 import type { DbOrTx } from '../db';
 import { parseStoredPlan } from './lesson-plans';
 import { readTimeline, type StoredTimeline } from './timelines';
+import { captionsPastEnd } from './captions';
 
 /**
  * The one loader behind the timing check: the check endpoint, the publishing panel and the
@@ -29,6 +30,8 @@ export interface LoadedClass {
   mediaSeconds: number | null;
   /** A newer recording is uploading or being processed (the panel says "wait", not "upload"). */
   recordingInProgress: boolean;
+  /** Draft captions ending after the current ready recording (0 without one). */
+  captionsPastEnd: number;
 }
 
 export async function loadClass(db: DbOrTx, studioId: string, lessonId: string): Promise<LoadedClass> {
@@ -45,14 +48,16 @@ export async function loadClass(db: DbOrTx, studioId: string, lessonId: string):
     .from(recordings)
     .where(and(eq(recordings.lessonId, lessonId), inArray(recordings.state, ['uploading', 'processing'])))
     .limit(1);
+  const ready = !!rec && rec.state === 'ready' && !!rec.durationSeconds;
   return {
     lesson: row.lesson,
     coachName: row.coachName,
     plan: parseStoredPlan(row.lesson.plan),
     timeline: await readTimeline(db, studioId, lessonId),
-    recording: rec ? { id: rec.id, ready: rec.state === 'ready' && !!rec.durationSeconds, durationSeconds: rec.durationSeconds } : null,
+    recording: rec ? { id: rec.id, ready, durationSeconds: rec.durationSeconds } : null,
     mediaSeconds: rec?.durationSeconds ?? row.lesson.mediaSeconds,
     recordingInProgress: !!inProgress,
+    captionsPastEnd: ready ? await captionsPastEnd(db, lessonId, rec.durationSeconds!) : 0,
   };
 }
 
@@ -65,7 +70,15 @@ export function checkLoaded(loaded: LoadedClass): CheckResult | null {
 /** The check and the publish gate of a loaded class: the same answer for the panel and the publish. */
 export function gateLoaded(loaded: LoadedClass): { check: CheckResult | null; gate: PublishGate; gateInput: GateInput } {
   const check = checkLoaded(loaded);
-  const gateInput: GateInput = { hasPlan: !!loaded.plan, recordingReady: !!loaded.recording?.ready, recordingInProgress: loaded.recordingInProgress, findings: check?.findings ?? [] };
+  const gateInput: GateInput = {
+    hasPlan: !!loaded.plan,
+    recordingReady: !!loaded.recording?.ready,
+    recordingInProgress: loaded.recordingInProgress,
+    findings: check?.findings ?? [],
+    ...(loaded.captionsPastEnd && loaded.recording?.durationSeconds
+      ? { captionsPastEnd: { count: loaded.captionsPastEnd, recordingSeconds: loaded.recording.durationSeconds } }
+      : {}),
+  };
   return { check, gate: publishGate(gateInput), gateInput };
 }
 
