@@ -268,3 +268,126 @@ describe('a coach authors a class from an empty one', () => {
     await context.close();
   }, 300_000);
 });
+
+// The whole job from "New class" to a member seeing it, only through the page's controls: a short
+// plan, a generated 117 s clip (invented test input: the recording stopped 3 s before the planned
+// 2:00 ended), the plan laid out as marks, the check's fix applied, a frame as cover, tags and
+// cautions, publish; then a member finds it in the library. Every click and key is counted.
+describe('from an empty class to published', () => {
+  it('a coach does the whole job in the browser and a member sees the class in the library', async () => {
+    const story = { clicks: 0, keys: 0 };
+    const typeIn = async (locator: ReturnType<Page['locator']>, text: string) => {
+      await locator.fill(text);
+      story.keys += text.length;
+    };
+    const press = async (locator: ReturnType<Page['locator']>) => {
+      await locator.click();
+      story.clicks += 1;
+    };
+    const title = `Story Squat Jumps ${Date.now().toString(36)}`;
+    const clip = path.join(dir, 'story.mp4');
+    await makeClip(clip, { seconds: 117, size: '320x180' });
+
+    const { context, page } = await signInPage(DEMO.coach);
+    const pageErrors: string[] = [];
+    page.on('pageerror', (e) => pageErrors.push(e.message));
+    // Classes → New class: title and a first guess at the length.
+    await page.goto(BASE() + '/studio');
+    await press(page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Classes' }).first());
+    await press(page.getByRole('link', { name: 'New class' }));
+    await typeIn(page.getByLabel('Title'), title);
+    await typeIn(page.getByLabel('Advertised length (minutes)'), '5');
+    await press(page.getByRole('button', { name: 'Create class' }));
+    await page.waitForURL(/\/studio\/classes\/[0-9a-f-]{36}/);
+    const storyLessonId = page.url().split('/').pop()!;
+
+    // Plan: warm-up 20 s, 3 × 20 s squat jumps with 10 s rest, cool-down 20 s = 2:00.
+    const plan = page.locator('[data-plan-builder]');
+    await plan.waitFor();
+    await typeIn(page.locator('[data-plan-block="warmup"]').getByLabel('Length (seconds)'), '20');
+    await press(page.getByRole('button', { name: '+ Intervals' }));
+    const intervals = page.locator('[data-plan-block="intervals"]');
+    await typeIn(intervals.getByLabel('Exercise'), 'Squat jump');
+    await typeIn(intervals.getByLabel('Sets'), '3');
+    await press(page.getByRole('button', { name: '+ Cool-down' }));
+    await typeIn(page.locator('[data-plan-block="cooldown"]').getByLabel('Length (seconds)'), '20');
+    await expect.poll(() => plan.locator('[data-planned-total]').textContent(), { timeout: 10_000 }).toBe('2:00');
+    expect(await plan.locator('[data-length-warning]').count()).toBe(1); // 2:00 against the advertised 5 min
+    await press(page.getByRole('button', { name: 'Save plan' }));
+    await expect.poll(() => plan.locator('[data-plan-save-state]').getAttribute('data-plan-save-state'), { timeout: 30_000 }).toBe('saved');
+
+    // Recording: through the upload control; the editor picks it up when the worker made it ready.
+    await page.locator('.uppy-Dashboard-input').first().waitFor({ state: 'attached' });
+    await page.setInputFiles('.uppy-Dashboard-input', clip);
+    story.clicks += 2; // "choose a file" and picking the file in the system dialog
+    await press(page.locator('.uppy-StatusBar-actionBtn--upload'));
+    await page.locator('[data-editor-ready="true"]').waitFor({ timeout: 240_000 });
+    await page.locator('[data-editor-video]').waitFor({ timeout: 60_000 });
+    await expect.poll(() => page.locator('[data-editor-video]').evaluate((v: HTMLVideoElement) => v.readyState), { timeout: 60_000 }).toBeGreaterThanOrEqual(1);
+
+    // Marks: the plan laid out from the playhead (0:00) with the planned lengths.
+    await press(page.getByRole('button', { name: 'Lay out plan from here' }));
+    await page.locator('[data-segment-list] summary').click();
+    story.clicks += 1;
+    await expect.poll(() => page.locator('[data-segment-id]').count(), { timeout: 10_000 }).toBe(7); // warm-up, 3 work, 2 rest, cool-down
+    // The check: the cool-down runs past the end of the recording; its suggested fix ends it there.
+    await expect.poll(() => page.locator('[data-check-summary]').textContent(), { timeout: 10_000 }).toMatch(/^1 error/);
+    const fixes = page.getByRole('button', { name: /^Apply fix: / });
+    expect(await fixes.count()).toBe(1);
+    expect(await fixes.first().getAttribute('aria-label')).toContain('after the recording ends at 1:57');
+    await press(fixes.first());
+    await expect.poll(() => page.locator('[data-check-summary]').textContent(), { timeout: 10_000 }).toMatch(/^0 errors/);
+    expect(await fixes.count()).toBe(0);
+    await press(page.getByRole('button', { name: 'Save timeline' }));
+    await page.locator('[data-save-state="saved"][data-dirty="false"]').waitFor({ timeout: 30_000 });
+
+    // Cover: choosing the second work interval in the list moves the playhead (and the video) to its start.
+    await press(page.locator('[data-segment-id]', { hasText: /^Work/ }).nth(1));
+    await expect.poll(() => page.locator('[data-editor-video]').evaluate((v: HTMLVideoElement) => !v.seeking && v.readyState >= 2 && v.currentTime > 0), { timeout: 30_000 }).toBe(true);
+    await press(page.getByRole('button', { name: 'Use this frame as cover' }));
+    await page.locator('[data-cover-picker]').getByRole('status').filter({ hasText: /is the cover now\.$/ }).waitFor({ timeout: 120_000 });
+    const coverUrl = await page.locator('[data-current-cover]').getAttribute('data-current-cover');
+    expect(coverUrl).toMatch(/\/cover\/[0-9a-f-]{36}\.jpg$/);
+
+    // Details: the real length, tags (equipment and focus) and a caution for this class.
+    const details = page.locator('form[data-lesson-version]');
+    await typeIn(details.getByLabel('Advertised length (minutes)'), '2');
+    await typeIn(details.getByLabel('Equipment'), 'mat');
+    await typeIn(details.getByLabel('Focus'), 'legs, cardio');
+    await typeIn(details.getByLabel('Cautions for this class'), 'Land softly; step instead of jumping if your knees hurt.');
+    await press(details.getByRole('button', { name: 'Save details' }));
+    await page.getByRole('status').filter({ hasText: 'Saved.' }).waitFor({ timeout: 30_000 });
+
+    // Publish: any warning the check still has is read and acknowledged, as a coach would.
+    const panel = page.getByTestId('publish-panel');
+    const acknowledge = panel.getByLabel('I reviewed these warnings; publish anyway.');
+    if (await acknowledge.count()) await press(acknowledge);
+    await press(panel.getByRole('button', { name: 'Publish now' }));
+    await page.getByRole('status').filter({ hasText: /^Published as version 1\. Members see it in the library now\.$/ }).waitFor({ timeout: 60_000 });
+    await page.screenshot({ path: `${SHOTS}/authoring-story-published.png`, fullPage: true });
+    expect(pageErrors).toEqual([]);
+    console.log(`empty class to published: ${story.clicks} clicks, ${story.keys} keys typed or pressed`);
+    const stored = await (await api.get(`/api/lessons/${storyLessonId}`)).json();
+    expect(stored).toMatchObject({ state: 'published', advertisedMinutes: 2, equipment: ['mat'], focus: ['legs', 'cardio'] });
+    await context.close();
+
+    // A member finds it in the library, with its cover, and opens it: chapters and the caution show.
+    const member = await signInPage(DEMO.member);
+    await member.page.goto(BASE() + '/');
+    await member.page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Library' }).first().click();
+    await member.page.getByLabel('Search').fill(title);
+    await member.page.getByRole('button', { name: 'Show classes' }).click();
+    const card = member.page.locator(`[data-class-card="${stored.slug}"]`);
+    await card.waitFor({ timeout: 30_000 });
+    expect(await card.locator('img[data-cover]').getAttribute('src')).toBe(coverUrl);
+    await card.getByRole('link').first().click();
+    await member.page.getByRole('heading', { name: title }).waitFor({ timeout: 30_000 });
+    const chapters = member.page.getByRole('list', { name: 'Chapters' });
+    await chapters.waitFor({ timeout: 30_000 });
+    expect(await chapters.textContent()).toContain('Squat jump');
+    expect(await member.page.getByText('Land softly; step instead of jumping if your knees hurt.').count()).toBeGreaterThanOrEqual(1);
+    await member.page.screenshot({ path: `${SHOTS}/authoring-story-member.png`, fullPage: true });
+    await member.context.close();
+  }, 600_000);
+});
+
