@@ -10,7 +10,7 @@ import { toMillis } from '../time/format-time';
 import { at, length } from './describe';
 import type { Finding } from './finding-types';
 import { withFix } from './finding-rules';
-import { proposeBoundaryMove, proposeStartAt } from './propose-fix';
+import { proposeEndAt, proposeStartAt } from './propose-fix';
 import type { TimelineView } from './timeline-view';
 
 interface MarkedMinute {
@@ -23,9 +23,9 @@ interface MarkedMinute {
  * Where minute 1 of the block began. Every marked minute proposes an origin ("its start − 60 s
  * × (minute − 1)"); the one most other minutes agree with (within the work tolerance) wins, and
  * among equals the one nearest the median, so one late minute is reported instead of shifting
- * all the others. An origin the marks cannot be
- * moved onto (a top before the recording, or past a neighbour) is passed over for the next,
- * so every start finding comes with a fix; the first minute's origin is the last resort.
+ * all the others. Among the best agreed origins, one the marks can be moved onto (not a top
+ * before the recording, or past a neighbour) is preferred, so the start findings come with a
+ * fix; when none can, a minute may be reported without a fix rather than all the others.
  */
 function blockOrigin(
   view: TimelineView,
@@ -45,7 +45,10 @@ function blockOrigin(
       const top = o + 60_000 * (m.minute - 1);
       return Math.abs(toMillis(s.startSeconds) - top) <= workTol || proposeStartAt(view, m.pos, top / 1000) !== undefined;
     });
-  return (ranked.find((c) => movable(c.o)) ?? ranked.find((c) => c.k === 0)!).o;
+  // Only origins as well agreed as the best are candidates: passing to a less agreed one because
+  // a fix is missing would report more minutes than are off, and the next round could flip back.
+  const best = ranked.filter((c) => c.n === ranked[0]!.n);
+  return (best.find((c) => movable(c.o)) ?? best[0]!).o;
 }
 
 /** `emom-minute` findings for every EMOM block with matched work marks. */
@@ -100,7 +103,7 @@ export function emomFindings(plan: Plan, view: TimelineView, workPlanned: Readon
       atSeconds: endSeg.endSeconds,
       segmentIds: [endSeg.id],
       message: `${name.charAt(0).toUpperCase()}${name.slice(1)} should end at ${at(due / 1000)}, ${block.minutes} minutes after its first minute began, but its last minute ends at ${at(endSeg.endSeconds)} (${length(Math.abs(off) / 1000)} ${off > 0 ? 'late' : 'early'}). Move the end to ${at(due / 1000)}.`,
-    }, proposeBoundaryMove(view, endPos, 'end', due / 1000)));
+    }, proposeEndAt(view, endPos, due / 1000)));
   });
   return out;
 }

@@ -78,10 +78,17 @@ export function lengthFindings(view: TimelineView): Finding[] {
         : s.kind === 'rest' || s.kind === 'round-break'
           ? long ? 'rest-too-long' : 'rest-too-short'
           : 'block-length';
-    const fix = proposeResize(view, i, exp.seconds);
-    const action = fix
+    // The planned length when the neighbours have room for it; else the nearest length the
+    // tolerance allows (a squeezed mark at the class's end often has room for that only).
+    const exact = proposeResize(view, i, exp.seconds);
+    const edge = (toMillis(exp.seconds) + (long ? 1 : -1) * toMillis(exp.tolerance)) / 1000;
+    const nearest = exact || !Number.isFinite(exp.tolerance) || edge <= 0 ? undefined : proposeResize(view, i, edge);
+    const fix = exact ?? nearest;
+    const action = exact
       ? `The suggested fix makes it ${length(exp.seconds)}.`
-      : `Move its ${long ? 'end earlier' : 'start earlier or its end later'} to make it ${length(exp.seconds)}.`;
+      : nearest
+        ? `The suggested fix makes it ${length(edge)}, the nearest the neighbouring marks allow within the tolerance.`
+        : `Move its ${long ? 'end earlier' : 'start earlier or its end later'} to make it ${length(exp.seconds)}.`;
     out.push(withFix({
       code,
       severity: s.kind === 'work' ? 'error' : 'warning',

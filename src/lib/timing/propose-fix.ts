@@ -42,6 +42,14 @@ const harmful = (c: Candidate): boolean => c.excess > c.excessBefore;
 const movesPinnedStart = (view: TimelineView, c: Candidate, ownId: string): boolean =>
   c.changes.some((ch) => ch.segmentId !== ownId && ch.field === 'startSeconds' && view.expected.get(ch.segmentId)?.pinnedStart === true);
 
+/**
+ * An EMOM's marks are held to the minute boundaries, not to lengths: a fix for another mark's
+ * length that moves one of their boundaries would undo (or break) the minute rule, and the two
+ * fixes would take turns. Such fixes are not offered; the EMOM's own fix moves its boundaries.
+ */
+const movesEmomMark = (view: TimelineView, c: Pick<Candidate, 'changes'>, ownId: string): boolean =>
+  c.changes.some((ch) => ch.segmentId !== ownId && view.expected.get(ch.segmentId)?.planned.blockKind === 'emom');
+
 /** Prefers moves that open no reportable gap, then that help the neighbour most, then no gap at all, then the end. */
 function better(a: Candidate, b: Candidate): boolean {
   const ka = [a.reportableGap, a.excess - a.excessBefore, a.opensGap, a.side];
@@ -57,6 +65,12 @@ function excessOf(view: TimelineView, segmentId: string, lengthMs: number): numb
   const exp = view.expected.get(segmentId);
   if (!exp) return 0;
   return Math.max(0, Math.abs(lengthMs - ms(exp.seconds)) - ms(exp.tolerance));
+}
+
+/** The planned length (ms) of a segment, or NaN when the plan gives it none. */
+function plannedMs(view: TimelineView, segmentId: string): number {
+  const exp = view.expected.get(segmentId);
+  return exp ? ms(exp.seconds) : NaN;
 }
 
 /**
@@ -161,7 +175,7 @@ export function proposeResize(view: TimelineView, i: number, targetSeconds: numb
   if (both) candidates.push(both);
 
   let best: Candidate | undefined;
-  for (const c of candidates) if (!harmful(c) && !movesPinnedStart(view, c, a.id) && (!best || better(c, best))) best = c;
+  for (const c of candidates) if (!harmful(c) && !movesPinnedStart(view, c, a.id) && !movesEmomMark(view, c, a.id) && (!best || better(c, best))) best = c;
   return best?.changes;
 }
 
@@ -254,7 +268,11 @@ function rippleNeighbours(view: TimelineView, ai: number, dir: 1 | -1, delta: nu
     const fLen = dir === 1 ? ms(f.endSeconds) - nEnd : nStart - ms(f.startSeconds);
     const before = excessOf(view, f.id, ms(f.endSeconds) - ms(f.startSeconds));
     const after = fLen > 0 ? excessOf(view, f.id, fLen) : Infinity;
-    if (fLen > 0 && after <= before) {
+    // The neighbour taking up the change must end within its tolerance, or closer to it on the
+    // same side: a too-long neighbour turned too short (or the reverse) would be fixed back by
+    // the next round, and the two findings would take turns.
+    const sameSide = Math.sign(fLen - plannedMs(view, f.id)) === Math.sign(ms(f.endSeconds) - ms(f.startSeconds) - plannedMs(view, f.id));
+    if (fLen > 0 && (after === 0 || (after < before && sameSide))) {
       changes.push({ segmentId: f.id, field: dir === 1 ? 'startSeconds' : 'endSeconds', value: sec(dir === 1 ? nEnd : nStart) });
       return { changes, excessBefore: before, reportableGap: 0, excess: after, opensGap: 0 };
     }
@@ -380,19 +398,59 @@ export function proposeBoundaryMove(view: TimelineView, i: number, edge: 'start'
 }
 
 /**
- * Starts segment `i` at `valueSeconds`: its start moves alone (with a neighbour sharing it), or
- * when that would turn the segment inside out, the whole segment moves keeping its length and
- * takes the shared boundaries on both sides with it. Undefined when neither fits.
+ * True when `changes` push any segment other than `ownId` (further) beyond its tolerance: such a
+ * fix only trades one finding for another, and repeated fixing would go back and forth.
+ */
+function harmsOthers(view: TimelineView, changes: readonly FixChange[], ownId: string): boolean {
+  const moved = new Map<string, { start: number; end: number }>();
+  for (const c of changes) {
+    if (c.segmentId === ownId) continue;
+    const pos = view.position.get(c.segmentId);
+    const seg = pos === undefined ? undefined : view.segments[pos];
+    if (!seg) continue;
+    const m = moved.get(c.segmentId) ?? { start: ms(seg.startSeconds), end: ms(seg.endSeconds) };
+    if (c.field === 'startSeconds') m.start = ms(c.value);
+    else m.end = ms(c.value);
+    moved.set(c.segmentId, m);
+  }
+  for (const [id, m] of moved) {
+    const seg = view.segments[view.position.get(id)!]!;
+    if (excessOf(view, id, m.end - m.start) > excessOf(view, id, ms(seg.endSeconds) - ms(seg.startSeconds))) return true;
+  }
+  return false;
+}
+
+/**
+ * Starts segment `i` at `valueSeconds`, for a rule about a point in time (an EMOM's top of the
+ * minute). In order of preference: its start moves alone (with a neighbour sharing it); the
+ * segments before it move whole so they keep their planned lengths; or, when the start alone
+ * would turn the segment inside out, the whole segment moves keeping its length and takes the
+ * shared boundaries on both sides with it. A move that pushes another segment (further) beyond
+ * its tolerance is never chosen. Undefined when none fits.
  */
 export function proposeStartAt(view: TimelineView, i: number, valueSeconds: number): FixChange[] | undefined {
-  const direct = proposeBoundaryMove(view, i, 'start', valueSeconds);
-  if (direct) return direct;
   const segs = view.segments;
   const a = segs[i];
   if (!a) return undefined;
+  const direct = proposeBoundaryMove(view, i, 'start', valueSeconds);
+  if (direct && !harmsOthers(view, direct, a.id)) return direct;
   const v = ms(valueSeconds);
-  const len = ms(a.endSeconds) - ms(a.startSeconds);
   const media = Number.isFinite(view.mediaSeconds) ? ms(view.mediaSeconds) : Infinity;
+  if (v < ms(a.endSeconds)) {
+    const ripple = rippleNeighbours(view, i, -1, v - ms(a.startSeconds), media);
+    const changes = ripple ? [...ripple.changes, { segmentId: a.id, field: 'startSeconds' as const, value: sec(v) }] : undefined;
+    if (changes && !harmsOthers(view, changes, a.id) && !movesPinnedStart(view, { changes } as Candidate, a.id)) return changes;
+  }
+  if (direct) return undefined;
+  const whole = moveWholeTo(view, i, v, media);
+  return whole && !harmsOthers(view, whole, a.id) && !movesPinnedStart(view, { changes: whole } as Candidate, a.id) ? whole : undefined;
+}
+
+/** Moves segment `i` whole so it starts at `v` ms, with the boundaries it shares. */
+function moveWholeTo(view: TimelineView, i: number, v: number, media: number): FixChange[] | undefined {
+  const segs = view.segments;
+  const a = segs[i]!;
+  const len = ms(a.endSeconds) - ms(a.startSeconds);
   if (v < 0 || v + len > media || v === ms(a.startSeconds)) return undefined;
   const changes: FixChange[] = [];
   const h = view.holderBefore[i]!;
@@ -409,4 +467,36 @@ export function proposeStartAt(view: TimelineView, i: number, valueSeconds: numb
     changes.push({ segmentId: next.id, field: 'startSeconds', value: sec(v + len) });
   } else if (next && v + len > ms(next.startSeconds)) return undefined;
   return changes;
+}
+
+/**
+ * Ends segment `i` at `valueSeconds`, for a rule about a point in time (an EMOM's last minute).
+ * The shared boundary moves with the next segment when that does not push it (further) beyond
+ * its own tolerance; otherwise the next segments move whole (`rippleNeighbours`) so they keep
+ * their planned lengths. Undefined when neither fits: a fix that only trades this finding for the
+ * neighbour's would make repeated fixing go back and forth.
+ */
+export function proposeEndAt(view: TimelineView, i: number, valueSeconds: number): FixChange[] | undefined {
+  const segs = view.segments;
+  const a = segs[i];
+  if (!a) return undefined;
+  const v = ms(valueSeconds);
+  const direct = proposeBoundaryMove(view, i, 'end', valueSeconds);
+  const next = segs[i + 1];
+  const movesNext = direct?.some((c) => c.segmentId !== a.id) === true;
+  if (direct && (!movesNext || !next)) return direct;
+  // The next segment's start is a top of a minute of its own: neither moving it nor moving it
+  // whole helps, the two rules would take turns. Leave the finding without a fix.
+  if (direct && movesPinnedStart(view, { changes: direct } as Candidate, a.id)) return undefined;
+  if (direct && next) {
+    const before = excessOf(view, next.id, ms(next.endSeconds) - ms(next.startSeconds));
+    if (excessOf(view, next.id, ms(next.endSeconds) - v) <= before) return direct;
+  }
+  if (v <= ms(a.startSeconds)) return undefined;
+  const media = Number.isFinite(view.mediaSeconds) ? ms(view.mediaSeconds) : Infinity;
+  if (v > media) return undefined;
+  const ripple = rippleNeighbours(view, i, 1, v - ms(a.endSeconds), media);
+  if (!ripple || ripple.excess > ripple.excessBefore) return undefined;
+  const candidate = { ...ripple, changes: [{ segmentId: a.id, field: 'endSeconds' as const, value: sec(v) }, ...ripple.changes], side: 0 };
+  return movesPinnedStart(view, candidate, a.id) ? undefined : candidate.changes;
 }
