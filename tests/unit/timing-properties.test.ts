@@ -91,6 +91,9 @@ const convergencePlanArb = planOf(
   classicBlockArb.filter((b) => (b.kind !== 'circuit' || b.stations.every((st) => !('perSide' in st))) && !(b.kind === 'intervals' && 'perSide' in b)),
 );
 
+/** Known defects: up to 6 shared boundaries moved by up to 90 % of the mark they eat into. */
+const movesArb = fc.array(fc.record({ pick: fc.nat(), fraction: fc.integer({ min: -900, max: 900 }).map((n) => n / 1000) }), { minLength: 1, maxLength: 6 });
+
 const tolerancesOf = (p: ReturnType<typeof plan>, kind: string): [number, string, string] => {
   if (kind === 'work') return [p.tolerances.workSeconds, 'work-too-long', 'work-too-short'];
   if (kind === 'rest' || kind === 'round-break') return [p.tolerances.restSeconds, 'rest-too-long', 'rest-too-short'];
@@ -157,19 +160,11 @@ describe('timing check properties (fast-check)', () => {
     fc.assert(
       fc.property(
         convergencePlanArb,
-        fc.array(fc.record({ pick: fc.nat(), fraction: fc.integer({ min: -900, max: 900 }).map((n) => n / 1000) }), { minLength: 1, maxLength: 6 }),
+        movesArb,
         (p, moves) => {
-          let t = timelineFromPlan(p);
-          fc.pre(t.segments.length >= 2);
-          for (const { pick, fraction } of moves) {
-            const i = pick % (t.segments.length - 1);
-            const left = t.segments[i]!;
-            const right = t.segments[i + 1]!;
-            const room = fraction > 0 ? right.endSeconds - right.startSeconds : left.endSeconds - left.startSeconds;
-            const at = Math.round((left.endSeconds + fraction * room) * 1000) / 1000;
-            if (!(at > left.startSeconds && at < right.endSeconds)) continue;
-            t = { cues: [], segments: t.segments.map((s, k) => (k === i ? { ...s, endSeconds: at } : k === i + 1 ? { ...s, startSeconds: at } : s)) };
-          }
+          const exact = timelineFromPlan(p);
+          fc.pre(exact.segments.length >= 2);
+          const t = withMovedBoundaries(exact, moves);
           const end = expandPlan(p).totals.classSeconds;
           const before = checkTiming(p, t, { mediaSeconds: end });
           if (!before.ok) startedWithErrors++;
@@ -198,7 +193,7 @@ describe('timing check properties (fast-check)', () => {
     fc.assert(
       fc.property(
         planArb,
-        fc.array(fc.record({ pick: fc.nat(), fraction: fc.integer({ min: -900, max: 900 }).map((n) => n / 1000) }), { minLength: 1, maxLength: 6 }),
+        movesArb,
         (p, moves) => {
           const t = withMovedBoundaries(timelineFromPlan(p), moves);
           const context = { mediaSeconds: expandPlan(p).totals.classSeconds };
