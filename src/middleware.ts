@@ -90,8 +90,8 @@ const handle = async (context: APIContext, next: MiddlewareNext): Promise<Respon
     if (found) {
       context.locals.pageStudio = found.studio;
       // On a studio's pages a person works in that studio (for this request; the session's choice stays).
-      const mine = context.locals.studios.find((s) => s.studioId === found.studio.id);
-      if (mine) context.locals.studio = mine;
+      // Someone not in it sees it as a visitor would (never another studio's data under its address).
+      context.locals.studio = context.locals.studios.find((s) => s.studioId === found.studio.id) ?? null;
     }
   }
   let response = await next();

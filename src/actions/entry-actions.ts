@@ -5,7 +5,8 @@ import { parseWith } from '~/server/http/api';
 import { requestAddress } from '~/server/http/client-address';
 import { homeAfterSignIn, requireUser } from '~/server/http/guards';
 import { clearSessionCookie, setSessionCookie } from '~/server/http/session-cookie';
-import { resolveStudio, SIGN_UP_ANSWER, signIn, signUp } from '~/server/services/accounts';
+import { joinStudio, resolveStudio, SIGN_UP_ANSWER, signIn, signUp } from '~/server/services/accounts';
+import { notFound } from '~/server/errors';
 import { FORGOT_PASSWORD_ANSWER, requestPasswordReset, resetPassword, sendVerificationLink } from '~/server/services/email-auth';
 import { acceptInvitation, acceptWithNewAccount, signInAndAcceptInvitation } from '~/server/services/invitations';
 import { formAction, formValues } from './form-action';
@@ -30,8 +31,18 @@ export const entryActions = {
 
   /** "Create account": the same answer whether or not the address already has an account. */
   signUp: formAction(async (form, ctx) => {
-    await signUp(app(), parseWith(signUpInput, formValues(form)), requestAddress(ctx));
+    // On a studio's join page (/s/{slug}/join) the account joins that studio.
+    await signUp(app(), parseWith(signUpInput, formValues(form)), requestAddress(ctx), ctx.locals.pageStudio?.id ?? null);
     return SIGN_UP_ANSWER;
+  }),
+
+  /** "Join" on a studio's join page, for someone already signed in: they become a member there. */
+  joinStudio: formAction(async (_form, ctx) => {
+    const { user, session } = requireUser(ctx.locals);
+    const studio = ctx.locals.pageStudio;
+    if (!studio) throw notFound('That studio');
+    const access = await joinStudio(app(), { sessionId: session.id, userId: user.id }, studio.id);
+    return `/s/${access.studioSlug}/library`;
   }),
 
   /** "Send me a link": the same answer whether or not the address has an account. */

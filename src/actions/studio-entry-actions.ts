@@ -6,10 +6,13 @@ import { AppError } from '~/server/errors';
 import { parseWith } from '~/server/http/api';
 import { requestAddress } from '~/server/http/client-address';
 import { requireUser } from '~/server/http/guards';
-import { setSessionCookie } from '~/server/http/session-cookie';
 import { chooseStudio } from '~/server/services/accounts';
 import { startStudio } from '~/server/use-cases/start-studio';
 import { formAction, formValues } from './form-action';
+
+/** What a visitor who started a studio is told, whether or not the address had an account. */
+export const START_ANSWER =
+  'Thanks! Check your inbox: we have sent a message to that address. Sign in with your e-mail and password to open your studio’s first-class checklist.';
 
 /** Where the founder lands: the first-class checklist. */
 export const WELCOME_PATH = '/studio/welcome';
@@ -33,7 +36,7 @@ export const studioEntryActions = {
     const { user, session } = requireUser(locals);
     const { studioId } = parseWith(currentStudioInput, formValues(form));
     const access = await chooseStudio(app(), { sessionId: session.id, userId: user.id }, studioId);
-    return access.roles.some((r) => r !== 'member') ? '/studio' : '/library';
+    return access.roles.some((r) => r !== 'member') ? '/studio' : `/s/${access.studioSlug}/library`;
   }),
 
   /** "Start a studio": a visitor also fills in their account; a signed-in person only the studio. */
@@ -49,11 +52,10 @@ export const studioEntryActions = {
     if (user && session) {
       const started = await startStudio(deps, { userId: user.id }, input);
       await chooseStudio(deps, { sessionId: session.id, userId: user.id }, started.studioId);
-      return WELCOME_PATH;
+      return { goTo: WELCOME_PATH };
     }
-    const account = parseAccount(v);
-    const started = await startStudio(deps, { account, address: requestAddress(ctx) }, input);
-    setSessionCookie(ctx.cookies, deps.auth, started.session!);
-    return WELCOME_PATH;
+    // A visitor: the same answer whether or not the address has an account (no session); they sign in next.
+    await startStudio(deps, { account: parseAccount(v), address: requestAddress(ctx) }, input);
+    return { sent: START_ANSWER };
   }),
 };

@@ -18,7 +18,7 @@ export interface JobPayloads {
   /** The first "confirm your address" link of a new account. */
   'mail.verify-email': { userId: string };
   /** Someone tried to sign up with an address that has an account: its owner hears about it. */
-  'mail.sign-up-attempt': { email: string };
+  'mail.sign-up-attempt': { email: string; /** Where the mail's sign-in link leads afterwards (a studio start: /start). */ signInPath?: string };
   /** A "forgot password" request: the lookup and the link happen here, never in the request. */
   'mail.password-reset': { email: string };
   /** A class was marked ready for review: its coaches and owner hear about it (the time names the hand-off). */

@@ -37,7 +37,7 @@ describe('changing the password on the account page', () => {
 
     const fresh = await (await browser.newContext({ javaScriptEnabled: false })).newPage();
     await signInThroughForm(fresh, email, 'another long password');
-    expect(new URL(fresh.url()).pathname).toBe('/library');
+    expect(new URL(fresh.url()).pathname).toBe('/s/fernhill/library');
     await fresh.context().close();
   });
 });
@@ -55,7 +55,7 @@ describe('the account-entry forms without JavaScript', () => {
     await page.getByLabel('Password').fill('short');
     await page.getByRole('button', { name: 'Create account' }).click();
     await page.locator('[data-field-error="password"]').waitFor();
-    expect(page.url()).toBe(BASE() + '/sign-up?_action=signUp');
+    expect(page.url()).toBe(BASE() + '/s/fernhill/join?_action=signUp'); // /sign-up leads to the studio's join page
     expect(await page.getByLabel('E-mail').inputValue()).toBe(email);
     expect(await page.getByLabel('Your name').inputValue()).toBe('Form Joiner');
     await page.getByLabel('Password').fill(PASSWORD);
@@ -63,7 +63,7 @@ describe('the account-entry forms without JavaScript', () => {
     // The same answer as for an address that has an account: no session, sign in next.
     expect(await page.getByRole('status').textContent()).toMatch(/^Thanks! Check your inbox/);
     await signInThroughForm(page, email, PASSWORD);
-    expect(new URL(page.url()).pathname).toBe('/library');
+    expect(new URL(page.url()).pathname).toBe('/s/fernhill/library');
     await context.close();
   });
 

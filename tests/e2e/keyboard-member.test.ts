@@ -69,7 +69,7 @@ describe('keyboard only', () => {
     await tabTo(page, page.getByLabel('Password'), stops);
     await page.keyboard.type(DEMO_PASSWORD);
     await page.keyboard.press('Enter');
-    await page.waitForURL(BASE() + '/library');
+    await page.waitForURL(BASE() + '/s/fernhill/library');
 
     await tabTo(page, page.getByLabel('Low impact'), stops);
     await page.keyboard.press('Space');

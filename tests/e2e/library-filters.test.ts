@@ -36,7 +36,7 @@ afterAll(async () => {
 
 async function signInAsMember(page: Page) {
   await signInThroughForm(page, DEMO.member);
-  await page.waitForURL(BASE() + '/library');
+  await page.waitForURL(BASE() + '/s/fernhill/library');
 }
 
 const cardSlugs = (page: Page) => page.locator('[data-class-card]').evaluateAll((els) => els.map((e) => e.getAttribute('data-class-card')));

@@ -46,7 +46,7 @@ describe('media delivery', () => {
       if (url.origin === STORE_ORIGIN) storeSegments.push(url.pathname);
     });
     await signInThroughForm(page, DEMO.member);
-    await page.waitForURL(BASE() + '/library');
+    await page.waitForURL(BASE() + '/s/fernhill/library');
     await page.goto(`${BASE()}/classes/${cls.slug}`);
     await page.waitForSelector('astro-island:not([ssr])');
     await startPlayingMuted(page);

@@ -24,7 +24,7 @@ describe('a member in the library and the player', () => {
     const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await context.newPage();
     await signInThroughForm(page, DEMO.member);
-    await page.waitForURL(BASE() + '/library');
+    await page.waitForURL(BASE() + '/s/fernhill/library');
 
     // Filters live in the URL and apply on the server.
     await page.getByLabel('Low impact').check();

@@ -15,7 +15,7 @@ describe('signing in through the form', () => {
     ['owner', DEMO.owner, '/studio', 'Fernhill Movement Co.'],
     ['coach', DEMO.coach, '/studio/classes', 'Classes'],
     ['editor', DEMO.editor, '/studio/classes', 'Classes'],
-    ['member', DEMO.member, '/library', 'Library'],
+    ['member', DEMO.member, '/s/fernhill/library', 'Library'],
   ])('the %s lands on their home page', async (role, email, home, heading) => {
     const { context, page } = await signedInPage(browser, email);
     await page.waitForURL(BASE() + home);

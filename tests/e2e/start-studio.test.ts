@@ -9,6 +9,7 @@ import type { Browser } from 'playwright-core';
 import sharp from 'sharp';
 import { BASE } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
+import { signInAfterStart } from '../helpers/role-pages';
 import { createAppDeps } from '~/server/app';
 import { billingSettings, memberships, studios } from '~/db/schema';
 
@@ -51,7 +52,7 @@ describe('start a studio in the browser', () => {
       await page.getByLabel('Password').fill('a long enough password');
       await page.getByLabel('Accent colour').fill('#2e5e4e');
       await page.getByRole('button', { name: 'Start my studio' }).click();
-      await page.waitForURL((u) => u.pathname === '/studio/welcome');
+      await signInAfterStart(page, `founder-${run}@story.example`, 'a long enough password');
       await page.getByTestId('first-class-checklist').waitFor();
       expect(await page.getByRole('heading', { level: 1 }).textContent()).toBe('Welcome to Story Pilates');
       expect(await page.getByTestId('join-link').inputValue()).toBe(`${BASE()}/s/${slug}/join`);

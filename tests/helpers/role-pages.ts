@@ -14,7 +14,7 @@ export async function pagesByRole(): Promise<Record<DemoRole, string[]>> {
   const desk = lessons.find((l) => l.slug === 'desk-break-mobility')!;
   const hill = lessons.find((l) => l.slug === 'hill-sprints-prep')!;
   const staffClassPages = ['/studio', '/studio/classes', '/studio/exercises', `/studio/classes/${desk.id}`, `/studio/classes/${hill.id}`];
-  const everyone = ['/library', '/library/history', '/classes/desk-break-mobility', '/account'];
+  const everyone = ['/s/fernhill', '/s/fernhill/library', '/s/fernhill/library/history', '/s/fernhill/classes/desk-break-mobility', '/account'];
   return {
     owner: [...staffClassPages, `/studio/classes/${desk.id}/insights`, '/studio/members', '/studio/billing', '/studio/team', '/studio/settings', '/studio/mail', ...everyone],
     coach: [...staffClassPages, `/studio/classes/${desk.id}/insights`, ...everyone],
@@ -25,7 +25,7 @@ export async function pagesByRole(): Promise<Record<DemoRole, string[]>> {
 }
 
 /** Pages anyone can open without signing in. */
-export const PUBLIC_PAGES = ['/', '/sign-in', '/sign-up', '/forgot-password'];
+export const PUBLIC_PAGES = ['/', '/sign-in', '/s/fernhill', '/s/fernhill/join', '/forgot-password'];
 
 /**
  * Signs in through the sign-in form with the real controls, as a person does, and waits until the
@@ -50,4 +50,17 @@ export async function signedInPage(browser: Browser, email: string, options: Bro
 /** A browser context signed in as a demo role through the sign-in form. */
 export function signedInContext(browser: Browser, role: DemoRole, viewport: { width: number; height: number }, options: { reducedMotion?: 'reduce' | 'no-preference' } = {}): Promise<{ context: BrowserContext; page: Page }> {
   return signedInPage(browser, DEMO[role], { viewport, ...options });
+}
+
+/**
+ * After the /start form: a visitor is told to check their inbox (the same answer whether or not
+ * the address had an account), follows "Sign in", and lands on the new studio's checklist.
+ */
+export async function signInAfterStart(page: Page, email: string, password: string): Promise<void> {
+  await page.getByRole('status').filter({ hasText: 'Check your inbox' }).waitFor();
+  await page.locator('#main').getByRole('link', { name: 'Sign in' }).click();
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.waitForURL((u) => u.pathname === '/studio/welcome');
 }

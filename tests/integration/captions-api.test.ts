@@ -104,7 +104,7 @@ describe('published captions (members)', () => {
   it('are snapshotted by the publish, served as WebVTT, and unchanged by later draft edits', async () => {
     expect((await coach.post(`/api/lessons/${cls.lessonId}/publish`, { acknowledgeWarnings: true })).status).toBe(201);
     const draft = await stored();
-    const res = await member.get(`/classes/${cls.slug}/captions.vtt`);
+    const res = await member.get(`/s/fernhill/classes/${cls.slug}/captions.vtt`);
     expect(res.status).toBe(200);
     expect(res.headers.get('content-type')).toMatch(/^text\/vtt/);
     const vtt = await res.text();
@@ -115,10 +115,10 @@ describe('published captions (members)', () => {
 
     // Removing every caption from the draft leaves the published file as it was (immutable like the chapters)…
     expect((await coach.put(path(), { version: draft.version, language: 'en', label: 'English captions', cues: [] })).status).toBe(200);
-    expect(await (await member.get(`/classes/${cls.slug}/captions.vtt`)).text()).toBe(vtt);
+    expect(await (await member.get(`/s/fernhill/classes/${cls.slug}/captions.vtt`)).text()).toBe(vtt);
     // …until the class is published again without them.
     expect((await coach.post(`/api/lessons/${cls.lessonId}/publish`, { acknowledgeWarnings: true })).status).toBe(201);
-    expect((await member.get(`/classes/${cls.slug}/captions.vtt`)).status).toBe(404);
+    expect((await member.get(`/s/fernhill/classes/${cls.slug}/captions.vtt`)).status).toBe(404);
   });
 
   it('remember the member’s captions choice, and refuse a bad one', async () => {

@@ -99,7 +99,7 @@ describe('class cover', () => {
     expect(picture.status).toBe(200);
     expect(picture.headers.get('content-type')).toBe('image/jpeg');
 
-    const library = await (await member.get(`/library?q=${encodeURIComponent(`Cover class ${suffix}`)}`)).text();
+    const library = await (await member.get(`/s/fernhill/library?q=${encodeURIComponent(`Cover class ${suffix}`)}`)).text();
     expect(library).toContain(`src="/media/${recordingId}/chapters/${versionId}/2.jpg"`);
     expect(library).not.toContain(`/media/${recordingId}/poster.jpg`);
   }, 180_000);
@@ -108,7 +108,7 @@ describe('class cover', () => {
     const chosen = await coach.put(`/api/lessons/${lessonId}/cover`, { source: 'chapter', chapter: 3 });
     expect(chosen.status).toBe(200);
     expect(await chosen.json()).toMatchObject({ coverUrl: `/media/${recordingId}/chapters/${versionId}/3.jpg`, chosen: true });
-    const page = await (await member.get(`/classes/${slug}`)).text();
+    const page = await (await member.get(`/s/fernhill/classes/${slug}`)).text();
     expect(page).toContain(`/media/${recordingId}/chapters/${versionId}/3.jpg`);
 
     const missing = await coach.put(`/api/lessons/${lessonId}/cover`, { source: 'chapter', chapter: 9 });
@@ -131,7 +131,7 @@ describe('class cover', () => {
     expect(body.coverUrl).toMatch(new RegExp(`^/media/${recordingId}/cover/[0-9a-f-]{36}\\.jpg$`));
     const stored = new Uint8Array(await (await fetchMedia(member, body.coverUrl)).arrayBuffer());
     expect(await dimensions(stored)).toBe('mjpeg,1280,720');
-    const library = await (await member.get(`/library?q=${encodeURIComponent(`Cover class ${suffix}`)}`)).text();
+    const library = await (await member.get(`/s/fernhill/library?q=${encodeURIComponent(`Cover class ${suffix}`)}`)).text();
     expect(library).toContain(`src="${body.coverUrl}"`);
   });
 

@@ -34,7 +34,7 @@ describe('the staff class page', () => {
 describe('a class page that is not there', () => {
   it('answers 404 with the product’s page and a way back, for members and staff', async () => {
     const member = await signedIn(DEMO.member);
-    const res = await member.get('/classes/no-such-class-here');
+    const res = await member.get('/s/fernhill/classes/no-such-class-here');
     expect(res.status).toBe(404);
     const html = await res.text();
     expect(html).toContain("We can't find that page");

@@ -73,7 +73,7 @@ describe('PostgreSQL restarted mid-traffic', () => {
         await timed(() => coach.post('/api/lessons', { title, advertisedMinutes: 10 })),
         await timed(() => member.get('/api/me')),
         await timed(() => new ApiClient().post('/api/auth/sign-in', { email: DEMO.member, password: 'not the password' })),
-        await timed(() => member.get('/library')),
+        await timed(() => member.get('/s/fernhill/library')),
       ];
       for (const answer of during) {
         expect(answer.status, answer.text).toBe(503);

@@ -80,7 +80,7 @@ describe('the library page across processes', () => {
     const word = `zq${randomUUID().slice(0, 8)}`;
     const url = `/library?q=${word}`;
     const count = async () => /data-testid="result-count"[^>]*>\s*([^<]*)/.exec(await (await member.get(url)).text())?.[1]?.trim() ?? '';
-    await member.get('/library');
+    await member.get('/s/fernhill/library');
     await new Promise((r) => setTimeout(r, 500)); // the server's listener connects on first use
 
     expect(await count()).toMatch(/^No classes match/);

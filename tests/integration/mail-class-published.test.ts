@@ -85,8 +85,8 @@ describe('new class published', () => {
     expectWellFormed(mail, keen.email, studio);
     expect(mail.parsed.subject).toBe(`New at ${studio}: ${title}`);
     expect(mail.parsed.text).toContain('Tomasz Wren just published a new class');
-    const link = onlyAppLink(mail, /^\/classes\//);
-    expect(new URL(link).pathname).toBe(`/classes/${cls.slug}`);
+    const link = onlyAppLink(mail, /^\/s\/fernhill\/classes\//);
+    expect(new URL(link).pathname).toBe(`/s/fernhill/classes/${cls.slug}`);
     const page = await keen.client.get(pathOf(link));
     expect(page.status).toBe(200);
     expect(await page.text()).toContain(title);

@@ -35,7 +35,7 @@ describe('verify e-mail address', () => {
     expect(stored[0]!.tokenHash).not.toContain(token);
 
     // Unconfirmed members browse freely, with a gentle banner.
-    const before = await m.client.get('/library');
+    const before = await m.client.get('/s/fernhill/library');
     expect(before.status).toBe(200);
     expect(await before.text()).toContain('data-verify-banner');
 
@@ -44,7 +44,7 @@ describe('verify e-mail address', () => {
     expect(await open.text()).toContain('you are confirmed');
     const row = await deps.db.query.users.findFirst({ where: eq(users.id, m.userId) });
     expect(row!.emailVerifiedAt).toBeInstanceOf(Date);
-    expect(await (await m.client.get('/library')).text()).not.toContain('data-verify-banner');
+    expect(await (await m.client.get('/s/fernhill/library')).text()).not.toContain('data-verify-banner');
 
     // A second click (or a mail scanner) changes nothing and says so plainly.
     const again = await new ApiClient().get(pathOf(link));

@@ -29,7 +29,7 @@ afterAll(() => rm(dir, { recursive: true, force: true }));
 
 /** What the member gets right now: player on the page, the playlist, and a progress report. */
 async function access(c: ApiClient) {
-  const html = await (await c.get(`/classes/${cls.slug}`)).text();
+  const html = await (await c.get(`/s/fernhill/classes/${cls.slug}`)).text();
   const media = await c.get(`/media/${cls.recordingId}/hls/master.m3u8`);
   await media.arrayBuffer();
   const poster = await c.get(`/media/${cls.recordingId}/poster.jpg`);

@@ -55,11 +55,11 @@ describe('the publish gate', () => {
   });
 
   it('keeps the published version unchanged while the draft is edited, until republished', async () => {
-    const before = await (await member.get(`/classes/${cls.slug}/chapters.vtt`)).text();
+    const before = await (await member.get(`/s/fernhill/classes/${cls.slug}/chapters.vtt`)).text();
     await coach.put(`/api/lessons/${cls.lessonId}/timeline`, { version: await timelineVersion(), ...smallTimeline(), segments: smallTimeline().segments.map((s) => (s.id === 'w1' ? { ...s, exercise: 'Box step' } : s)) });
-    expect(await (await member.get(`/classes/${cls.slug}/chapters.vtt`)).text()).toBe(before);
+    expect(await (await member.get(`/s/fernhill/classes/${cls.slug}/chapters.vtt`)).text()).toBe(before);
     expect((await publish(coach, { acknowledgeWarnings: true })).status).toBe(201);
-    const after = await (await member.get(`/classes/${cls.slug}/chapters.vtt`)).text();
+    const after = await (await member.get(`/s/fernhill/classes/${cls.slug}/chapters.vtt`)).text();
     expect(after).not.toBe(before);
     expect(after).toContain('Box step');
   });
@@ -74,7 +74,7 @@ describe('the publish gate', () => {
 
 describe('what members get', () => {
   it('a WebVTT chapters file a spec-following parser accepts', async () => {
-    const vtt = await (await member.get(`/classes/${cls.slug}/chapters.vtt`)).text();
+    const vtt = await (await member.get(`/s/fernhill/classes/${cls.slug}/chapters.vtt`)).text();
     // webvtt-parser 2.2.0 follows the W3C WebVTT parsing algorithm; "chapters" mode rejects markup.
     const parsed = new WebVTTParser().parse(vtt, 'chapters');
     expect(parsed.errors).toEqual([]);
@@ -85,7 +85,7 @@ describe('what members get', () => {
   });
 
   it('schema.org VideoObject JSON-LD with an ISO 8601 duration and one Clip per chapter, in order', async () => {
-    const html = await (await member.get(`/classes/${cls.slug}`)).text();
+    const html = await (await member.get(`/s/fernhill/classes/${cls.slug}`)).text();
     const json = JSON.parse(html.match(/<script type="application\/ld\+json">(.*?)<\/script>/s)![1]!);
     expect(json['@type']).toBe('VideoObject');
     // ISO 8601 durations read with tinyduration (npm), independent of our formatter.
@@ -111,7 +111,7 @@ describe('what members get', () => {
 
   it('unpublishing takes the class out of the library; the member gets not found', async () => {
     expect((await coach.post(`/api/lessons/${cls.lessonId}/unpublish`)).status).toBe(200);
-    expect((await member.get(`/classes/${cls.slug}`)).status).toBe(404);
-    expect((await new ApiClient().get(`/classes/${cls.slug}`)).status).toBe(302);
+    expect((await member.get(`/s/fernhill/classes/${cls.slug}`)).status).toBe(404);
+    expect((await new ApiClient().get(`/s/fernhill/classes/${cls.slug}`)).status).toBe(302);
   });
 });

@@ -74,7 +74,7 @@ describe('pages by role', () => {
     ['coach', '/studio', 200],
     ['owner', '/studio', 200],
     ['visitor', '/library', 302],
-    ['member', '/library', 200],
+    ['member', '/s/fernhill/library', 200],
   ] as [Who, string, number][])('%s opening %s gets %i', async (who, path, status) => {
     expect((await clients[who].get(path)).status).toBe(status);
   });

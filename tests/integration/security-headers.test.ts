@@ -19,7 +19,7 @@ describe('security headers', () => {
   it.each([
     ['a public page', '/sign-in', false],
     ['an API answer', '/api/health', false],
-    ['a signed-in page', '/library', true],
+    ['a signed-in page', '/s/fernhill/library', true],
     ['a personal API answer', '/api/me', true],
     ['a refused route id', '/api/lessons/not-a-uuid', false],
   ])('%s carries nosniff, the referrer policy and the full policy', async (_what, path, signIn) => {
@@ -47,7 +47,7 @@ describe('security headers', () => {
   it('a page with islands allows exactly its inline scripts, by SHA-256 hash', async () => {
     await ensureDeskBreakPublished();
     const member = await signedIn(DEMO.member);
-    const res = await member.get('/classes/desk-break-mobility');
+    const res = await member.get('/s/fernhill/classes/desk-break-mobility');
     const html = await res.text();
     const allowed = directives(res.headers.get('content-security-policy')).get('script-src') ?? [];
     // Inline scripts that run (not JSON-LD data blocks, which CSP does not govern).

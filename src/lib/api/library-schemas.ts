@@ -83,7 +83,7 @@ export function parseLibraryQuery(params: URLSearchParams): LibraryQuery {
 }
 
 /** The URL for a query (used by filter links and pagination). */
-export function libraryHref(query: LibraryQuery, change: Partial<LibraryQuery> = {}): string {
+export function libraryHref(query: LibraryQuery, change: Partial<LibraryQuery> = {}, base = '/library'): string {
   const q = { ...query, ...change };
   const params = new URLSearchParams();
   if (q.q) params.set('q', q.q);
@@ -91,5 +91,5 @@ export function libraryHref(query: LibraryQuery, change: Partial<LibraryQuery> =
   if (q.sort !== 'newest') params.set('sort', q.sort);
   if (q.page > 1) params.set('page', String(q.page));
   const s = params.toString();
-  return s ? `/library?${s}` : '/library';
+  return s ? `${base}?${s}` : base;
 }

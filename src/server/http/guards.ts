@@ -45,7 +45,18 @@ export function homePath(locals: Pick<Locals, 'studio'>): string {
   const roles = locals.studio?.roles ?? [];
   if (roles.includes('owner')) return '/studio';
   if (roles.includes('coach') || roles.includes('editor')) return '/studio/classes';
-  return '/library';
+  return locals.studio ? `/s/${locals.studio.studioSlug}/library` : '/studios';
+}
+
+/**
+ * Where an address from the single-studio days (/library, /classes/{class}) leads now: the same
+ * page under the studio this person works in. Visitors sign in first and come back; someone with
+ * no studio chooses one. Not permanent (it depends on who asks), so a 302.
+ */
+export function studioAddressOf(locals: Pick<Locals, 'user' | 'studio'>, url: URL, rest: string): string {
+  if (!locals.user) return `/sign-in?next=${encodeURIComponent(url.pathname + url.search)}`;
+  if (!locals.studio) return '/studios';
+  return `/s/${locals.studio.studioSlug}${rest}${url.search}`;
 }
 
 /** Where sign-in lands: the home of the studio worked in, or the studio chooser when there is none yet. */

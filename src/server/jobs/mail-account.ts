@@ -12,10 +12,10 @@ export const mailVerifyEmail: JobHandler<'mail.verify-email'> = async ({ userId 
 };
 
 /** Tells an account's owner that someone tried to sign up with their address. */
-export const mailSignUpAttempt: JobHandler<'mail.sign-up-attempt'> = async ({ email }, ctx) => {
+export const mailSignUpAttempt: JobHandler<'mail.sign-up-attempt'> = async ({ email, signInPath }, ctx) => {
   const user = await userByEmail(ctx.deps, email);
   if (!user) return { outcome: 'skipped', detail: 'no account (removed meanwhile)' };
-  await sendSignUpAttempt(ctx.deps, { userId: user.id });
+  await sendSignUpAttempt(ctx.deps, { userId: user.id, signInPath });
   return { outcome: 'done' };
 };
 

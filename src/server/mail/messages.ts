@@ -21,12 +21,12 @@ export function absoluteUrl(path: string): string {
 /** "Friday 6 March 2026" as the studio reads it (its zone and locale). */
 const formatDay = (d: Date, studio: { clock: StudioClock }) => formatInstant(d, studio.clock, 'weekday');
 
-async function studioNamed(deps: AppDeps, where: { id: string } | { slug: string }): Promise<{ id: string; name: string; clock: StudioClock }> {
+async function studioNamed(deps: AppDeps, where: { id: string } | { slug: string }): Promise<{ id: string; name: string; slug: string; clock: StudioClock }> {
   const row = await deps.db.query.studios.findFirst({
     where: 'id' in where ? eq(studios.id, where.id) : eq(studios.slug, where.slug),
   });
   if (!row) throw new Error(`studio ${JSON.stringify(where)} not found`);
-  return { id: row.id, name: row.name, clock: clockOf(row) };
+  return { id: row.id, name: row.name, slug: row.slug, clock: clockOf(row) };
 }
 
 async function person(deps: AppDeps, userId: string) {
@@ -48,12 +48,12 @@ export async function sendVerifyEmail(deps: AppDeps, m: { userId: string; token:
 }
 
 /** "Someone tried to sign up with your address": sent to an account's owner instead of a second account. */
-export async function sendSignUpAttempt(deps: AppDeps, m: { userId: string }): Promise<void> {
+export async function sendSignUpAttempt(deps: AppDeps, m: { userId: string; signInPath?: string }): Promise<void> {
   const [user, studio] = await Promise.all([person(deps, m.userId), studioNamed(deps, { slug: deps.studioSlug })]);
   const content = signUpAttemptMessage({
     studioName: studio.name,
     name: user.name,
-    signInUrl: absoluteUrl('/sign-in'),
+    signInUrl: absoluteUrl(m.signInPath ? `/sign-in?next=${encodeURIComponent(m.signInPath)}` : '/sign-in'),
     resetUrl: absoluteUrl('/forgot-password'),
   });
   await deliver({ ...content, studio, to: { name: user.name, address: user.email } });
@@ -127,7 +127,7 @@ export async function sendClassPublished(deps: AppDeps, m: { userId: string; cls
     coachName: m.cls.coachName,
     minutes: m.cls.minutes,
     description: m.cls.description,
-    url: absoluteUrl(`/classes/${encodeURIComponent(m.cls.slug)}`),
+    url: absoluteUrl(`/s/${studio.slug}/classes/${encodeURIComponent(m.cls.slug)}`),
     preferencesUrl: absoluteUrl('/account#email-title'),
   });
   await deliver({ ...content, studio, to: { name: user.name, address: user.email } });

@@ -48,11 +48,12 @@ export interface NewAccount {
 }
 
 /**
- * The checks of an account made together with a studio ("start a studio"): sign-up limits, a free
- * e-mail, the password hash. Unlike sign-up it says when the address has an account, because the
- * founder must then sign in to start the studio (see the note on account enumeration).
+ * The checks of an account made together with a studio ("start a studio"): sign-up limits and the
+ * password hash. Answers null when the address already has an account; the caller then answers as
+ * for a new address and mails its owner instead, so the form tells nobody who has an account
+ * (the same rule as sign-up). The password is hashed either way, so both take the same time.
  */
-export async function prepareAccount(deps: AppDeps, input: SignUpInput, address: string): Promise<NewAccount> {
+export async function prepareAccount(deps: AppDeps, input: SignUpInput, address: string): Promise<NewAccount | null> {
   await consumeEach(
     [
       [deps.limits.signUpPerAddress, address],
@@ -61,15 +62,10 @@ export async function prepareAccount(deps: AppDeps, input: SignUpInput, address:
     pleaseWait('sign-ups'),
   );
   const existing = await deps.db.query.users.findFirst({ where: sql`lower(${users.email}) = ${input.email}` });
-  if (existing) throw emailTaken();
   const userId = newUserId();
-  return { userId, row: { id: userId, email: input.email, name: input.name, passwordHash: await hashPassword(input.password) } };
+  const passwordHash = await hashPassword(input.password);
+  return existing ? null : { userId, row: { id: userId, email: input.email, name: input.name, passwordHash } };
 }
-
-export const emailTaken = () =>
-  new AppError('conflict', 'An account with this e-mail already exists. Sign in first, then start your studio.', {
-    email: 'An account with this e-mail already exists. Sign in first, then start your studio.',
-  });
 
 /** A unique-index refusal (PostgreSQL 23505, as drizzle's wrapper or pg's own error): two founders racing for one e-mail or one studio address. */
 export const isUniqueViolation = (err: unknown) => {
@@ -89,13 +85,14 @@ export const SIGN_UP_ANSWER =
   'Thanks! Check your inbox: we have sent a message to that address. You can sign in with your e-mail and password now.';
 
 /**
- * Creates an account and makes it a member of the app's studio. When the address already has an
+ * Creates an account and makes it a member of the studio whose join page it came from (or, from
+ * the API and the old sign-up address, the deployment's own studio). When the address already has an
  * account nothing is created and its owner is e-mailed instead ("someone tried to sign up with
  * your address"). Both paths do the same work in the request (hash the password, try the insert,
  * queue one mail job) and the caller answers the same, so the form tells nobody who has an account
  * (issue 15, point 7). No session is opened: the person signs in.
  */
-export async function signUp(deps: AppDeps, input: SignUpInput, address: string): Promise<void> {
+export async function signUp(deps: AppDeps, input: SignUpInput, address: string, studioId: string | null = null): Promise<void> {
   await consumeEach(
     [
       [deps.limits.signUpPerAddress, address],
@@ -103,7 +100,7 @@ export async function signUp(deps: AppDeps, input: SignUpInput, address: string)
     ],
     pleaseWait('sign-ups'),
   );
-  const studio = await deps.db.query.studios.findFirst({ where: eq(studios.slug, deps.studioSlug) });
+  const studio = await deps.db.query.studios.findFirst({ where: studioId ? eq(studios.id, studioId) : eq(studios.slug, deps.studioSlug) });
   const userId = newUserId();
   const passwordHash = await hashPassword(input.password);
   const created = await deps.db.transaction(async (tx) => {
@@ -219,4 +216,15 @@ export async function chooseStudio(deps: AppDeps, session: { sessionId: string; 
   if (!access) throw notFound('That studio');
   await deps.db.update(sessions).set({ currentStudioId: studioId }).where(and(eq(sessions.id, session.sessionId), eq(sessions.userId, session.userId)));
   return access;
+}
+
+/**
+ * A signed-in person joins another studio as a member from its join page (one person, several
+ * studios). Joining twice changes nothing. This session then works in that studio.
+ */
+export async function joinStudio(deps: AppDeps, session: { sessionId: string; userId: string }, studioId: string): Promise<StudioAccess> {
+  const studio = await deps.db.query.studios.findFirst({ where: eq(studios.id, studioId), columns: { id: true } });
+  if (!studio) throw notFound('That studio');
+  await deps.db.insert(memberships).values({ userId: session.userId, studioId, role: 'member' }).onConflictDoNothing();
+  return chooseStudio(deps, session, studioId);
 }

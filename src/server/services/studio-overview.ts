@@ -32,7 +32,7 @@ export async function studioOverview(deps: AppDeps, studioId: string) {
 }
 
 /** The studio this deployment serves (its name and id for the public front page), or null before set-up. */
-export async function servedStudio(deps: AppDeps): Promise<{ id: string; name: string } | null> {
-  const [row] = await deps.db.select({ id: studios.id, name: studios.name }).from(studios).where(eq(studios.slug, deps.studioSlug));
+export async function servedStudio(deps: AppDeps): Promise<{ id: string; name: string; slug: string } | null> {
+  const [row] = await deps.db.select({ id: studios.id, name: studios.name, slug: studios.slug }).from(studios).where(eq(studios.slug, deps.studioSlug));
   return row ?? null;
 }
