@@ -2,7 +2,11 @@
 // with the official `stripe` SDK (host/port/protocol pointed here), so it answers the same
 // request and response shapes for the small subset Roundmark uses: products, prices, customers,
 // checkout sessions with a hosted card page of our own (GET /pay/{sessionId}), subscriptions,
-// invoices, coupons, promotion codes, events and signed webhooks.
+// invoices, coupons, promotion codes, events and signed webhooks; and connected accounts: an
+// account per studio, an onboarding link to a page of ours (GET /connect/onboarding/{token})
+// where the owner "completes" onboarding and is sent back, objects made on an account (the
+// Stripe-Account header), an application fee on its subscriptions' invoices, and events that
+// name the account they happened on.
 //
 //   node docker-free-dev/payments-fake.mjs
 //   env: ROUNDMARK_PAY_PORT (12111), PAYMENTS_SECRET_KEY, PAYMENTS_WEBHOOK_SECRET,
@@ -40,11 +44,12 @@ const CARD_DECLINED = '4000000000000002';
 // ---------------------------------------------------------------------------------------------
 // State
 
-const COLLECTIONS = ['products', 'prices', 'customers', 'sessions', 'subscriptions', 'invoices', 'coupons', 'promotionCodes', 'discounts', 'events', 'webhookEndpoints'];
+const COLLECTIONS = ['accounts', 'products', 'prices', 'customers', 'sessions', 'subscriptions', 'invoices', 'coupons', 'promotionCodes', 'discounts', 'events', 'webhookEndpoints'];
 let state = emptyState();
 
 function emptyState() {
-  const s = { clocks: {}, internal: {} };
+  // owner: object id -> the connected account it lives on (absent: the platform's own).
+  const s = { clocks: {}, internal: {}, owner: {}, links: {} };
   for (const c of COLLECTIONS) s[c] = {};
   return s;
 }
@@ -69,7 +74,7 @@ function save() {
 }
 
 const PREFIX_TO_COLLECTION = {
-  prod: 'products', price: 'prices', cus: 'customers', cs: 'sessions', sub: 'subscriptions',
+  acct: 'accounts', prod: 'products', price: 'prices', cus: 'customers', cs: 'sessions', sub: 'subscriptions',
   in: 'invoices', promo: 'promotionCodes', di: 'discounts', evt: 'events', we: 'webhookEndpoints',
 };
 
@@ -156,7 +161,7 @@ const list = (url, data) => ({ object: 'list', data, has_more: false, url });
 
 /** Newest first, with `limit` and `starting_after` as the real list endpoints page. */
 function page(url, items, query) {
-  const sorted = [...items].reverse().sort((a, b) => (b.created ?? 0) - (a.created ?? 0));
+  const sorted = items.filter(visible).reverse().sort((a, b) => (b.created ?? 0) - (a.created ?? 0));
   const limit = Math.min(int(query.limit, 'limit') ?? 10, 100);
   let start = 0;
   if (query.starting_after) start = sorted.findIndex((o) => o.id === query.starting_after) + 1;
@@ -164,9 +169,22 @@ function page(url, items, query) {
   return { ...list(url, data), has_more: start + limit < sorted.length };
 }
 
+// The account a request acts on (its Stripe-Account header), set per request before its handler
+// runs; `api` is false for the hosted pages and test controls, which see every object.
+const scope = { api: false, account: null };
+/** The connected account an object lives on, or null for the platform's own objects. */
+const ownerOf = (id) => state.owner[id] ?? null;
+/** Records that an object was made on an account (the request's, unless named). */
+function own(obj, account = scope.account) {
+  if (account) state.owner[obj.id] = account;
+  return obj;
+}
+const visible = (obj) => !scope.api || ownerOf(obj.id) === scope.account;
+
 function find(collection, id, kind) {
   const obj = state[collection][id];
-  if (!obj) throw missing(kind, id);
+  // An object of another account is as unknown as one that does not exist, as the real API answers.
+  if (!obj || !visible(obj)) throw missing(kind, id);
   return obj;
 }
 
@@ -198,27 +216,32 @@ const queues = new Map(); // url -> { busy, items: [{ eventId, attempt }] }
 const deliveries = []; // recent delivery outcomes, newest last
 
 function emit(type, object, created, previous) {
+  // Events about a connected account's objects (or the account itself) name that account.
+  const account = object.object === 'account' ? object.id : ownerOf(object.id);
   const event = {
     id: newId('evt'),
     object: 'event',
+    ...(account ? { account } : {}),
     api_version: API_VERSION,
     created,
     data: { object: clone(object), ...(previous ? { previous_attributes: previous } : {}) },
     livemode: false,
-    pending_webhooks: endpointsFor(type).length,
+    pending_webhooks: endpointsFor(type, account).length,
     request: { id: null, idempotency_key: null },
     type,
   };
-  state.events[event.id] = event;
+  state.events[event.id] = own(event, account);
   if (holding.on) holding.events.push(event.id);
   else deliver(event.id);
   return event;
 }
 
-function endpointsFor(type) {
+function endpointsFor(type, account = null) {
   const urls = new Set();
   for (const we of Object.values(state.webhookEndpoints)) {
     if (we.status !== 'enabled') continue;
+    // A Connect endpoint hears connected accounts' events; an account endpoint the platform's own.
+    if (!!we.connect !== !!account) continue;
     if (we.enabled_events.includes('*') || we.enabled_events.includes(type)) urls.add(we.url);
   }
   if (DEFAULT_WEBHOOK_URL) urls.add(DEFAULT_WEBHOOK_URL);
@@ -228,7 +251,7 @@ function endpointsFor(type) {
 function deliver(eventId) {
   const event = state.events[eventId];
   if (!event) return;
-  for (const url of endpointsFor(event.type)) {
+  for (const url of endpointsFor(event.type, event.account ?? null)) {
     if (!queues.has(url)) queues.set(url, { busy: false, items: [] });
     queues.get(url).items.push({ eventId, attempt: 0 });
     pump(url);
@@ -361,7 +384,9 @@ function invoiceFor(sub, { reason, start, end, charge }) {
     webhooks_delivered_at: null,
   };
   invoice.lines.url = `/v1/invoices/${invoice.id}/lines`;
-  state.invoices[invoice.id] = invoice;
+  // The platform's cut of a connected account's invoice: the subscription's percentage of what is charged.
+  invoice.application_fee_amount = sub.application_fee_percent == null ? null : Math.round((total * sub.application_fee_percent) / 100);
+  state.invoices[invoice.id] = own(invoice, ownerOf(sub.id));
   sub.latest_invoice = invoice.id;
   if (discount && coupon.duration === 'once') {
     // A once-only discount is used up by this invoice and ends on the subscription.
@@ -398,13 +423,14 @@ function setPeriod(sub, start, end) {
   item.current_period_end = end;
 }
 
-function createSubscription({ customer, price, trialDays, metadata, coupon, promotionCode, checkoutSession, description }) {
+function createSubscription({ customer, price, trialDays, metadata, coupon, promotionCode, checkoutSession, description, applicationFeePercent = null }) {
   const id = newId('sub');
   const now = realNow();
   const sub = {
     id,
     object: 'subscription',
     application: null,
+    application_fee_percent: applicationFeePercent,
     automatic_tax: { enabled: false, liability: null, disabled_reason: null },
     billing_cycle_anchor: now,
     billing_mode: { type: 'flexible' },
@@ -449,7 +475,7 @@ function createSubscription({ customer, price, trialDays, metadata, coupon, prom
     trial_settings: { end_behavior: { missing_payment_method: 'create_invoice' } },
     trial_start: null,
   };
-  state.subscriptions[id] = sub;
+  state.subscriptions[id] = own(sub, ownerOf(customer.id));
   state.clocks[id] = 0;
   if (coupon) {
     const discount = {
@@ -467,7 +493,7 @@ function createSubscription({ customer, price, trialDays, metadata, coupon, prom
       subscription: id,
       subscription_item: null,
     };
-    state.discounts[discount.id] = discount;
+    state.discounts[discount.id] = own(discount, ownerOf(customer.id));
     sub.discounts = [discount.id];
     coupon.times_redeemed += 1;
     if (promotionCode) promotionCode.times_redeemed += 1;
@@ -559,7 +585,7 @@ route('POST', '/v1/products', (p) => {
   const now = realNow();
   const product = { id: p.id || newId('prod', 14), object: 'product', active: bool(p.active) ?? true, created: now, default_price: null, description: p.description ?? null, images: [], livemode: false, marketing_features: [], metadata: meta(p.metadata), name: p.name, package_dimensions: null, shippable: null, statement_descriptor: null, tax_code: null, type: 'service', unit_label: null, updated: now, url: null };
   if (state.products[product.id]) throw invalid(`Product already exists.`, 'id', 'resource_already_exists');
-  return (state.products[product.id] = product);
+  return (state.products[product.id] = own(product));
 });
 route('GET', '/v1/products/([^/]+)', (p, q, [id]) => find('products', id, 'product'));
 route('POST', '/v1/products/([^/]+)', (p, q, [id]) => {
@@ -585,7 +611,7 @@ route('POST', '/v1/prices', (p) => {
     recurring: p.recurring ? { interval: 'month', interval_count: 1, meter: null, trial_period_days: null, usage_type: 'licensed' } : null,
     tax_behavior: 'unspecified', tiers_mode: null, transform_quantity: null, type: p.recurring ? 'recurring' : 'one_time', unit_amount: unit, unit_amount_decimal: String(unit),
   };
-  return (state.prices[price.id] = price);
+  return (state.prices[price.id] = own(price));
 });
 route('GET', '/v1/prices/([^/]+)', (p, q, [id]) => find('prices', id, 'price'));
 route('POST', '/v1/prices/([^/]+)', (p, q, [id]) => {
@@ -598,7 +624,7 @@ route('POST', '/v1/prices/([^/]+)', (p, q, [id]) => {
 
 route('POST', '/v1/customers', (p) => {
   const customer = { id: newId('cus', 14), object: 'customer', address: null, balance: 0, created: realNow(), currency: null, default_source: null, delinquent: false, description: p.description ?? null, email: p.email ?? null, invoice_prefix: 'RM', invoice_settings: { custom_fields: null, default_payment_method: null, footer: null, rendering_options: null }, livemode: false, metadata: meta(p.metadata), name: p.name ?? null, phone: null, preferred_locales: [], shipping: null, tax_exempt: 'none', test_clock: null };
-  return (state.customers[customer.id] = customer);
+  return (state.customers[customer.id] = own(customer));
 });
 route('GET', '/v1/customers/([^/]+)', (p, q, [id]) => find('customers', id, 'customer'));
 route('POST', '/v1/customers/([^/]+)', (p, q, [id]) => {
@@ -620,7 +646,7 @@ route('POST', '/v1/coupons', (p) => {
   const id = p.id || crypto.randomBytes(6).toString('base64url');
   if (state.coupons[id]) throw invalid('Coupon already exists.', 'id', 'resource_already_exists');
   const coupon = { id, object: 'coupon', amount_off: null, created: realNow(), currency: null, duration, duration_in_months: null, livemode: false, max_redemptions: int(p.max_redemptions, 'max_redemptions') ?? null, metadata: meta(p.metadata), name: p.name ?? null, percent_off: percent, redeem_by: int(p.redeem_by, 'redeem_by') ?? null, times_redeemed: 0, valid: true };
-  return (state.coupons[id] = coupon);
+  return (state.coupons[id] = own(coupon));
 });
 route('GET', '/v1/coupons/([^/]+)', (p, q, [id]) => find('coupons', id, 'coupon'));
 route('DELETE', '/v1/coupons/([^/]+)', (p, q, [id]) => {
@@ -635,10 +661,11 @@ route('POST', '/v1/promotion_codes', (p) => {
   const code = p.code || crypto.randomBytes(5).toString('hex').toUpperCase();
   if (!/^[a-zA-Z0-9_-]{1,500}$/.test(code)) throw invalid('A promotion code may hold only letters, digits, - and _.', 'code');
   const active = bool(p.active) ?? true;
-  if (active && Object.values(state.promotionCodes).some((pc) => pc.active && pc.code.toLowerCase() === code.toLowerCase()))
+  // Codes are unique among one account's active codes; another account may use the same code.
+  if (active && Object.values(state.promotionCodes).some((pc) => visible(pc) && pc.active && pc.code.toLowerCase() === code.toLowerCase()))
     throw invalid(`An active promotion code with \`code: ${code}\` already exists.`, 'code', 'resource_already_exists');
   const promo = { id: newId('promo', 14), object: 'promotion_code', active, code, created: realNow(), customer: null, customer_account: null, expires_at: int(p.expires_at, 'expires_at') ?? null, livemode: false, max_redemptions: int(p.max_redemptions, 'max_redemptions') ?? null, metadata: meta(p.metadata), promotion: { type: 'coupon', coupon: couponId }, restrictions: { currency_options: {}, first_time_transaction: false, minimum_amount: null, minimum_amount_currency: null }, times_redeemed: 0 };
-  return (state.promotionCodes[promo.id] = promo);
+  return (state.promotionCodes[promo.id] = own(promo));
 });
 route('GET', '/v1/promotion_codes/([^/]+)', (p, q, [id]) => find('promotionCodes', id, 'promotion code'));
 route('POST', '/v1/promotion_codes/([^/]+)', (p, q, [id]) => {
@@ -685,6 +712,8 @@ route('POST', '/v1/checkout/sessions', (p) => {
   }
   const trialDays = int(p.subscription_data?.trial_period_days, 'subscription_data[trial_period_days]') ?? 0;
   if (trialDays < 0 || trialDays > 730) throw invalid('trial_period_days must be between 1 and 730.', 'subscription_data[trial_period_days]');
+  const applicationFeePercent = feePercent(p.subscription_data?.application_fee_percent, 'subscription_data[application_fee_percent]');
+  if (scope.account) chargeable(state.accounts[scope.account]);
   const now = realNow();
   const discountAmount = coupon ? Math.round((price.unit_amount * coupon.percent_off) / 100) : 0;
   const id = newId('cs_test', 58);
@@ -700,8 +729,8 @@ route('POST', '/v1/checkout/sessions', (p) => {
     success_url: p.success_url, total_details: { amount_discount: trialDays ? 0 : discountAmount, amount_shipping: 0, amount_tax: 0 },
     ui_mode: 'hosted', url: `${PUBLIC_URL}/pay/${id}`,
   };
-  state.sessions[id] = session;
-  state.internal[id] = { price: price.id, trialDays, subscriptionData: { metadata: meta(p.subscription_data?.metadata), description: p.subscription_data?.description ?? null }, attempts: [] };
+  state.sessions[id] = own(session);
+  state.internal[id] = { price: price.id, trialDays, subscriptionData: { metadata: meta(p.subscription_data?.metadata), description: p.subscription_data?.description ?? null, applicationFeePercent }, attempts: [] };
   return session;
 });
 route('GET', '/v1/checkout/sessions/([^/]+)', (p, q, [id]) => find('sessions', id, 'checkout session'));
@@ -734,7 +763,9 @@ route('POST', '/v1/subscriptions', (p) => {
   } else if (d?.coupon) coupon = find('coupons', d.coupon, 'coupon');
   // Created through the API, the customer is taken to have the succeeding test card on file.
   state.internal[customer.id] ??= { card: 'ok' };
-  return createSubscription({ customer, price, trialDays: int(p.trial_period_days, 'trial_period_days') ?? 0, metadata: p.metadata, coupon, promotionCode: promo, description: p.description });
+  const applicationFeePercent = feePercent(p.application_fee_percent, 'application_fee_percent');
+  if (scope.account) chargeable(state.accounts[scope.account]);
+  return createSubscription({ customer, price, trialDays: int(p.trial_period_days, 'trial_period_days') ?? 0, metadata: p.metadata, coupon, promotionCode: promo, description: p.description, applicationFeePercent });
 });
 route('GET', '/v1/subscriptions/([^/]+)', (p, q, [id]) => publicSub(find('subscriptions', id, 'subscription')));
 route('POST', '/v1/subscriptions/([^/]+)', (p, q, [id]) => {
@@ -800,7 +831,7 @@ route('GET', '/v1/events', (p, q) => page('/v1/events', Object.values(state.even
 route('POST', '/v1/webhook_endpoints', (p) => {
   if (!p.url) throw required('url');
   if (!Array.isArray(p.enabled_events) || !p.enabled_events.length) throw required('enabled_events');
-  const we = { id: newId('we', 14), object: 'webhook_endpoint', api_version: p.api_version ?? null, application: null, created: realNow(), description: p.description ?? null, enabled_events: p.enabled_events, livemode: false, metadata: meta(p.metadata), secret: WEBHOOK_SECRET, status: 'enabled', url: p.url };
+  const we = { id: newId('we', 14), object: 'webhook_endpoint', api_version: p.api_version ?? null, application: null, connect: bool(p.connect) ?? false, created: realNow(), description: p.description ?? null, enabled_events: p.enabled_events, livemode: false, metadata: meta(p.metadata), secret: WEBHOOK_SECRET, status: 'enabled', url: p.url };
   return (state.webhookEndpoints[we.id] = we);
 });
 route('GET', '/v1/webhook_endpoints', (p, q) => page('/v1/webhook_endpoints', Object.values(state.webhookEndpoints).map(({ secret, ...we }) => we), q));
@@ -812,6 +843,132 @@ route('DELETE', '/v1/webhook_endpoints/([^/]+)', (p, q, [id]) => {
   find('webhookEndpoints', id, 'webhook endpoint');
   delete state.webhookEndpoints[id];
   return { id, object: 'webhook_endpoint', deleted: true };
+});
+
+// ---------------------------------------------------------------------------------------------
+// Connected accounts
+
+/** An application fee percentage: only on a connected account's objects, 0–100 with 2 decimals. */
+function feePercent(value, param) {
+  if (value === undefined || value === '') return null;
+  if (!scope.account) throw invalid('An application fee can only be set on a connected account (send the Stripe-Account header).', param);
+  const n = Number(value);
+  if (!Number.isFinite(n) || n < 0 || n > 100 || Math.round(n * 100) !== n * 100) throw invalid(`${param} must be a number from 0 to 100 with at most two decimals.`, param);
+  return n;
+}
+
+/** Refuses to sell on an account that has not finished onboarding, as the real API does. */
+function chargeable(account) {
+  if (!account?.charges_enabled) {
+    throw invalid(`The account ${account?.id ?? scope.account} cannot currently make charges: its onboarding is not complete.`, 'account', 'account_invalid');
+  }
+}
+
+const NEEDED_AT_ONBOARDING = ['business_profile.name', 'external_account', 'tos_acceptance.date'];
+
+function newAccount(p) {
+  const now = realNow();
+  const type = p.type ?? (p.controller ? (p.controller.stripe_dashboard?.type === 'express' ? 'express' : 'standard') : 'standard');
+  if (!['standard', 'express', 'custom'].includes(type)) throw invalid('type must be standard, express or custom.', 'type');
+  const country = String(p.country ?? 'IE').toUpperCase();
+  if (!/^[A-Z]{2}$/.test(country)) throw invalid('country must be a two-letter ISO 3166-1 code.', 'country');
+  return {
+    id: newId('acct', 16),
+    object: 'account',
+    business_profile: { name: p.business_profile?.name ?? null, url: p.business_profile?.url ?? null, mcc: null, product_description: null, support_email: null },
+    business_type: p.business_type ?? null,
+    capabilities: { card_payments: 'inactive', transfers: 'inactive' },
+    charges_enabled: false,
+    controller: { type: 'application', is_controller: true, fees: { payer: p.controller?.fees?.payer ?? 'account' }, losses: { payments: p.controller?.losses?.payments ?? 'stripe' }, stripe_dashboard: { type: p.controller?.stripe_dashboard?.type ?? (type === 'express' ? 'express' : 'full') }, requirement_collection: 'stripe' },
+    country,
+    created: now,
+    default_currency: String(p.default_currency ?? 'eur').toLowerCase(),
+    details_submitted: false,
+    email: p.email ?? null,
+    external_accounts: list('/v1/accounts/external_accounts', []),
+    metadata: meta(p.metadata),
+    payouts_enabled: false,
+    requirements: { alternatives: [], current_deadline: null, currently_due: [...NEEDED_AT_ONBOARDING], disabled_reason: 'requirements.past_due', errors: [], eventually_due: [...NEEDED_AT_ONBOARDING], past_due: [...NEEDED_AT_ONBOARDING], pending_verification: [] },
+    settings: { payouts: { schedule: { interval: 'daily', delay_days: 7 } } },
+    tos_acceptance: { date: null },
+    type,
+  };
+}
+
+/**
+ * Moves an account to an onboarding outcome and announces it (account.updated, naming the
+ * account): complete (charges and payouts on), incomplete (details not submitted yet),
+ * restricted (details submitted but something still due, so neither charges nor payouts).
+ */
+function setOnboarding(account, outcome, details = {}) {
+  const previous = { charges_enabled: account.charges_enabled, payouts_enabled: account.payouts_enabled, details_submitted: account.details_submitted, requirements: clone(account.requirements) };
+  const done = outcome === 'complete';
+  if (details.businessName) account.business_profile.name = details.businessName;
+  if (details.iban) account.external_accounts = list(`/v1/accounts/${account.id}/external_accounts`, [{ id: newId('ba', 14), object: 'bank_account', account: account.id, country: details.iban.slice(0, 2), currency: account.default_currency, last4: details.iban.slice(-4), status: 'new' }]);
+  account.details_submitted = outcome !== 'incomplete';
+  account.charges_enabled = done;
+  account.payouts_enabled = done;
+  account.capabilities = { card_payments: done ? 'active' : outcome === 'restricted' ? 'pending' : 'inactive', transfers: done ? 'active' : outcome === 'restricted' ? 'pending' : 'inactive' };
+  const due = done ? [] : outcome === 'restricted' ? ['external_account'] : [...NEEDED_AT_ONBOARDING];
+  account.requirements = { ...account.requirements, currently_due: due, eventually_due: due, past_due: due, disabled_reason: done ? null : 'requirements.past_due' };
+  if (account.details_submitted && !account.tos_acceptance.date) account.tos_acceptance.date = realNow();
+  emit('account.updated', account, realNow(), previous);
+}
+
+route('POST', '/v1/accounts', (p) => {
+  if (scope.account) throw new ApiError(403, 'invalid_request_error', 'A connected account cannot create accounts.', { code: 'platform_api_key_expired' });
+  const account = newAccount(p);
+  return (state.accounts[account.id] = account);
+});
+route('GET', '/v1/accounts/([^/]+)', (p, q, [id]) => {
+  const account = state.accounts[id];
+  // The platform reads its accounts; an account reads only itself.
+  if (!account || (scope.account && scope.account !== id)) throw missing('account', id, 'account');
+  return account;
+});
+route('GET', '/v1/account', () => {
+  if (!scope.account) return { id: 'acct_platform', object: 'account', business_profile: { name: 'Roundmark local payments fake' }, charges_enabled: true, payouts_enabled: true, details_submitted: true, country: 'IE', default_currency: 'eur', metadata: {} };
+  return state.accounts[scope.account];
+});
+route('POST', '/v1/accounts/([^/]+)', (p, q, [id]) => {
+  const account = state.accounts[id];
+  if (!account || (scope.account && scope.account !== id)) throw missing('account', id, 'account');
+  if (p.metadata) account.metadata = { ...account.metadata, ...meta(p.metadata) };
+  if (p.email !== undefined) account.email = p.email || null;
+  if (p.business_profile?.name !== undefined) account.business_profile.name = p.business_profile.name || null;
+  return account;
+});
+route('GET', '/v1/accounts', (p, q) => {
+  if (scope.account) throw new ApiError(403, 'invalid_request_error', 'A connected account cannot list accounts.');
+  return page('/v1/accounts', Object.values(state.accounts), q);
+});
+
+route('POST', '/v1/account_links', (p) => {
+  if (scope.account) throw new ApiError(403, 'invalid_request_error', 'Account links are made by the platform.');
+  if (!p.account) throw required('account');
+  if (!state.accounts[p.account]) throw missing('account', p.account, 'account');
+  if (!['account_onboarding', 'account_update'].includes(p.type)) throw invalid('type must be account_onboarding or account_update.', 'type');
+  for (const param of ['refresh_url', 'return_url']) {
+    if (!p[param]) throw required(param);
+    if (!/^https?:\/\//.test(p[param])) throw invalid(`${param} must be an http(s) URL.`, param, 'url_invalid');
+  }
+  const token = crypto.randomBytes(18).toString('base64url');
+  const created = realNow();
+  // Links are single-use and short-lived; an expired or used one sends the person to refresh_url.
+  state.links[token] = { account: p.account, refreshUrl: p.refresh_url, returnUrl: p.return_url, expiresAt: created + 300, used: false };
+  return { object: 'account_link', created, expires_at: created + 300, url: `${PUBLIC_URL}/connect/onboarding/${token}` };
+});
+
+// Test-only: which connected account an object lives on (null: the platform's own).
+route('GET', '/_control/objects/([^/]+)/account', (p, q, [id]) => ({ id, account: ownerOf(id) }));
+
+// Test-only: an onboarding outcome without the page (demo data, integration tests).
+route('POST', '/_control/accounts/([^/]+)/onboarding', (p, q, [id]) => {
+  const account = state.accounts[id];
+  if (!account) throw missing('account', id, 'account');
+  if (!['complete', 'incomplete', 'restricted'].includes(p.outcome)) throw invalid('outcome must be complete, incomplete or restricted.', 'outcome');
+  setOnboarding(account, p.outcome);
+  return account;
 });
 
 // Test-only controls (JSON or form bodies, same API key).
@@ -931,7 +1088,7 @@ function payPost(session, form) {
   let customer = session.customer ? state.customers[session.customer] : null;
   if (!customer) {
     customer = { id: newId('cus', 14), object: 'customer', address: null, balance: 0, created: realNow(), currency: null, default_source: null, delinquent: false, description: null, email: values.email, invoice_prefix: 'RM', invoice_settings: { custom_fields: null, default_payment_method: null, footer: null, rendering_options: null }, livemode: false, metadata: {}, name: values.name || null, phone: null, preferred_locales: [], shipping: null, tax_exempt: 'none', test_clock: null };
-    state.customers[customer.id] = customer;
+    state.customers[customer.id] = own(customer, ownerOf(session.id));
     emit('customer.created', customer, realNow());
   }
   const pm = newId('pm', 14);
@@ -946,7 +1103,7 @@ function payPost(session, form) {
   } catch (err) {
     return fail(`${err.message} Go back to the site and start again without it.`);
   }
-  const sub = createSubscription({ customer, price, trialDays: info.trialDays, metadata: info.subscriptionData.metadata, description: info.subscriptionData.description, coupon, promotionCode: promo, checkoutSession: session.id });
+  const sub = createSubscription({ customer, price, trialDays: info.trialDays, metadata: info.subscriptionData.metadata, description: info.subscriptionData.description, coupon, promotionCode: promo, checkoutSession: session.id, applicationFeePercent: info.subscriptionData.applicationFeePercent });
   Object.assign(session, {
     status: 'complete',
     payment_status: info.trialDays ? 'no_payment_required' : 'paid',
@@ -958,6 +1115,70 @@ function payPost(session, form) {
   });
   emit('checkout.session.completed', session, realNow());
   return { redirect: session.success_url.replace('{CHECKOUT_SESSION_ID}', session.id) };
+}
+
+// ---------------------------------------------------------------------------------------------
+// The hosted onboarding page for connected accounts (ours, deliberately plain)
+
+/** IBAN check digits: ISO 13616-1 (move the first four characters to the end, letters A=10…Z=35, mod 97 = 1). */
+function ibanValid(raw) {
+  const iban = raw.replace(/\s+/g, '').toUpperCase();
+  if (!/^[A-Z]{2}\d{2}[A-Z0-9]{11,30}$/.test(iban)) return false;
+  const digits = (iban.slice(4) + iban.slice(0, 4)).replace(/[A-Z]/g, (c) => String(c.charCodeAt(0) - 55));
+  let rest = 0;
+  for (const d of digits) rest = (rest * 10 + Number(d)) % 97;
+  return rest === 1;
+}
+
+const PAGE_STYLE = `body{font:16px/1.5 system-ui,sans-serif;margin:0;background:#eee;color:#222}
+main{max-width:28rem;margin:2rem auto;background:#fff;border:1px solid #ccc;padding:1.5rem}
+h1{font-size:1.25rem;margin:0 0 .25rem}.sub{color:#555;margin:0 0 1rem}
+label{display:block;margin:.75rem 0 0;font-weight:600}input{display:block;width:100%;box-sizing:border-box;padding:.5rem;border:1px solid #888;font:inherit;font-weight:400}
+.check{display:flex;gap:.5rem;align-items:flex-start;font-weight:400}.check input{width:auto;margin-top:.3rem}
+button{margin-top:1rem;width:100%;padding:.6rem;font:inherit;font-weight:700;background:#333;color:#fff;border:0;cursor:pointer}button.later{background:#fff;color:#333;border:1px solid #333}
+.err{background:#fdecea;border:1px solid #a33;color:#8a1c1c;padding:.5rem}.note{font-size:.85rem;color:#555}
+:focus-visible{outline:3px solid #36c;outline-offset:2px}`;
+
+function onboardingPage(account, { error = '', values = {} } = {}) {
+  const name = values.businessName ?? account.business_profile.name ?? '';
+  return `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1">
+<title>Set up payouts · ${esc(name || account.id)}</title><style>${PAGE_STYLE}</style></head><body><main>
+<p class="sub">Test onboarding page · local only</p>
+<h1>Set up payouts for ${esc(name || 'your business')}</h1>
+<p>Tell us where to send the money your members pay. Account ${esc(account.id)}, country ${esc(account.country)}.</p>
+${error ? `<p class="err" role="alert">${esc(error)}</p>` : ''}
+<form method="post" novalidate>
+  <label>Business name <input name="businessName" autocomplete="organization" value="${esc(name)}" required></label>
+  <label>Bank account for payouts (IBAN) <input name="iban" autocomplete="off" spellcheck="false" value="${esc(values.iban ?? '')}" required></label>
+  <label class="check"><input type="checkbox" name="terms" value="yes"${values.terms ? ' checked' : ''}> I accept the test service agreement.</label>
+  <button type="submit" name="intent" value="submit">Agree and submit</button>
+  <button type="submit" name="intent" value="later" class="later">Save and finish later</button>
+</form>
+<p class="note">Local test onboarding: nothing is verified with a bank. The example IBAN DE89 3704 0044 0532 0130 00 passes the check digits.</p>
+</main></body></html>`;
+}
+
+/** GET shows the form; POST finishes (or leaves) onboarding and answers where to send the person. */
+function onboardingRequest(token, method, form) {
+  const link = state.links[token];
+  if (!link) return { status: 404, html: '<!doctype html><title>Not found</title><p>This onboarding link does not exist.</p>' };
+  const account = state.accounts[link.account];
+  // A used or expired link sends the person to refresh_url, where the platform makes a new one.
+  if (link.used || link.expiresAt <= realNow() || !account) return { redirect: link.refreshUrl };
+  if (method === 'GET') return { status: 200, html: onboardingPage(account) };
+  const values = { businessName: String(form.businessName ?? '').trim(), iban: String(form.iban ?? '').trim(), terms: form.terms === 'yes' };
+  if (form.intent === 'later') {
+    link.used = true;
+    if (values.businessName) account.business_profile.name = values.businessName;
+    return { redirect: link.returnUrl };
+  }
+  const fail = (error) => ({ status: 400, html: onboardingPage(account, { error, values }) });
+  if (!values.businessName) return fail('Enter the business name members will see on their statements.');
+  if (!ibanValid(values.iban)) return fail('That IBAN is not valid. Check the country code, the check digits and the account number.');
+  if (!values.terms) return fail('Accept the service agreement to receive payouts.');
+  link.used = true;
+  setOnboarding(account, 'complete', { businessName: values.businessName, iban: values.iban.replace(/\s+/g, '').toUpperCase() });
+  return { redirect: link.returnUrl };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -1002,6 +1223,14 @@ const server = http.createServer(async (req, res) => {
       }
       return send(res, 405, 'Method not allowed');
     }
+    const onboardMatch = /^\/connect\/onboarding\/([A-Za-z0-9_-]+)$/.exec(url.pathname);
+    if (onboardMatch) {
+      if (req.method !== 'GET' && req.method !== 'POST') return send(res, 405, 'Method not allowed');
+      const out = onboardingRequest(onboardMatch[1], req.method, req.method === 'POST' ? parseForm(await readBody(req)) : {});
+      if (req.method === 'POST') save();
+      if (out.redirect) return send(res, 303, '', { location: out.redirect });
+      return send(res, out.status, out.html);
+    }
     if (url.pathname === '/' || url.pathname === '/health') return send(res, 200, { ok: true, service: 'roundmark payments fake' });
 
     if (!authorized(req)) {
@@ -1009,7 +1238,11 @@ const server = http.createServer(async (req, res) => {
     }
     const r = routes.find((x) => x.method === req.method && x.re.test(url.pathname));
     if (!r) throw new ApiError(404, 'invalid_request_error', `Unrecognized request URL (${req.method}: ${url.pathname}).`);
-    const idemKey = req.method === 'POST' ? req.headers['idempotency-key'] : undefined;
+    const onAccount = req.headers['stripe-account'] || null;
+    if (onAccount && !state.accounts[onAccount]) {
+      throw new ApiError(403, 'invalid_request_error', `The provided key does not have access to account '${onAccount}' (or that account does not exist).`, { code: 'account_invalid' });
+    }
+    const idemKey = req.method === 'POST' && req.headers['idempotency-key'] ? `${req.headers['stripe-account'] ?? ''}:${req.headers['idempotency-key']}` : undefined;
     if (idemKey && idempotent.has(idemKey)) {
       const hit = idempotent.get(idemKey);
       return send(res, hit.status, hit.body, { 'idempotent-replayed': 'true' });
@@ -1018,7 +1251,16 @@ const server = http.createServer(async (req, res) => {
     const isJson = (req.headers['content-type'] ?? '').includes('application/json');
     const params = text ? (isJson ? JSON.parse(text) : parseForm(text)) : {};
     const query = parseForm(url.search.slice(1));
-    const result = r.handler(params, query, r.re.exec(url.pathname).slice(1).map(decodeURIComponent));
+    // Handlers run synchronously, so the scope set here is the one they see.
+    scope.api = url.pathname.startsWith('/v1/');
+    scope.account = scope.api ? onAccount : null;
+    let result;
+    try {
+      result = r.handler(params, query, r.re.exec(url.pathname).slice(1).map(decodeURIComponent));
+    } finally {
+      scope.api = false;
+      scope.account = null;
+    }
     const expandFields = [].concat(params.expand ?? [], query.expand ?? []);
     const body = expandFields.length ? expand(result, expandFields) : result;
     if (req.method !== 'GET') save();
@@ -1055,5 +1297,12 @@ for (const sig of ['SIGINT', 'SIGTERM']) process.on(sig, () => server.close(() =
 //   with the one PAYMENTS_WEBHOOK_SECRET (the real service has a secret per endpoint); three
 //   attempts (now, +1 s, +4 s) instead of days of retries; delivered in order per endpoint.
 // - Idempotency keys are remembered in memory only (lost on restart); no rate limits; no
-//   Stripe-Account, no livemode, no 3-D Secure, no taxes, no proration, no invoice PDFs.
+//   livemode, no 3-D Secure, no taxes, no proration, no invoice PDFs.
+// - Connected accounts: objects made with a Stripe-Account header belong to that account and are
+//   unknown to every other account and to the platform (404), as with direct charges. Onboarding
+//   is one page (business name, IBAN, terms) that sets charges and payouts on at once; no
+//   identity checks, no persons, no capabilities requested one by one, no transfers or payouts,
+//   no application fee objects (the fee shows only as invoices' application_fee_amount). Events
+//   of connected accounts go to endpoints made with connect=true and to PAYMENTS_WEBHOOK_URL,
+//   signed with the same secret (the real service gives the Connect endpoint its own secret).
 // - Expiry of promotion codes is checked against the real clock, not a subscription's clock.

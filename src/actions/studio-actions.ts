@@ -3,7 +3,7 @@ import { parseMoney } from '~/lib/billing/membership-words';
 import { createInvitationInput, invitationParams } from '~/lib/api/mail-schemas';
 import { app } from '~/server/app';
 import { parseWith } from '~/server/http/api';
-import { requireActor } from '~/server/http/guards';
+import { requireActor, requireUser } from '~/server/http/guards';
 import { billingDeps } from '~/server/payments/billing-deps';
 import { createPromo, setPromoCodeActive, updateMembershipSettings } from '~/server/use-cases/studio-billing';
 import { inviteToTeam, withdrawInvitation } from '~/server/use-cases/team';
@@ -12,6 +12,7 @@ import { changeStudioIdentity, deleteStudioLogo, updateStudioClock, uploadStudio
 import { AppError } from '~/server/errors';
 import { storage } from '~/server/storage';
 import { MAX_LOGO_UPLOAD_BYTES } from '~/lib/studios/studio-logo';
+import { connectPayments } from '~/server/use-cases/studio-payments';
 import { clockOf } from '~/lib/time/date-format';
 import { wallClockToInstant } from '~/lib/time/wall-clock';
 import { formAction, formValues } from './form-action';
@@ -96,6 +97,13 @@ export const studioActions = {
     });
     const p = await createPromo(actor, billingDeps(), input);
     return `Code ${p.code} created: ${p.percentOff}% off the first month.`;
+  }),
+
+  /** "Connect payments" / "Continue setup" in the Payments section: answers the provider's onboarding page to go to. */
+  connectPayments: formAction(async (_form, { locals }) => {
+    const actor = requireActor(locals);
+    const { url } = await connectPayments(actor, billingDeps(), { ownerEmail: requireUser(locals).user.email });
+    return url;
   }),
 
   /** "Deactivate" / "Activate" beside a promo code. */

@@ -32,6 +32,19 @@ const envSchema = z.object({
   PAYMENTS_SECRET_KEY: z.string().min(1).optional(),
   PAYMENTS_WEBHOOK_SECRET: z.string().min(1).optional(),
   /**
+   * The signing secret of the provider's second endpoint, the one for connected accounts' events
+   * (the provider gives each endpoint its own). Unset: those events are checked with
+   * PAYMENTS_WEBHOOK_SECRET, as with the local fake.
+   */
+  PAYMENTS_CONNECT_WEBHOOK_SECRET: z.string().min(1).optional(),
+  /** The platform's application fee on every membership payment, in percent of what the member pays (0–100, two decimals at most). */
+  PLATFORM_FEE_PERCENT: z.coerce
+    .number()
+    .min(0)
+    .max(100)
+    .refine((n) => Math.round(n * 100) === n * 100, 'at most two decimals')
+    .default(5),
+  /**
    * Reverse proxies whose X-Forwarded-For hops are believed, comma-separated: addresses, CIDR
    * ranges, or proxy-addr's names (loopback, linklocal, uniquelocal). Empty: the socket's address
    * is the client's, and X-Forwarded-For is ignored.

@@ -14,23 +14,32 @@ export const WEBHOOK_SECRET = process.env.PAYMENTS_WEBHOOK_SECRET ?? 'whsec_roun
 export const CARD_OK = '4242 4242 4242 4242';
 export const CARD_DECLINED = '4000 0000 0000 0002';
 
-export function testStripe(): Stripe {
+/** The SDK pointed at the fake; with an account, every call acts on that connected account. */
+export function testStripe(account?: string | null): Stripe {
   const u = new URL(PAY_URL);
-  return new Stripe(PAY_KEY, { host: u.hostname, port: Number(u.port), protocol: u.protocol === 'https:' ? 'https' : 'http' });
+  return new Stripe(PAY_KEY, { host: u.hostname, port: Number(u.port), protocol: u.protocol === 'https:' ? 'https' : 'http', ...(account ? { stripeAccount: account } : {}) });
 }
 
-/** Makes sure the fake sends its webhooks to the app under test (registered like a real endpoint). */
-export async function registerWebhook(stripe = testStripe()): Promise<void> {
+/**
+ * Makes sure the fake sends its webhooks to the app under test, registered like the two real
+ * endpoints: one for the platform's own events, one (connect) for connected accounts' events.
+ */
+export async function registerWebhook(_stripe?: Stripe): Promise<void> {
+  const platform = testStripe();
   const url = `${BASE()}/api/payments/webhook`;
-  const existing = await stripe.webhookEndpoints.list({ limit: 100 });
-  if (!existing.data.some((w) => w.url === url)) await stripe.webhookEndpoints.create({ url, enabled_events: ['*'] });
+  const existing = await platform.webhookEndpoints.list({ limit: 100 });
+  for (const connect of [false, true]) {
+    if (!existing.data.some((w) => w.url === url && !!(w as { connect?: boolean }).connect === connect)) {
+      await platform.webhookEndpoints.create({ url, enabled_events: ['*'], connect });
+    }
+  }
 }
 
-async function control(path: string, body: Record<string, unknown>) {
+async function control(path: string, body?: Record<string, unknown>) {
   const res = await fetch(PAY_URL + path, {
-    method: 'POST',
+    method: body ? 'POST' : 'GET',
     headers: { authorization: `Bearer ${PAY_KEY}`, 'content-type': 'application/json' },
-    body: JSON.stringify(body),
+    ...(body ? { body: JSON.stringify(body) } : {}),
   });
   const json = await res.json();
   if (!res.ok) throw new Error(`${path}: ${res.status} ${JSON.stringify(json)}`);
@@ -40,6 +49,16 @@ async function control(path: string, body: Record<string, unknown>) {
 /** Moves one subscription's clock: end_trial, renew (to the period end), fail_payment, pay. */
 export const advance = (subscription: string, action: 'end_trial' | 'renew' | 'fail_payment' | 'pay') =>
   control('/_control/advance', { subscription, action });
+/** The SDK acting on the connected account an object at the fake lives on (the platform's own if none). */
+export async function stripeFor(objectId: string): Promise<Stripe> {
+  const { account } = (await control(`/_control/objects/${encodeURIComponent(objectId)}/account`)) as { account: string | null };
+  return testStripe(account);
+}
+
+/** Finishes (or leaves unfinished) a connected account's onboarding without the page. */
+export const onboard = (account: string, outcome: 'complete' | 'incomplete' | 'restricted') =>
+  control(`/_control/accounts/${encodeURIComponent(account)}/onboarding`, { outcome });
+
 /** Holds new webhooks back (hold: true) or releases them, optionally newest first. */
 export const holdWebhooks = (hold: boolean, order?: 'reverse') => control('/_control/webhooks', { hold, ...(order ? { order } : {}) });
 
@@ -97,6 +116,6 @@ export async function subscribe(member: ApiClient, promoCode?: string): Promise<
   const paid = await payOnPage(url, CARD_OK);
   if (paid.status !== 303) throw new Error(`payment page answered ${paid.status}`);
   const sessionId = new URL(url).pathname.split('/').pop()!;
-  const session = await testStripe().checkout.sessions.retrieve(sessionId);
+  const session = await (await stripeFor(sessionId)).checkout.sessions.retrieve(sessionId);
   return session.subscription as string;
 }

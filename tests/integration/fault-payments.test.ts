@@ -9,10 +9,12 @@ import { eq } from 'drizzle-orm';
 import { createDb } from '~/server/db';
 import { webhookEvents } from '~/db/schema';
 import type { ApiClient } from '../helpers/api-client';
-import { newMember, registerWebhook, subscribe, testStripe, waitForMembership, WEBHOOK_SECRET } from '../helpers/payments';
+import { newMember, registerWebhook, stripeFor, subscribe, testStripe, waitForMembership, WEBHOOK_SECRET } from '../helpers/payments';
 import { startServices, stopService } from '../helpers/local-services';
 
-const stripe = testStripe();
+// Bound to the demo studio's connected account once the subscription exists there.
+let stripe = testStripe();
+let account: string | null = null;
 const { db, pool } = createDb(process.env.DATABASE_URL!);
 let subscriber: ApiClient;
 let newcomer: ApiClient;
@@ -23,6 +25,8 @@ beforeAll(async () => {
   ({ client: subscriber } = await newMember('payments-down'));
   ({ client: newcomer } = await newMember('payments-down-new'));
   subId = await subscribe(subscriber);
+  stripe = await stripeFor(subId);
+  account = stripe.getApiField('stripeAccount') ?? null;
   await waitForMembership(subscriber, (m) => m.status === 'trialing', 'trialing');
 });
 afterAll(async () => {
@@ -37,7 +41,7 @@ const postEvent = (client: ApiClient, payload: string) =>
 describe('payments service down', () => {
   it('checkout says to try again, a webhook is refused for a retry, and its replay is applied once', async () => {
     const sub = await stripe.subscriptions.retrieve(subId);
-    const event = { id: `evt_outage_${Date.now()}`, object: 'event', type: 'customer.subscription.updated', created: Math.floor(Date.now() / 1000), data: { object: sub } };
+    const event = { id: `evt_outage_${Date.now()}`, object: 'event', account, type: 'customer.subscription.updated', created: Math.floor(Date.now() / 1000), data: { object: sub } };
     const payload = JSON.stringify(event);
     try {
       await stopService('payments');

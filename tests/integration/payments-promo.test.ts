@@ -6,13 +6,15 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { DEMO, signedIn, type ApiClient } from '../helpers/api-client';
 import { advance, membership, newMember, registerWebhook, subscribe, testStripe, waitForMembership } from '../helpers/payments';
 
-const stripe = testStripe();
+// Bound to the demo studio's connected account in beforeAll: its codes live there.
+let stripe = testStripe();
 let owner: ApiClient;
 const unique = () => `T${Date.now().toString(36).toUpperCase()}${Math.floor(Math.random() * 1296).toString(36).toUpperCase()}`;
 
 beforeAll(async () => {
   await registerWebhook(stripe);
   owner = await signedIn(DEMO.owner);
+  stripe = testStripe((await (await owner.get('/api/billing/payments')).json()).accountId);
 });
 
 async function createCode(body: object) {

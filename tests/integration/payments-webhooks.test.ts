@@ -9,9 +9,10 @@ import { and, eq } from 'drizzle-orm';
 import { createDb } from '~/server/db';
 import { studios, subscriptions, users, webhookEvents } from '~/db/schema';
 import type { ApiClient } from '../helpers/api-client';
-import { advance, holdWebhooks, membership, newMember, registerWebhook, subscribe, testStripe, waitForMembership, WEBHOOK_SECRET } from '../helpers/payments';
+import { advance, holdWebhooks, membership, newMember, registerWebhook, stripeFor, subscribe, testStripe, waitForMembership, WEBHOOK_SECRET } from '../helpers/payments';
 
-const stripe = testStripe();
+// Bound to the demo studio's connected account once the first subscription exists there.
+let stripe = testStripe();
 const { db, pool } = createDb(process.env.DATABASE_URL!);
 let member: ApiClient;
 let subId: string;
@@ -31,6 +32,7 @@ beforeAll(async () => {
   await registerWebhook(stripe);
   ({ client: member } = await newMember('webhooks'));
   subId = await subscribe(member);
+  stripe = await stripeFor(subId);
   await waitForMembership(member, (m) => m.status === 'trialing', 'trialing');
 });
 afterAll(async () => {

@@ -16,6 +16,27 @@ export const billingSettings = pgTable('billing_settings', {
   pastDueGraceDays: integer().notNull().default(3),
   providerProductId: text(),
   providerPriceId: text(),
+  /** The connected account the product and price above live on (null: the platform's own, from before connected accounts). */
+  providerAccountId: text(),
+  updatedAt: writtenAtColumn(),
+});
+
+/**
+ * The studio's own account at the payment provider ("connected account"): members pay the
+ * studio there, and the platform keeps its application fee. The state is the provider's, copied
+ * on every account.updated event and whenever the owner looks at the Payments section.
+ */
+export const paymentAccounts = pgTable('payment_accounts', {
+  studioId: uuid()
+    .primaryKey()
+    .references(() => studios.id, { onDelete: 'cascade' }),
+  providerAccountId: text().notNull().unique(),
+  detailsSubmitted: boolean().notNull().default(false),
+  chargesEnabled: boolean().notNull().default(false),
+  payoutsEnabled: boolean().notNull().default(false),
+  /** How many things the provider still needs from the owner (its requirements.currently_due). */
+  requirementsDue: integer().notNull().default(0),
+  createdAt: writtenAtColumn(),
   updatedAt: writtenAtColumn(),
 });
 
@@ -41,6 +62,8 @@ export const subscriptions = pgTable(
       .references(() => users.id, { onDelete: 'cascade' }),
     providerCustomerId: text(),
     providerSubscriptionId: text(),
+    /** The connected account the customer and subscription live on (null: the platform's own). */
+    providerAccountId: text(),
     status: subscriptionStatusEnum().notNull().default('incomplete'),
     trialEnd: timestamp({ withTimezone: true }),
     currentPeriodEnd: timestamp({ withTimezone: true }),
@@ -70,6 +93,8 @@ export const promoCodes = pgTable(
     active: boolean().notNull().default(true),
     providerCouponId: text(),
     providerPromotionCodeId: text(),
+    /** The connected account the coupon and code live on (null: not mirrored there yet). */
+    providerAccountId: text(),
     createdAt: writtenAtColumn(),
   },
   (t) => [uniqueIndex('promo_codes_studio_code_idx').on(t.studioId, t.code)],

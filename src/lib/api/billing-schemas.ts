@@ -134,3 +134,20 @@ export const webhookReceivedOutput = z
   .meta({ id: 'WebhookReceived' });
 /** `GET /api/billing/members?format=csv`: the same table as a CSV file with a header row. */
 export const membersCsvText = z.string().describe('CSV with a header row; cells that could start a formula are neutralised');
+
+/** The studio's own payment account (owner): where it stands and the platform's fee. */
+export const paymentAccountOutput = z
+  .object({
+    state: z.enum(['none', 'onboarding', 'restricted', 'ready']).describe('none: not connected; onboarding: setup not finished; restricted: the provider needs more; ready: members can pay'),
+    accountId: z.string().nullable().describe('The connected account at the payment provider'),
+    detailsSubmitted: z.boolean(),
+    chargesEnabled: z.boolean().describe('Members can pay (memberships can be sold)'),
+    payoutsEnabled: z.boolean().describe('The provider pays out to the studio’s bank account'),
+    requirementsDue: z.number().int().describe('How many things the provider still needs from the owner'),
+    feePercent: z.number().describe('The platform’s application fee, in percent of each payment'),
+  })
+  .meta({ id: 'PaymentAccount' });
+
+export const onboardingLinkOutput = z
+  .object({ url: z.string().url().describe('The payment provider’s onboarding page; single use, valid a few minutes') })
+  .meta({ id: 'PaymentOnboardingLink' });

@@ -36,14 +36,24 @@ const invoiceSchema = z.looseObject({
     .nullish(),
 });
 
+const connectedAccountSchema = z.looseObject({
+  object: z.literal('account').optional(),
+  id,
+  details_submitted: z.boolean().nullish(),
+  charges_enabled: z.boolean().nullish(),
+  payouts_enabled: z.boolean().nullish(),
+});
+
+/** `account` names the connected account an event happened on; absent, it is the platform's own. */
 const envelope = <T extends z.ZodType>(type: z.ZodType<string>, object: T) =>
-  z.looseObject({ id, type, created: epochSeconds, data: z.looseObject({ object }) });
+  z.looseObject({ id, type, created: epochSeconds, account: id.nullish(), data: z.looseObject({ object }) });
 
 /** Events by type; any other type only needs a well-formed envelope (it is acknowledged and ignored). */
 export const webhookEventSchema = z.union([
   envelope(z.literal('checkout.session.completed'), checkoutSessionSchema),
   envelope(z.enum(['customer.subscription.created', 'customer.subscription.updated', 'customer.subscription.deleted']), subscriptionObjectSchema),
   envelope(z.enum(['invoice.payment_failed', 'invoice.paid']), invoiceSchema),
+  envelope(z.literal('account.updated'), connectedAccountSchema),
   envelope(
     z.string().min(1).max(255).refine((t) => !USED_TYPES.has(t)),
     z.looseObject({}),
@@ -57,4 +67,5 @@ const USED_TYPES = new Set([
   'customer.subscription.deleted',
   'invoice.payment_failed',
   'invoice.paid',
+  'account.updated',
 ]);

@@ -7,13 +7,15 @@ export interface PolicySources {
   objectStoreOrigin: string | null;
   /** The payment provider's hosted payment page: the membership form is answered with a redirect there. */
   checkoutOrigin: string | null;
+  /** The provider's onboarding page for a studio's payment account: "Connect payments" is answered with a redirect there. */
+  onboardingOrigin?: string | null;
   /** `'sha256-…'` of each inline script the page carries (Astro's island bootstrap and directives). */
   scriptHashes: readonly string[];
 }
 
 const q = (origin: string | null) => (origin ? [origin] : []);
 
-export function contentSecurityPolicy({ objectStoreOrigin, checkoutOrigin, scriptHashes }: PolicySources): string {
+export function contentSecurityPolicy({ objectStoreOrigin, checkoutOrigin, onboardingOrigin = null, scriptHashes }: PolicySources): string {
   const store = q(objectStoreOrigin);
   const directives: [string, ...string[]][] = [
     ['default-src', "'self'"],
@@ -34,7 +36,7 @@ export function contentSecurityPolicy({ objectStoreOrigin, checkoutOrigin, scrip
     ['font-src', "'self'"],
     ['object-src', "'none'"],
     ['base-uri', "'self'"],
-    ['form-action', "'self'", ...q(checkoutOrigin)],
+    ['form-action', "'self'", ...new Set([...q(checkoutOrigin), ...q(onboardingOrigin)])],
     ['frame-ancestors', "'none'"],
   ];
   return directives.map((d) => d.join(' ')).join('; ');

@@ -5,8 +5,10 @@ import { storage } from '../storage';
 
 /** The payment provider's hosted payment page when no local stand-in is configured. */
 const PROVIDER_CHECKOUT_ORIGIN = 'https://checkout.stripe.com';
+/** The payment provider's hosted onboarding for connected accounts when no local stand-in is configured. */
+const PROVIDER_ONBOARDING_ORIGIN = 'https://connect.stripe.com';
 
-let origins: Promise<{ objectStoreOrigin: string; checkoutOrigin: string }> | undefined;
+let origins: Promise<{ objectStoreOrigin: string; checkoutOrigin: string; onboardingOrigin: string }> | undefined;
 
 /**
  * The origins the policy allows besides our own, worked out once per process. The object store's
@@ -19,7 +21,11 @@ function policyOrigins() {
     const { s3, bucket } = storage();
     const probe = await signedMediaUrl(s3, bucket, 'content-security-policy-probe', 60);
     const payments = env().PAYMENTS_API_URL;
-    return { objectStoreOrigin: new URL(probe).origin, checkoutOrigin: payments ? new URL(payments).origin : PROVIDER_CHECKOUT_ORIGIN };
+    return {
+      objectStoreOrigin: new URL(probe).origin,
+      checkoutOrigin: payments ? new URL(payments).origin : PROVIDER_CHECKOUT_ORIGIN,
+      onboardingOrigin: payments ? new URL(payments).origin : PROVIDER_ONBOARDING_ORIGIN,
+    };
   })().catch((e: unknown) => {
     origins = undefined;
     throw e;

@@ -9,6 +9,8 @@ import {
   membersCsvText,
   membershipOutput,
   membersQuery,
+  onboardingLinkOutput,
+  paymentAccountOutput,
   promoCreateInput,
   promoOutput,
   promoListOutput,
@@ -73,6 +75,18 @@ export const billingRoutes: RouteConfig[] = [
     summary: 'Change price, trial or grace (owner); send the version you read',
     request: { body: json(billingSettingsInput, 'Settings') },
     responses: { 200: json(billingSettingsOutput, 'Saved'), ...errors(400, 401, 403, 409, 503) },
+  },
+  {
+    method: 'get',
+    path: '/api/billing/payments',
+    summary: 'The studio’s own payment account and its state, read from the provider (owner)',
+    responses: { 200: json(paymentAccountOutput, 'Payment account'), ...errors(401, 403) },
+  },
+  {
+    method: 'post',
+    path: '/api/billing/payments/onboarding',
+    summary: 'Connect the studio’s payment account or continue its setup (owner): answers the provider’s onboarding page',
+    responses: { 200: json(onboardingLinkOutput, 'Send the owner to this URL'), ...errors(401, 403, 503) },
   },
   {
     method: 'get',

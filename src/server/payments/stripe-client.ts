@@ -31,5 +31,8 @@ export function stripe(): Stripe {
   return shared;
 }
 
-/** The secret our webhook endpoint verifies signatures with. */
+/** The secret our webhook endpoint verifies the platform's own events with. */
 export const webhookSecret = () => env().PAYMENTS_WEBHOOK_SECRET;
+
+/** Every secret an event may be signed with: the platform endpoint's, then the connected accounts' endpoint's. */
+export const webhookSecrets = (): string[] => [env().PAYMENTS_WEBHOOK_SECRET, ...(env().PAYMENTS_CONNECT_WEBHOOK_SECRET ? [env().PAYMENTS_CONNECT_WEBHOOK_SECRET!] : [])];

@@ -6,7 +6,9 @@ import { formatInstant } from '~/lib/time/date-format';
 import { AppError, notFound } from '../errors';
 import type { AppDeps } from '../app';
 import type { BillingDeps } from '../payments/billing-deps';
+import { env } from '../env';
 import { entitledBy } from './entitlement';
+import { onAccount, salesOpen, sellingAccount } from './payment-accounts';
 import { studioClock } from './studio-clock';
 
 /** Statuses in which a member has a running membership (and cannot start another). */
@@ -48,41 +50,49 @@ export async function getBillingSettings(deps: AppDeps, studioId: string): Promi
 }
 
 /**
- * Makes sure the provider has the product and the current monthly price for the studio. A
+ * Makes sure the studio's connected account has the product and the current monthly price. A
  * changed price becomes a new provider price (prices cannot change there); existing members
- * keep the price they signed up with, as the provider does.
+ * keep the price they signed up with, as the provider does. Ids stored for another account
+ * (the platform's own, before the studio connected) are replaced by ones on this account.
  */
 export async function ensurePrice(deps: BillingDeps, studioId: string, opts: { verify?: boolean } = {}) {
   const row = await deps.db.query.billingSettings.findFirst({ where: eq(billingSettings.studioId, studioId) });
   if (!row) throw new AppError('unavailable', 'Memberships are not open yet: the studio has not set a price. Please check back soon.');
-  let { providerProductId: productId, providerPriceId: priceId } = row;
+  const accountId = await sellingAccount(deps, studioId);
+  const on = onAccount(accountId);
+  const sameAccount = row.providerAccountId === accountId;
+  let productId = sameAccount ? row.providerProductId : null;
+  let priceId = sameAccount ? row.providerPriceId : null;
   if (opts.verify && productId) {
     // After the provider's data was reset (e.g. a fresh local fake) the stored ids point nowhere.
-    const alive = await deps.stripe.products.retrieve(productId).then(() => true, () => false);
+    const alive = await deps.stripe.products.retrieve(productId, {}, on).then(() => true, () => false);
     if (!alive) productId = priceId = null;
   }
   if (priceId) {
-    const price = await provider(() => deps.stripe.prices.retrieve(priceId!)).catch(() => null);
+    const price = await provider(() => deps.stripe.prices.retrieve(priceId!, {}, on)).catch(() => null);
     if (!price || !price.active || price.unit_amount !== row.monthlyPriceMinor || price.currency !== row.currency) {
-      if (price?.active) await provider(() => deps.stripe.prices.update(priceId!, { active: false }));
+      if (price?.active) await provider(() => deps.stripe.prices.update(priceId!, { active: false }, on));
       priceId = null;
     }
   }
   if (!productId) {
     const studio = await deps.db.query.studios.findFirst({ where: eq(studios.id, studioId) });
-    const product = await provider(() => deps.stripe.products.create({ name: `${studio?.name ?? 'Studio'} membership`, metadata: { studioId } }));
+    const product = await provider(() => deps.stripe.products.create({ name: `${studio?.name ?? 'Studio'} membership`, metadata: { studioId } }, on));
     productId = product.id;
   }
   if (!priceId) {
     const price = await provider(() =>
-      deps.stripe.prices.create({ product: productId!, currency: row.currency, unit_amount: row.monthlyPriceMinor, recurring: { interval: 'month' }, metadata: { studioId } }),
+      deps.stripe.prices.create({ product: productId!, currency: row.currency, unit_amount: row.monthlyPriceMinor, recurring: { interval: 'month' }, metadata: { studioId } }, on),
     );
     priceId = price.id;
   }
-  if (productId !== row.providerProductId || priceId !== row.providerPriceId) {
-    await deps.db.update(billingSettings).set({ providerProductId: productId, providerPriceId: priceId }).where(eq(billingSettings.studioId, studioId));
+  if (productId !== row.providerProductId || priceId !== row.providerPriceId || !sameAccount) {
+    await deps.db
+      .update(billingSettings)
+      .set({ providerProductId: productId, providerPriceId: priceId, providerAccountId: accountId })
+      .where(eq(billingSettings.studioId, studioId));
   }
-  return { ...row, providerProductId: productId, providerPriceId: priceId };
+  return { ...row, providerProductId: productId, providerPriceId: priceId, providerAccountId: accountId };
 }
 
 /** Saves price, trial and grace; `version` must match what was read (409 otherwise). */
@@ -97,14 +107,16 @@ export async function updateBillingSettings(deps: BillingDeps, studioId: string,
     const updated = await deps.db
       .update(billingSettings)
       .set(values)
-      .where(and(eq(billingSettings.studioId, studioId), eq(billingSettings.updatedAt, current.updatedAt)))
+      // The column keeps microseconds (a row written with now()), the version read back only milliseconds.
+      .where(and(eq(billingSettings.studioId, studioId), sql`date_trunc('milliseconds', ${billingSettings.updatedAt}) = ${current.updatedAt.toISOString()}`))
       .returning();
     if (!updated.length) throw new AppError('conflict', 'Someone changed these settings while you were editing. Reload and try again.');
   } else {
     const inserted = await deps.db.insert(billingSettings).values({ studioId, ...values }).onConflictDoNothing().returning();
     if (!inserted.length) throw new AppError('conflict', 'Someone saved these settings first. Reload and try again.');
   }
-  await ensurePrice(deps, studioId);
+  // The price reaches the provider once the studio can sell; until then it waits here.
+  if (await salesOpen(deps, studioId)) await ensurePrice(deps, studioId);
   return getBillingSettings(deps, studioId);
 }
 
@@ -157,33 +169,50 @@ export async function createPromoCode(deps: BillingDeps, studioId: string, input
   }
   const taken = await deps.db.query.promoCodes.findFirst({ where: and(eq(promoCodes.studioId, studioId), eq(promoCodes.code, input.code)) });
   if (taken) throw new AppError('conflict', `The code ${input.code} already exists. Choose another name.`, { code: `The code ${input.code} already exists. Choose another name.` });
-  const clash = await provider(() => deps.stripe.promotionCodes.list({ code: input.code, active: true, limit: 1 }));
-  if (clash.data.length) {
-    throw new AppError('conflict', `The code ${input.code} is already in use at the payment provider. Choose another name.`, { code: `The code ${input.code} is already in use at the payment provider. Choose another name.` });
-  }
-  const coupon = await provider(() =>
-    deps.stripe.coupons.create({ percent_off: input.percentOff, duration: 'once', name: `${input.code}: ${input.percentOff}% off the first month`, metadata: { studioId } }),
-  );
-  const promo = await provider(() =>
-    deps.stripe.promotionCodes.create({
-      promotion: { type: 'coupon', coupon: coupon.id },
-      code: input.code,
-      ...(expiresAt ? { expires_at: Math.floor(expiresAt.getTime() / 1000) } : {}),
-      metadata: { studioId },
-    }),
-  );
+  // On a studio that can sell, the code is made on its account now (so a clash there shows at
+  // once); otherwise it waits here and is made there at the first checkout that uses it.
+  const mirrored = (await salesOpen(deps, studioId)) ? await mirrorPromo(deps, studioId, { code: input.code, percentOff: input.percentOff, expiresAt }) : null;
   const [row] = await deps.db
     .insert(promoCodes)
-    .values({ studioId, code: input.code, percentOff: input.percentOff, expiresAt, providerCouponId: coupon.id, providerPromotionCodeId: promo.id })
+    .values({ studioId, code: input.code, percentOff: input.percentOff, expiresAt, ...mirrored })
     .returning();
   return { id: row!.id, code: row!.code, percentOff: row!.percentOff, expiresAt: row!.expiresAt?.toISOString() ?? null, active: true, state: promoState(row!), redemptions: 0, createdAt: row!.createdAt.toISOString() };
+}
+
+/** Makes a promo code's coupon and code on the studio's connected account; answers their ids. */
+async function mirrorPromo(deps: BillingDeps, studioId: string, promo: { code: string; percentOff: number; expiresAt: Date | null }) {
+  const accountId = await sellingAccount(deps, studioId);
+  const on = onAccount(accountId);
+  const clash = await provider(() => deps.stripe.promotionCodes.list({ code: promo.code, active: true, limit: 1 }, on));
+  if (clash.data.length) {
+    const message = `The code ${promo.code} is already in use at the payment provider. Choose another name.`;
+    throw new AppError('conflict', message, { code: message });
+  }
+  const coupon = await provider(() =>
+    deps.stripe.coupons.create({ percent_off: promo.percentOff, duration: 'once', name: `${promo.code}: ${promo.percentOff}% off the first month`, metadata: { studioId } }, on),
+  );
+  const made = await provider(() =>
+    deps.stripe.promotionCodes.create(
+      {
+        promotion: { type: 'coupon', coupon: coupon.id },
+        code: promo.code,
+        ...(promo.expiresAt ? { expires_at: Math.floor(promo.expiresAt.getTime() / 1000) } : {}),
+        metadata: { studioId },
+      },
+      on,
+    ),
+  );
+  return { providerCouponId: coupon.id, providerPromotionCodeId: made.id, providerAccountId: accountId };
 }
 
 /** Deactivates (or reactivates) a code; members who already used it keep their discount. */
 export async function setPromoActive(deps: BillingDeps, studioId: string, id: string, active: boolean): Promise<PromoView> {
   const row = /^[0-9a-f-]{36}$/i.test(id) ? await deps.db.query.promoCodes.findFirst({ where: and(eq(promoCodes.id, id), eq(promoCodes.studioId, studioId)) }) : undefined;
   if (!row) throw notFound('That promo code');
-  if (row.providerPromotionCodeId) await provider(() => deps.stripe.promotionCodes.update(row.providerPromotionCodeId!, { active }));
+  // A code not made on the account yet has nothing there to change; checkout reads `active` here.
+  if (row.providerPromotionCodeId && row.providerAccountId) {
+    await provider(() => deps.stripe.promotionCodes.update(row.providerPromotionCodeId!, { active }, onAccount(row.providerAccountId)));
+  }
   await deps.db.update(promoCodes).set({ active }).where(eq(promoCodes.id, id));
   const view = (await listPromoCodes(deps, studioId)).find((p) => p.id === id)!;
   return view;
@@ -193,7 +222,7 @@ export async function setPromoActive(deps: BillingDeps, studioId: string, id: st
 async function usablePromo(deps: AppDeps, studioId: string, code: string) {
   const refuse = (message: string) => new AppError('invalid_input', message, { promoCode: message });
   const row = await deps.db.query.promoCodes.findFirst({ where: and(eq(promoCodes.studioId, studioId), eq(promoCodes.code, code)) });
-  if (!row || !row.providerPromotionCodeId) throw refuse(`We don't recognise the code ${code}. Check the spelling, or leave the field empty.`);
+  if (!row) throw refuse(`We don't recognise the code ${code}. Check the spelling, or leave the field empty.`);
   if (!row.active) throw refuse(`The code ${code} is no longer active. Leave the field empty to start without it.`);
   if (row.expiresAt && row.expiresAt <= new Date()) throw refuse(`The code ${code} expired on ${formatInstant(row.expiresAt, await studioClock(deps, studioId), 'day')}. Leave the field empty to start without it.`);
   return row;
@@ -222,18 +251,28 @@ export async function startCheckout(
   if (existing && isLive(existing.status)) {
     throw new AppError('conflict', 'You already have a membership. You can manage it on your account page.');
   }
-  const promo = input.promoCode ? await usablePromo(deps, studioId, input.promoCode) : null;
+  // Said before anything else, so a visitor of a studio that cannot sell learns it plainly.
+  const accountId = await sellingAccount(deps, studioId);
+  const on = onAccount(accountId);
+  let promo = input.promoCode ? await usablePromo(deps, studioId, input.promoCode) : null;
+  if (promo && promo.providerAccountId !== accountId) {
+    const mirrored = await mirrorPromo(deps, studioId, promo);
+    await deps.db.update(promoCodes).set(mirrored).where(eq(promoCodes.id, promo.id));
+    promo = { ...promo, ...mirrored };
+  }
   const settings = await ensurePrice(deps, studioId);
   // One free trial per person: whoever had a subscription before pays from the first day.
   const trialDays = existing?.providerSubscriptionId ? 0 : settings.trialDays;
-  let customerId = existing?.providerCustomerId ?? null;
+  // Customers live on the studio's account: one stored for another account is not reused.
+  let customerId = existing?.providerAccountId === accountId ? (existing.providerCustomerId ?? null) : null;
   if (!customerId) {
-    const customer = await provider(() => deps.stripe.customers.create({ email: user.email, name: user.name, metadata: { userId: user.id, studioId } }));
+    const customer = await provider(() => deps.stripe.customers.create({ email: user.email, name: user.name, metadata: { userId: user.id, studioId } }, on));
     customerId = customer.id;
+    const fresh = { providerCustomerId: customerId, providerAccountId: accountId, updatedAt: new Date() };
     await deps.db
       .insert(subscriptions)
-      .values({ studioId, userId: user.id, providerCustomerId: customerId })
-      .onConflictDoUpdate({ target: [subscriptions.studioId, subscriptions.userId], set: { providerCustomerId: customerId, updatedAt: new Date() } });
+      .values({ studioId, userId: user.id, ...fresh })
+      .onConflictDoUpdate({ target: [subscriptions.studioId, subscriptions.userId], set: fresh });
   }
   const ids = { studioId, userId: user.id, ...(promo ? { promoCode: promo.code } : {}) };
   const session = await provider(() =>
@@ -242,12 +281,17 @@ export async function startCheckout(
       customer: customerId!,
       client_reference_id: user.id,
       line_items: [{ price: settings.providerPriceId!, quantity: 1 }],
-      subscription_data: { ...(trialDays > 0 ? { trial_period_days: trialDays } : {}), metadata: ids },
+      subscription_data: {
+        ...(trialDays > 0 ? { trial_period_days: trialDays } : {}),
+        // The platform's cut of every invoice of this membership; the rest is the studio's.
+        application_fee_percent: env().PLATFORM_FEE_PERCENT,
+        metadata: ids,
+      },
       metadata: ids,
       ...(promo ? { discounts: [{ promotion_code: promo.providerPromotionCodeId! }] } : {}),
       success_url: `${baseUrl}/account/checkout-return`,
       cancel_url: `${baseUrl}/account?checkout=cancelled`,
-    }),
+    }, on),
   );
   if (!session.url) throw new AppError('unavailable', 'The payment page could not be opened. Please try again.');
   return { url: session.url };
@@ -261,7 +305,10 @@ export async function membershipOf(deps: AppDeps, studioId: string, userId: stri
   // The first charge after a trial carries the promo discount (percent off the first month).
   const nextAmount = row?.status === 'trialing' && promo ? settings.monthlyPriceMinor - Math.round((settings.monthlyPriceMinor * promo.percentOff) / 100) : settings.monthlyPriceMinor;
   const nextChargeAt = row && isLive(row.status) && !row.cancelAtPeriodEnd ? (row.status === 'trialing' ? row.trialEnd : row.currentPeriodEnd) : null;
+  const open = await salesOpen(deps, studioId);
   return {
+    /** Whether the studio can take a new membership now (its payment account is ready). */
+    salesOpen: open,
     status: (has ? row!.status : 'none') as MembershipOutput['status'],
     trialEnd: row?.trialEnd?.toISOString() ?? null,
     currentPeriodEnd: row?.currentPeriodEnd?.toISOString() ?? null,
@@ -280,7 +327,7 @@ export async function setCancelAtPeriodEnd(deps: BillingDeps, studioId: string, 
   if (!row?.providerSubscriptionId || !isLive(row.status)) {
     throw new AppError('conflict', cancel ? 'You have no running membership to cancel.' : 'There is no membership to resume. Start a new one from your account page.');
   }
-  const sub = await provider(() => deps.stripe.subscriptions.update(row.providerSubscriptionId!, { cancel_at_period_end: cancel }));
+  const sub = await provider(() => deps.stripe.subscriptions.update(row.providerSubscriptionId!, { cancel_at_period_end: cancel }, onAccount(row.providerAccountId)));
   await deps.db
     .update(subscriptions)
     .set({ cancelAtPeriodEnd: sub.cancel_at_period_end || sub.cancel_at != null, updatedAt: new Date() })
