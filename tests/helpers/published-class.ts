@@ -23,14 +23,23 @@ export const smallTimeline = (shift = 0) => ({
   cues: [{ id: 'c1', atSeconds: 1, kind: 'form', text: 'Drive through the heel.' }],
 });
 
+/**
+ * Uploads a generated test-pattern clip of `seconds` as the class's newest recording and waits
+ * until it is ready (and so the class's current one); answers its id.
+ */
+export async function uploadReadyRecording(coach: ApiClient, dir: string, lessonId: string, seconds: number): Promise<string> {
+  const clip = join(dir, `${lessonId}-${seconds}s.mp4`);
+  await makeClip(clip, { seconds, size: '320x180' });
+  const { recordingId } = await uploadWhole(coach, lessonId, 'class.mp4', new Uint8Array(await readFile(clip)));
+  const ready = await waitForRecording(coach, recordingId);
+  if (ready.state !== 'ready') throw new Error(`recording ${ready.state}: ${ready.failureReason}`);
+  return recordingId;
+}
+
 export async function createSmallClass(coach: ApiClient, dir: string, title: string, details: Record<string, unknown> = {}) {
   const lesson = await (await coach.post('/api/lessons', { title, advertisedMinutes: 1, impact: 'low', ...details })).json();
   await coach.put(`/api/lessons/${lesson.id}/plan`, { version: lesson.version, ...SMALL_PLAN });
   await coach.put(`/api/lessons/${lesson.id}/timeline`, { version: 0, ...smallTimeline() });
-  const clip = join(dir, `${lesson.id}.mp4`);
-  await makeClip(clip, { seconds: 12, size: '320x180' });
-  const { recordingId } = await uploadWhole(coach, lesson.id, 'class.mp4', new Uint8Array(await readFile(clip)));
-  const ready = await waitForRecording(coach, recordingId);
-  if (ready.state !== 'ready') throw new Error(`recording ${ready.state}: ${ready.failureReason}`);
+  const recordingId = await uploadReadyRecording(coach, dir, lesson.id, 12);
   return { lessonId: lesson.id as string, slug: lesson.slug as string, recordingId };
 }

@@ -1,13 +1,11 @@
-import { mkdtemp, readFile, rm } from 'node:fs/promises';
+import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { WebVTTParser } from 'webvtt-parser';
 import { type ApiClient, DEMO, signedIn } from '../helpers/api-client';
-import { makeClip } from '../helpers/media-files';
 import { newMember } from '../helpers/payments';
-import { createSmallClass, SMALL_PLAN, smallTimeline } from '../helpers/published-class';
-import { uploadWhole, waitForRecording } from '../helpers/upload-flow';
+import { createSmallClass, SMALL_PLAN, smallTimeline, uploadReadyRecording } from '../helpers/published-class';
 
 let dir: string;
 let coach: ApiClient;
@@ -132,22 +130,13 @@ describe('published captions (members)', () => {
   });
 });
 
-/** Uploads a generated test-pattern clip of `seconds` as the class's newest recording and waits until it is ready (and so current). */
-async function uploadRecording(lessonId: string, seconds: number): Promise<void> {
-  const clip = join(dir, `${lessonId}-${seconds}.mp4`);
-  await makeClip(clip, { seconds, size: '320x180' });
-  const { recordingId } = await uploadWhole(coach, lessonId, `take-${seconds}.mp4`, new Uint8Array(await readFile(clip)));
-  const ready = await waitForRecording(coach, recordingId);
-  if (ready.state !== 'ready') throw new Error(`recording ${ready.state}`);
-}
-
 describe('captions against a newer, shorter recording', () => {
   it('block the publish and list the captions past the end until they are trimmed', async () => {
     // The 12 s plan of the small class, first recorded in 20 s, then replaced by a 13 s take (generated clips).
     const lesson = await (await coach.post('/api/lessons', { title: `Captions shorter take ${Date.now()}`, advertisedMinutes: 1, impact: 'low' })).json();
     await coach.put(`/api/lessons/${lesson.id}/plan`, { version: lesson.version, ...SMALL_PLAN });
     await coach.put(`/api/lessons/${lesson.id}/timeline`, { version: 0, ...smallTimeline() });
-    await uploadRecording(lesson.id, 20);
+    await uploadReadyRecording(coach, dir, lesson.id, 20);
     const captionsPath = `/api/lessons/${lesson.id}/captions`;
     // Invented captions timed against the 20 s recording.
     const cues = [
@@ -157,7 +146,7 @@ describe('captions against a newer, shorter recording', () => {
     ];
     expect((await coach.put(captionsPath, { version: 0, language: 'en', label: 'English captions', cues })).status).toBe(200);
 
-    await uploadRecording(lesson.id, 13);
+    await uploadReadyRecording(coach, dir, lesson.id, 13);
     const draft = (await (await coach.get(captionsPath)).json()) as { version: number; cues: typeof cues; recordingSeconds: number };
     // One video frame at 30 fps of tolerance on the measured length (shared/check-values.md, 'Media measurement (ffmpeg 5.1, checked here)').
     expect(Math.abs(draft.recordingSeconds - 13)).toBeLessThan(0.034);
