@@ -6,14 +6,14 @@
 import { expandPlan, markFieldsOf } from '../plan/expand-plan';
 import type { Plan } from '../plan/plan-schema';
 import { segmentSchema, type Cue, type CueKind, type Segment, type SegmentKind, type SegmentSide, type Timeline } from '../timeline/timeline-schema';
-import { roundToMillis } from '../time/format-time';
+import { formatEditorTime, roundToMillis } from '../time/format-time';
 import { applyFix, applyNonConflictingFixes } from '../timing/apply-fix';
 import type { Finding } from '../timing/finding-types';
 
-/** Shortest segment the editor makes or leaves when moving an edge (a tenth of a second). */
-export const MIN_SEGMENT_SECONDS = 0.1;
-/** Two edges closer than this are one shared boundary and move together. */
-const SAME_TIME = 0.0005;
+import { MIN_SEGMENT_SECONDS, SAME_TIME } from './edit-limits';
+import { moveSegment } from './segment-move';
+
+export { MIN_SEGMENT_SECONDS } from './edit-limits';
 
 export type Edge = 'start' | 'end';
 export type Selection =
@@ -43,6 +43,8 @@ export type EditorAction =
   | { type: 'set-details'; details: SegmentDetails; segmentId?: string }
   | { type: 'nudge'; delta: number }
   | { type: 'move-edge'; segmentId: string; edge: Edge; to: number; linked?: boolean }
+  /** The whole segment (both edges) to start at `to`, or by `delta` seconds; the selected one unless named. */
+  | { type: 'move-segment'; segmentId?: string; to?: number; delta?: number }
   | { type: 'move-cue'; cueId: string; to: number }
   | { type: 'add-cue'; at: number; kind?: CueKind; text?: string }
   | { type: 'set-cue'; cueId: string; kind?: CueKind; text?: string }
@@ -270,6 +272,14 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
       const timeline = moveEdge(state.timeline, action.segmentId, action.edge, action.to, action.linked ?? true, state.mediaSeconds);
       if (timeline === state.timeline) return state;
       return commit(state, timeline, { type: 'segment', id: action.segmentId, edge: action.edge });
+    }
+    case 'move-segment': {
+      const seg = selectedSegment(state, action.segmentId);
+      if (!seg) return { ...state, notice: 'Select a segment first, then move it.' };
+      const moved = moveSegment(state.timeline, seg.id, action.to ?? seg.startSeconds + (action.delta ?? 0), state.mediaSeconds);
+      if (!moved.ok) return { ...state, selection: { type: 'segment', id: seg.id, edge: null }, notice: moved.message };
+      const notice = moved.clamped ? `Moved as far as there is room: it starts at ${formatEditorTime(moved.startSeconds)}.` : null;
+      return commit(state, moved.timeline, { type: 'segment', id: seg.id, edge: null }, notice);
     }
     case 'move-cue': {
       const cue = state.timeline.cues.find((c) => c.id === action.cueId);

@@ -11,6 +11,10 @@ export type ShortcutCommand =
   | 'nudge-small-forward'
   | 'nudge-large-back'
   | 'nudge-large-forward'
+  | 'move-small-back'
+  | 'move-small-forward'
+  | 'move-large-back'
+  | 'move-large-forward'
   | 'previous-boundary'
   | 'next-boundary'
   | 'add-cue'
@@ -41,6 +45,10 @@ export const SHORTCUTS: readonly Shortcut[] = [
   { command: 'nudge-small-forward', keys: '→', description: 'Nudge the selected boundary or cue 0.1 s later' },
   { command: 'nudge-large-back', keys: 'Shift + ←', description: 'Nudge 1 s earlier' },
   { command: 'nudge-large-forward', keys: 'Shift + →', description: 'Nudge 1 s later' },
+  { command: 'move-small-back', keys: 'Ctrl + ← (⌘ + ← on a Mac)', description: 'Move the whole selected segment 0.1 s earlier (both edges; a neighbour sharing an edge follows)' },
+  { command: 'move-small-forward', keys: 'Ctrl + → (⌘ + → on a Mac)', description: 'Move the whole selected segment 0.1 s later' },
+  { command: 'move-large-back', keys: 'Ctrl + Shift + ←', description: 'Move the whole selected segment 1 s earlier' },
+  { command: 'move-large-forward', keys: 'Ctrl + Shift + →', description: 'Move the whole selected segment 1 s later' },
   { command: 'previous-boundary', keys: '[', description: 'Jump to the previous boundary and select it' },
   { command: 'next-boundary', keys: ']', description: 'Jump to the next boundary and select it' },
   { command: 'add-cue', keys: 'C', description: 'Add a cue at the playhead' },
@@ -72,6 +80,8 @@ export function commandForKey(e: KeyInput): { command: ShortcutCommand; index?: 
     if (key === 'z') return { command: e.shiftKey ? 'redo' : 'undo' };
     if (key === 'y') return { command: 'redo' };
     if (key === 's') return { command: 'save' };
+    if (key === 'ArrowLeft') return { command: e.shiftKey ? 'move-large-back' : 'move-small-back' };
+    if (key === 'ArrowRight') return { command: e.shiftKey ? 'move-large-forward' : 'move-small-forward' };
     return null;
   }
   if (e.altKey) return null;

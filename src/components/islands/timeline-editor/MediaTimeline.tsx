@@ -30,6 +30,7 @@ export interface MediaTimelineProps {
   onZoomStep(direction: 1 | -1): void;
   onSelect(selection: Selection): void;
   onEdgeDragged(segmentId: string, edge: Edge, to: number, bypassSnap: boolean): void;
+  onSegmentDragged(segmentId: string, start: number, bypassSnap: boolean): void;
   onCueDragged(cueId: string, to: number, bypassSnap: boolean): void;
   onReady(): void;
   onMediaError(message: string): void;
@@ -102,7 +103,7 @@ export default function MediaTimeline(props: MediaTimelineProps) {
         className="rounded-[10px] border border-stone/70 bg-chalk p-2"
         role="group"
         tabIndex={0}
-        aria-label="Timeline: waveform with segments and cues. Click to move the playhead; drag an edge or a cue to move it; Ctrl and the mouse wheel zoom."
+        aria-label="Timeline: waveform with segments and cues. Click to move the playhead; drag an edge or a cue to move it, or the middle of a segment to move the whole segment; Ctrl and the mouse wheel zoom."
         data-timeline
       >
         <div ref={waveRef} data-waveform />

@@ -112,6 +112,7 @@ function Editor({ lessonId, data, peaks }: { lessonId: string; data: EditorData;
         onZoomStep={h.onZoomStep}
         onSelect={h.onSelect}
         onEdgeDragged={h.onEdgeDragged}
+        onSegmentDragged={h.onSegmentDragged}
         onCueDragged={h.onCueDragged}
         onReady={() => c.setReady(true)}
         onMediaError={c.setMediaError}

@@ -53,6 +53,7 @@ function selectSegment(c: CommandContext, id: string) {
 }
 
 const nudge = (delta: number): Handler => (c) => c.dispatch({ type: 'nudge', delta });
+const moveBy = (delta: number): Handler => (c) => c.dispatch({ type: 'move-segment', delta });
 
 const jumpBoundary = (direction: 1 | -1): Handler => (c) => {
   const t = c.playhead.get();
@@ -86,6 +87,10 @@ export const EDITOR_COMMANDS: Record<ShortcutCommand, Handler> = {
   'nudge-small-forward': nudge(0.1),
   'nudge-large-back': nudge(-1),
   'nudge-large-forward': nudge(1),
+  'move-small-back': moveBy(-0.1),
+  'move-small-forward': moveBy(0.1),
+  'move-large-back': moveBy(-1),
+  'move-large-forward': moveBy(1),
   'previous-boundary': jumpBoundary(-1),
   'next-boundary': jumpBoundary(1),
   'add-cue': (c, { bypass }) => c.dispatch({ type: 'add-cue', at: c.snapPoint(c.playhead.get(), bypass) }),

@@ -12,6 +12,7 @@ import { fixChanges } from '~/lib/timing/apply-fix';
 import type { Finding } from '~/lib/timing/finding-types';
 import { editorReducer, initialEditorState, type Edge, type Selection } from '~/lib/editor/editor-state';
 import { edgeTargets, planAnchor, plannedBoundaries, snapTime } from '~/lib/editor/snapping';
+import { moveTargets, snapSegmentStart } from '~/lib/editor/segment-move';
 import type { ShortcutCommand } from '~/lib/editor/shortcuts';
 import type { EditorData } from '../editor-api';
 import { announcePlanSaved, onPlanSaved } from '../../plan-events';
@@ -120,6 +121,20 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
     // eslint-disable-next-line react-hooks/exhaustive-deps
     [plan, onsets, planned, snapOn],
   );
+  // A whole segment dropped somewhere: its start or end snaps (whichever is nearer a target), then
+  // the reducer clamps the move to the room it has, like an edge drag. One drop, one undo step.
+  const onSegmentDragged = useCallback(
+    (segmentId: string, start: number, bypass: boolean) => {
+      const timeline = stateRef.current.timeline;
+      const seg = timeline.segments.find((s) => s.id === segmentId);
+      if (!seg) return;
+      const targets = moveTargets(timeline, segmentId, onsets, planned);
+      const to = snapSegmentStart(start, seg.endSeconds - seg.startSeconds, targets, { enabled: snapOn, bypass, maxDistance: snapDistance() });
+      dispatch({ type: 'move-segment', segmentId, to });
+    },
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+    [onsets, planned, snapOn],
+  );
   const onCueDragged = useCallback(
     (cueId: string, to: number, bypass: boolean) => dispatch({ type: 'move-cue', cueId, to: snapPoint(to, bypass) }),
     // eslint-disable-next-line react-hooks/exhaustive-deps
@@ -225,7 +240,7 @@ export function useEditorController(lessonId: string, data: EditorData, peaks: P
     selectedSegment,
     selectedCue,
     planMessage,
-    handlers: { onEdgeDragged, onCueDragged, onShowFinding, onApplyFix, onMarkHere, onLeaveOut, onApplyAll, onSelect, onPickSegment, onPickCue, onZoomStep },
+    handlers: { onEdgeDragged, onSegmentDragged, onCueDragged, onShowFinding, onApplyFix, onMarkHere, onLeaveOut, onApplyAll, onSelect, onPickSegment, onPickCue, onZoomStep },
   };
 }
 

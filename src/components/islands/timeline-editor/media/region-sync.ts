@@ -54,7 +54,8 @@ export function createRegionSync(): RegionSync {
           start: s.startSeconds,
           end: s.endSeconds,
           color: withAlpha(KIND_COLOURS[s.kind], 0.5),
-          drag: false,
+          // The body drags the whole segment; the edges resize it.
+          drag: true,
           resize: true,
           minLength: 0.1,
           content: labelElement(segmentLabel(s)),

@@ -29,6 +29,8 @@ export interface WaveformInputs {
   playhead: PlayheadStore;
   onSelect(selection: Selection): void;
   onEdgeDragged(segmentId: string, edge: Edge, to: number, bypassSnap: boolean): void;
+  /** A whole segment was dragged (both edges): it was dropped starting at `start`. */
+  onSegmentDragged(segmentId: string, start: number, bypassSnap: boolean): void;
   onCueDragged(cueId: string, to: number, bypassSnap: boolean): void;
   onReady(): void;
   onMediaError(message: string): void;
@@ -131,6 +133,7 @@ export function useMediaWaveform(inputs: WaveformInputs, elements: Elements, alt
         const p = inputsRef.current;
         if (region.id.startsWith(CUE_PREFIX)) p.onCueDragged(region.id.slice(CUE_PREFIX.length), region.start, altHeld.current);
         else if (side) p.onEdgeDragged(region.id, side, side === 'start' ? region.start : region.end, altHeld.current);
+        else p.onSegmentDragged(region.id, region.start, altHeld.current);
         // The state decides where the edge ends up (snapped, clamped); put the region back in line.
         setTimeout(() => syncRegions(true), 0);
       });
