@@ -1,4 +1,5 @@
 import http from 'node:http';
+import { chromium } from 'playwright-core';
 
 /** Bytes of one page and everything it loads up front, as sent without and with compression. */
 export interface PageWeight {
@@ -11,18 +12,30 @@ export interface PageWeight {
 }
 
 /**
- * Fetches a page and its scripts (static imports, and dynamic ones when asked: the player's
- * hls.js) and stylesheets, each twice: `Accept-Encoding: identity` (no compression, as before the
- * server compressed) and `br, gzip` (what a browser asks for). Counts body bytes as sent, before
- * any decoding, so the figure is what crosses the wire.
+ * Which scripts count for a page:
+ * - `static`: those its HTML names and their static imports (what any visit downloads);
+ * - `all-dynamic`: those plus every dynamic `import()` reachable from them. This was the only
+ *   measure until December 2026. It overcounts: a chunk a page loads only in some states (the
+ *   staff class page's uploader, needed only while a class has no usable recording) was counted on
+ *   every page, next to chunks it excludes (the editor's HLS player, loaded once a recording is
+ *   ready). Kept as an upper bound.
+ * - `browser`: what Chromium really fetches when it opens the page signed in and the network
+ *   settles (scripts the page's own code imports at load included, on-demand ones left out).
  */
-export async function pageWeight(base: string, path: string, cookie: string, followDynamic: boolean): Promise<PageWeight> {
+export type ScriptSet = 'static' | 'all-dynamic' | 'browser';
+
+/**
+ * Fetches a page, its scripts (see ScriptSet) and stylesheets, each twice: `Accept-Encoding:
+ * identity` (no compression, as before the server compressed) and `br, gzip` (what a browser asks
+ * for). Counts body bytes as sent, before any decoding, so the figure is what crosses the wire.
+ */
+export async function pageWeight(base: string, path: string, cookie: string, scriptSet: ScriptSet): Promise<PageWeight> {
   const page = await wire(base + path, cookie, 'identity');
   const html = page.body.toString('utf8');
   const scripts = [...html.matchAll(/(?:src|component-url|renderer-url)="(\/_astro\/[^"]+\.js)"/g)].map((m) => m[1]!);
   const styles = [...html.matchAll(/<link[^>]+href="(\/_astro\/[^"]+\.css)"/g)].map((m) => m[1]!);
-  const seen = new Set<string>();
-  const queue = [...scripts];
+  const seen = new Set<string>(scriptSet === 'browser' ? await scriptsFetchedByBrowser(base, path, cookie) : []);
+  const queue = scriptSet === 'browser' ? [] : [...scripts];
   while (queue.length) {
     const file = queue.shift()!;
     if (seen.has(file)) continue;
@@ -30,7 +43,7 @@ export async function pageWeight(base: string, path: string, cookie: string, fol
     const text = (await wire(base + file, cookie, 'identity')).body.toString('utf8');
     const dir = file.slice(0, file.lastIndexOf('/') + 1);
     queue.push(...[...text.matchAll(/(?:import|from)\s*["'](\.\/[^"']+\.js)["']/g)].map((m) => dir + m[1]!.slice(2)));
-    if (followDynamic) queue.push(...[...text.matchAll(/import\(\s*["'](\.\/[^"']+\.js)["']\s*\)/g)].map((m) => dir + m[1]!.slice(2)));
+    if (scriptSet === 'all-dynamic') queue.push(...[...text.matchAll(/import\(\s*["'](\.\/[^"']+\.js)["']\s*\)/g)].map((m) => dir + m[1]!.slice(2)));
   }
   let identityBytes = page.body.length;
   let compressedBytes = (await wire(base + path, cookie, 'br, gzip')).body.length;
@@ -45,6 +58,26 @@ export async function pageWeight(base: string, path: string, cookie: string, fol
     encoding ||= packed.encoding;
   }
   return { files: 1 + seen.size + new Set(styles).size, identityBytes, compressedBytes, encoding: encoding || 'none', scriptCompressedBytes };
+}
+
+/** The app's scripts Chromium downloads while opening `path` signed in, until the network is idle. */
+async function scriptsFetchedByBrowser(base: string, path: string, cookie: string): Promise<string[]> {
+  const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', headless: true, args: ['--no-sandbox', '--disable-gpu'] });
+  try {
+    const context = await browser.newContext();
+    const [name, ...value] = cookie.split('=');
+    await context.addCookies([{ name: name!, value: value.join('='), url: base }]);
+    const page = await context.newPage();
+    const fetched = new Set<string>();
+    page.on('response', (res) => {
+      const url = new URL(res.url());
+      if (url.origin === base && url.pathname.startsWith('/_astro/') && url.pathname.endsWith('.js')) fetched.add(url.pathname);
+    });
+    await page.goto(base + path, { waitUntil: 'networkidle' });
+    return [...fetched];
+  } finally {
+    await browser.close();
+  }
 }
 
 function wire(url: string, cookie: string, acceptEncoding: string): Promise<{ body: Buffer; encoding: string }> {
