@@ -1,5 +1,6 @@
 import { spawn } from 'node:child_process';
 import pg from 'pg';
+import { serveCommand } from '../tests/helpers/app-server';
 
 /**
  * A throwaway database for one benchmark: dropped if left over, created, migrated. Its URL is
@@ -23,7 +24,7 @@ export async function startBenchApp(port: number, databaseUrl: string, env: Reco
   if (await fetch(`${base}/api/health`).then(() => true).catch(() => false)) {
     throw new Error(`port ${port} is taken: set ROUNDMARK_BENCH_PORT to a free port`);
   }
-  const server = spawn('node', ['--import', 'tsx', 'src/serve.ts'], {
+  const server = spawn(...serveCommand(), {
     env: { ...process.env, DATABASE_URL: databaseUrl, HOST: '127.0.0.1', PORT: String(port), ...env },
     stdio: 'ignore',
   });

@@ -27,4 +27,4 @@ done
 trap 'kill "${workers[@]}" 2>/dev/null; wait "${workers[@]}" 2>/dev/null' EXIT INT TERM
 say "Roundmark is starting on $PUBLIC_BASE_URL (demo accounts in README.md); the job worker logs to .data/run/worker.log."
 say "Ctrl+C stops the app and the worker; 'npm run services -- down' stops the services."
-node --import tsx src/serve.ts
+node "${ROUNDMARK_DIST:-dist}/serve.mjs" # src/serve.ts, compiled by the build

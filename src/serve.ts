@@ -6,7 +6,12 @@
  * Answers are compressed here (gzip or Brotli, as the browser accepts) with the `compression`
  * package, so no reverse proxy is needed for that. With ROUNDMARK_APP_PROCESSES > 1 the port is
  * shared by that many processes (node:cluster); each is stateless, as any app instance must be.
- * Run: `node --import tsx src/serve.ts` (HOST, PORT, ROUNDMARK_DIST as for the adapter).
+ * The client files (dist/client) are served here with sirv from a list read once at start, in
+ * the Brotli or gzip copy the build wrote beside each (src/build/production-server.ts); every
+ * other request goes straight to Astro (the adapter in middleware mode), with no file-system
+ * look-up on the way (the adapter's standalone handler stat-ed the disk for every page request).
+ * Run the compiled file: `node dist/serve.mjs` (`npm run serve`; HOST, PORT, ROUNDMARK_DIST as for
+ * the adapter). `node --import tsx src/serve.ts` runs the source the same way.
  */
 import cluster from 'node:cluster';
 import { readFileSync } from 'node:fs';
@@ -15,10 +20,14 @@ import https from 'node:https';
 import path from 'node:path';
 import { pathToFileURL } from 'node:url';
 import compression from 'compression';
+import sirv from 'sirv';
 import { env, settings } from './server/env';
 import { clientAddressOf, markAddressesResolved, trustProxies } from './server/http/client-address';
 
 type NodeHandler = (req: http.IncomingMessage, res: http.ServerResponse) => void;
+
+/** Hashed build assets never change under one name; browsers may keep them a year. */
+const IMMUTABLE_PREFIX = '/_astro/';
 
 const processes = settings().ROUNDMARK_APP_PROCESSES;
 if (processes > 1 && cluster.isPrimary) {
@@ -45,18 +54,34 @@ if (processes > 1 && cluster.isPrimary) {
 
 async function serve() {
   const trusted = trustProxies(env().TRUSTED_PROXIES);
-  process.env.ASTRO_NODE_AUTOSTART = 'disabled'; // we listen ourselves
   const { ROUNDMARK_DIST, SERVER_CERT_PATH: cert, SERVER_KEY_PATH: key, HOST: host, PORT: port } = settings();
   const dist = path.resolve(ROUNDMARK_DIST);
-  const { handler } = (await import(pathToFileURL(path.join(dist, 'server/entry.mjs')).href)) as { handler: NodeHandler };
+  const { handler: render } = (await import(pathToFileURL(path.join(dist, 'server/entry.mjs')).href)) as { handler: NodeHandler };
   markAddressesResolved();
 
-  // Text answers (pages, scripts, styles, JSON) travel compressed; compression skips small bodies and
-  // types that do not gain (images, video), and honours Accept-Encoding.
+  const clientFiles = sirv(path.join(dist, 'client'), {
+    brotli: true,
+    gzip: true,
+    etag: true,
+    setHeaders: (res, pathname) => {
+      // Other public files (the icon, the card picture) keep their name across releases: an hour, then revalidated by ETag.
+      res.setHeader('Cache-Control', pathname.startsWith(IMMUTABLE_PREFIX) ? 'public, max-age=31536000, immutable' : 'public, max-age=3600');
+    },
+  });
+  // Dynamic text answers (pages, JSON) travel compressed; compression skips small bodies, types
+  // that do not gain (images, video) and answers already encoded (the precompressed files), and
+  // honours Accept-Encoding.
   const compress = compression() as unknown as (req: http.IncomingMessage, res: http.ServerResponse, next: () => void) => void;
   const listener: NodeHandler = (req, res) => {
+    try {
+      decodeURI(req.url ?? '/'); // as the adapter's standalone handler did: a malformed path is the client's mistake
+    } catch {
+      res.writeHead(400, { 'content-type': 'text/plain; charset=utf-8' }).end('Bad request.');
+      return;
+    }
     req.headers['x-forwarded-for'] = clientAddressOf(req, trusted);
-    compress(req, res, () => handler(req, res));
+    const toApp = () => render(req, res);
+    compress(req, res, req.method === 'GET' || req.method === 'HEAD' ? () => clientFiles(req, res, toApp) : toApp);
   };
 
   const server = cert && key ? https.createServer({ cert: readFileSync(cert), key: readFileSync(key) }, listener) : http.createServer(listener);

@@ -2,6 +2,13 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdirSync, openSync, readFileSync, writeFileSync } from 'node:fs';
 
 /**
+ * How to start the built web server (src/serve.ts compiled by the build into `<dist>/serve.mjs`):
+ * plain JavaScript, as `npm start` runs it in production. Tests, benchmarks and second servers all
+ * start it this way.
+ */
+export const serveCommand = (dist = process.env.ROUNDMARK_DIST ?? 'dist'): [string, string[]] => ['node', [`${dist}/serve.mjs`]];
+
+/**
  * Vitest global set-up: serves the built app (dist/) on ROUNDMARK_TEST_PORT against the test
  * database that docker-free-dev/run-tests.sh prepared, and runs the job worker beside it, for
  * the integration and browser tests. Both logs go to test-results/.
@@ -11,13 +18,13 @@ export default async function setup() {
   const base = `http://127.0.0.1:${port}`;
   process.env.TEST_BASE_URL = base;
   const dist = process.env.ROUNDMARK_DIST ?? 'dist';
-  if (!existsSync(`${dist}/server/entry.mjs`) || !process.env.DATABASE_URL) return;
+  if (!existsSync(`${dist}/serve.mjs`) || !process.env.DATABASE_URL) return;
   if (await healthy(base)) return; // already served by someone else (a second vitest run)
   mkdirSync('test-results', { recursive: true });
   const children: ChildProcess[] = [
     // The production entry; the tests play the reverse proxy on loopback, so each test client can
     // send its own X-Forwarded-For address (see api-client.ts) and rate limits keep apart.
-    spawn('node', ['--import', 'tsx', 'src/serve.ts'], {
+    spawn(...serveCommand(dist), {
       env: { ...process.env, HOST: '127.0.0.1', PORT: port, ROUNDMARK_DIST: dist, TRUSTED_PROXIES: process.env.TRUSTED_PROXIES ?? 'loopback' },
       stdio: ['ignore', openSync('test-results/app.log', 'a'), openSync('test-results/app.log', 'a')],
     }),

@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { ApiClient, DEMO, signedIn } from '../helpers/api-client';
 import { waitForMessage } from '../helpers/mail-box';
+import { serveCommand } from '../helpers/app-server';
 import { freshEmail, signUpMember } from '../helpers/mail-flow';
 import { createAppDeps } from '~/server/app';
 import { deliver } from '~/server/mail/transport';
@@ -78,7 +79,7 @@ describe('captured mail page', () => {
       base = `http://127.0.0.1:${port}`;
       const env: NodeJS.ProcessEnv = { ...process.env, HOST: '127.0.0.1', PORT: String(port), NODE_ENV: 'production' };
       delete env.ROUNDMARK_MAIL_PREVIEW;
-      const child = spawn('node', ['--import', 'tsx', 'src/serve.ts'], { env, stdio: 'ignore' });
+      const child = spawn(...serveCommand(), { env, stdio: 'ignore' });
       stop = () => child.kill('SIGTERM');
       for (let i = 0; i < 150; i++) {
         if (await fetch(`${base}/api/health`).then((r) => r.ok, () => false)) return;

@@ -15,7 +15,7 @@ import { DEMO, DEMO_PASSWORD, signedIn, type ApiClient } from '../helpers/api-cl
 import { createSmallClass } from '../helpers/published-class';
 import { makeClip } from '../helpers/media-files';
 import { uploadWhole, waitForRecording } from '../helpers/upload-flow';
-import { startWorker, WORKER_PID_FILE } from '../helpers/app-server';
+import { serveCommand, startWorker, WORKER_PID_FILE } from '../helpers/app-server';
 
 const otherPort = Number(process.env.ROUNDMARK_TEST_PORT ?? 4399) + 1;
 const other = `http://127.0.0.1:${otherPort}`;
@@ -25,15 +25,17 @@ let dir: string;
 let coach: ApiClient;
 let db: pg.Client;
 
-function spawnLogged(args: string[], env: Record<string, string>, log: string): ChildProcess {
+const workerCommand: [string, string[]] = ['node', ['--import', 'tsx', 'src/worker.ts']];
+
+function spawnLogged([command, args]: [string, string[]], env: Record<string, string>, log: string): ChildProcess {
   const out = openSync(`test-results/${log}`, 'a');
-  return spawn('node', ['--import', 'tsx', ...args], { env: { ...process.env, ...env }, stdio: ['ignore', out, out] });
+  return spawn(command, args, { env: { ...process.env, ...env }, stdio: ['ignore', out, out] });
 }
 
 beforeAll(async () => {
   dir = await mkdtemp(join(tmpdir(), 'roundmark-two-'));
-  otherApp = spawnLogged(['src/serve.ts'], { HOST: '127.0.0.1', PORT: String(otherPort) }, 'app-2.log');
-  secondWorker = spawnLogged(['src/worker.ts'], { ROUNDMARK_STALE_SECONDS: '8' }, 'worker-2.log');
+  otherApp = spawnLogged(serveCommand(), { HOST: '127.0.0.1', PORT: String(otherPort) }, 'app-2.log');
+  secondWorker = spawnLogged(workerCommand, { ROUNDMARK_STALE_SECONDS: '8' }, 'worker-2.log');
   for (let i = 0; i < 300; i++) {
     if (await fetch(`${other}/api/health`).then((r) => r.ok).catch(() => false)) break;
     await new Promise((r) => setTimeout(r, 100));
@@ -105,7 +107,7 @@ describe('two web processes and two workers on one database', () => {
     expect(ready.state).toBe('ready');
     // Keep a worker under the pid file for the tests that follow.
     if (victim === firstPid) startWorker();
-    else secondWorker = spawnLogged(['src/worker.ts'], { ROUNDMARK_STALE_SECONDS: '8' }, 'worker-2.log');
+    else secondWorker = spawnLogged(workerCommand, { ROUNDMARK_STALE_SECONDS: '8' }, 'worker-2.log');
   }, 420_000); // packaging a minute of 720p twice on a busy 2-core machine: states are awaited, this only bounds it
 });
 
