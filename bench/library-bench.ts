@@ -24,7 +24,8 @@ const PORT = Number(process.env.ROUNDMARK_BENCH_PORT ?? 4391);
 // A throwaway database: migrated, 10,000 published classes, one member.
 const benchUrl = await freshBenchDatabase('roundmark_bench');
 const deps = createAppDeps(benchUrl);
-const { studioId } = await generateStudioWithClasses(deps, 10_000, 'fernhill');
+const STUDIO_SLUG = 'fernhill';
+const { studioId } = await generateStudioWithClasses(deps, 10_000, STUDIO_SLUG);
 await deps.db.execute(sql`insert into users (id, email, name, password_hash) values ('bench-member', 'bench@fernhill.example', 'Bench Member', ${await hashPassword('bench password 1')})`);
 await deps.db.execute(sql`insert into memberships (user_id, studio_id, role) values ('bench-member', ${studioId}::uuid, 'member')`);
 await deps.db.execute(sql`insert into users (id, email, name, password_hash) values ('bench-coach', 'bench-coach@fernhill.example', 'Bench Coach', ${await hashPassword('bench password 1')})`);
@@ -37,7 +38,8 @@ try {
   const cookie = await benchSignIn(base, 'bench@fernhill.example', 'bench password 1');
   const load = (path: string, headers: Record<string, string> = {}) =>
     autocannon({ url: base + path, connections: 50, duration: 10, headers });
-  const libraryPath = '/library?impact=low&length=under-15&sort=newest';
+  // The library lives under its studio's address; /library only redirects there.
+  const libraryPath = `/s/${STUDIO_SLUG}/library?impact=low&length=under-15&sort=newest`;
   await load(libraryPath, { cookie }); // warm-up: JIT, connection pool, PostgreSQL caches
   const health = await load('/api/health');
   const library = await load(libraryPath, { cookie });
@@ -83,7 +85,7 @@ try {
   console.log('page weights (HTML + scripts + stylesheets; before = no compression, after = as the server sends them):');
   const pages = [
     { name: 'library page (member)', path: libraryPath, cookie, scriptTarget: 60 },
-    { name: 'class page (member, with the HLS player)', path: `/classes/${someClass.slug}`, cookie, scriptTarget: 200 },
+    { name: 'class page (member, with the HLS player)', path: `/s/${STUDIO_SLUG}/classes/${someClass.slug}`, cookie, scriptTarget: 200 },
     { name: 'class page (staff, with the editor and a ready recording)', path: `/studio/classes/${someClass.id}`, cookie: coachCookie, scriptTarget: 250 },
   ];
   for (const p of pages) {
