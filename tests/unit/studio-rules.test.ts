@@ -84,6 +84,14 @@ describe('accent colour contrast (WCAG 2.2 AA 4.5:1)', () => {
     expect(accentColourField.safeParse('#abc').success).toBe(false);
     expect(accentColourField.parse('#b93a17')).toBe('#B93A17');
   });
+
+  it('refuses text that names no colour with the pattern message instead of throwing (found by the API fuzz test)', () => {
+    for (const text of ['NaN', 'not a colour', '#GGGGGG']) {
+      const refused = accentColourField.safeParse(text);
+      expect(refused.success, text).toBe(false);
+      expect(refused.error?.issues.map((i) => i.message), text).toEqual(['Choose a colour like #B93A17.']);
+    }
+  });
 });
 
 describe('start-a-studio input', () => {

@@ -60,6 +60,8 @@ export const accentColourField = z
   .trim()
   .regex(HEX_COLOUR, { error: 'Choose a colour like #B93A17.' })
   .superRefine((hex, ctx) => {
+    // Zod runs this check even after the pattern failed; only a hex colour has a contrast to judge.
+    if (!HEX_COLOUR.test(hex)) return;
     const verdict = accentVerdict(hex);
     if (!verdict.ok)
       ctx.addIssue({

@@ -120,7 +120,7 @@ export const billingRoutes: RouteConfig[] = [
         description: 'Members (JSON) or a CSV file',
         content: { 'application/json': { schema: memberListOutput }, 'text/csv': { schema: membersCsvText } },
       },
-      ...errors(401, 403),
+      ...errors(400, 401, 403),
     },
   },
 ];
