@@ -149,6 +149,8 @@ function NoteForm(p: {
         maxLength={REVIEW_NOTE_MAX}
         value={p.value}
         onChange={(e) => p.onChange(e.target.value)}
+        // Until the island runs, typing would be wiped when React takes the field over.
+        readOnly={p.disabled && !p.value}
         aria-invalid={p.invalid}
         aria-describedby={p.hint ? `${p.id}-hint` : undefined}
         className={inputClass}
