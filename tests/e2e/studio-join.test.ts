@@ -3,12 +3,15 @@
 // studio (started here) joins the same studio with one button and sees each studio's classes
 // only under its own address. The people and the second studio are invented for the test.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import type { Browser } from 'playwright-core';
 import { BASE } from '../helpers/api-client';
 import { launchBrowser, SHOTS } from '../helpers/browser';
 import { signInAfterStart } from '../helpers/role-pages';
 
 const PASSWORD = 'a long enough password';
+const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
 let browser: Browser;
 beforeAll(async () => {
   browser = await launchBrowser();
@@ -76,6 +79,23 @@ describe('joining a studio at its address', () => {
       expect(await page.content()).not.toContain('Desk-Break Mobility');
       await page.goto(`${BASE()}/s/${slug}`);
       expect(await page.locator('[data-join-link]').count()).toBe(0);
+
+      // On a phone (390 px) the switcher sits in the menu: back to their own studio's staff pages.
+      await page.setViewportSize({ width: 390, height: 844 });
+      await page.goto(BASE() + '/s/fernhill/library');
+      expect(await page.locator('form[data-studio-switcher="header"]').isVisible()).toBe(false);
+      await page.getByText('Menu').click();
+      const switcher = page.locator('form[data-studio-switcher="menu"]');
+      await switcher.getByLabel('Studio').selectOption({ label: 'Other Studio' });
+      expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+      // axe-core (npm) with WCAG 2.0–2.2 A/AA tags on the open menu: no serious or critical finding.
+      await page.evaluate(AXE_SOURCE);
+      const axe = (await page.evaluate(() => (window as unknown as { axe: { run: (c: unknown, o: unknown) => Promise<unknown> } }).axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'] } }))) as { violations: { id: string; impact: string | null }[] };
+      expect(axe.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => v.id)).toEqual([]);
+      await page.screenshot({ path: `${SHOTS}/studio-switcher-phone.png` });
+      await switcher.getByRole('button', { name: 'Switch' }).click();
+      await page.waitForURL(BASE() + '/studio');
+      expect(await page.locator('header').textContent()).toContain('Other Studio');
     } finally {
       await context.close();
     }
