@@ -38,7 +38,7 @@ function lastSundayOfMarch(year: number): number {
 async function setStudioClock(page: Page, timeZone: string) {
   await page.goto(BASE() + '/studio/settings');
   await page.getByLabel('Time zone').selectOption(timeZone);
-  await page.getByRole('button', { name: 'Save' }).click();
+  await page.getByRole('button', { name: 'Save', exact: true }).click();
   await page.getByRole('status').filter({ hasText: `Dates now read in ${timeZone}` }).waitFor();
 }
 
