@@ -131,7 +131,7 @@ describe('the captions editor', () => {
     await panel.getByRole('status').filter({ hasText: 'Published as version 1.' }).waitFor();
     await coachPage.context.close();
     const member = await signedIn(DEMO.member);
-    const res = await member.get(`/classes/${cls.slug}/captions.vtt`);
+    const res = await member.get(`/s/fernhill/classes/${cls.slug}/captions.vtt`);
     expect(res.status).toBe(200);
     // webvtt-parser 2.2.0 follows the W3C WebVTT parsing algorithm (https://www.w3.org/TR/webvtt1/).
     const published = new WebVTTParser().parse(await res.text());
@@ -160,7 +160,7 @@ describe('the captions editor', () => {
     expect(await section.getByText('No captions yet.').count()).toBe(1);
     expect((await stored()).cues).toEqual([]);
     // The published version keeps its captions until the class is published again.
-    expect((await (await signedIn(DEMO.member)).get(`/classes/${cls.slug}/captions.vtt`)).status).toBe(200);
+    expect((await (await signedIn(DEMO.member)).get(`/s/fernhill/classes/${cls.slug}/captions.vtt`)).status).toBe(200);
     await context.close();
   }, 120_000);
 });

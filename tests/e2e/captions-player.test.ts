@@ -59,7 +59,7 @@ const remembered = (page: Page) => page.waitForResponse((r) => r.url().endsWith(
 describe('captions in the player', () => {
   it('offer the published captions as a captions track that Chromium reads exactly', async () => {
     const member = await signedIn(DEMO.member);
-    const vtt = await (await member.get('/classes/desk-break-mobility/captions.vtt')).text();
+    const vtt = await (await member.get('/s/fernhill/classes/desk-break-mobility/captions.vtt')).text();
     // webvtt-parser 2.2.0 follows the W3C WebVTT parsing algorithm (https://www.w3.org/TR/webvtt1/).
     const published = new WebVTTParser().parse(vtt);
     expect(published.errors).toEqual([]);

@@ -166,7 +166,7 @@ describe('captions against a newer, shorter recording', () => {
     expect((await coach.put(captionsPath, { version: draft.version, language: 'en', label: 'English captions', cues: trimmed })).status).toBe(200);
     expect(await (await coach.get(`/studio/classes/${lesson.id}`)).text()).not.toContain('end after the recording');
     expect((await coach.post(`/api/lessons/${lesson.id}/publish`, { acknowledgeWarnings: true })).status).toBe(201);
-    const vtt = new WebVTTParser().parse(await (await member.get(`/classes/${lesson.slug}/captions.vtt`)).text());
+    const vtt = new WebVTTParser().parse(await (await member.get(`/s/fernhill/classes/${lesson.slug}/captions.vtt`)).text());
     expect(vtt.errors).toEqual([]);
     expect(vtt.cues.map((c) => c.endTime)).toEqual([3, Math.round(end * 1000) / 1000]);
   }, 240_000);
