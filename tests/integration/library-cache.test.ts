@@ -78,7 +78,7 @@ describe('the library page across processes', () => {
   it('shows a class published by another process at once, through the notification', async () => {
     const member = await signedIn(DEMO.member);
     const word = `zq${randomUUID().slice(0, 8)}`;
-    const url = `/library?q=${word}`;
+    const url = `/s/fernhill/library?q=${word}`;
     const count = async () => /data-testid="result-count"[^>]*>\s*([^<]*)/.exec(await (await member.get(url)).text())?.[1]?.trim() ?? '';
     await member.get('/s/fernhill/library');
     await new Promise((r) => setTimeout(r, 500)); // the server's listener connects on first use
